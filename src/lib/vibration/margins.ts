@@ -1,0 +1,283 @@
+/**
+ * Separation margins, required margins and verdicts.
+ *
+ * Convention (recorded with every result): the margin of a natural frequency f_n to an excitation
+ * f_e is |f_n − f_e| / f_e × 100 %, relative to the excitation (../shared/domain.md §1.1, common
+ * practice). Over a speed range an order sweeps [k·N_min, k·N_max]; a mode inside that band is
+ * crossed and its margin is 0; outside it the margin is taken to the nearest edge.
+ */
+import { atLeast, finite, nonNegative, object, positive, VibrationInputError } from './errors.ts';
+import { EXCITATION_KINDS, excitationCatalogue, lineBandHz, lineFrequencyHz, type ExcitationKind, type ExcitationLine, type ExcitationSource } from './excitation.ts';
+
+export const MARGIN_CONVENTION = 'relative to excitation frequency: |fn − fe| / fe';
+
+/** Slowest measured speed the engine accepts, rpm: below it an excitation frequency is meaningless. */
+export const MIN_MEASURED_RPM = 0.001;
+
+/** SM = |f_n − f_e| / f_e × 100 %. */
+export function separationMarginPct(naturalHz: number, excitationHz: number): number {
+	const fn = positive('naturalHz', naturalHz);
+	const fe = positive('excitationHz', excitationHz);
+	return (Math.abs(fn - fe) / fe) * 100;
+}
+
+export type Position = 'below' | 'above';
+
+/**
+ * The margin of f_n to a band [lo, hi] swept by an excitation, with the side the mode sits on.
+ * Inside the band (crossed) the margin is 0 and `position` is 'inside'. A band that starts at 0
+ * (a speed range from standstill) has no lower edge to measure to: a mode below it is inside.
+ */
+export function bandMarginPct(naturalHz: number, loHz: number, hiHz: number): { marginPct: number; position: Position | 'inside' } {
+	const fn = positive('naturalHz', naturalHz);
+	const lo = nonNegative('band low (Hz)', loHz);
+	const hi = finite('band high (Hz)', hiHz);
+	if (hi < lo) throw new VibrationInputError('band high (Hz)', `at least the band low ${lo}`, hi);
+	if (fn < lo) return { marginPct: ((lo - fn) / lo) * 100, position: 'below' };
+	if (fn > hi) {
+		if (hi <= 0) return { marginPct: 0, position: 'inside' };
+		return { marginPct: ((fn - hi) / hi) * 100, position: 'above' };
+	}
+	return { marginPct: 0, position: 'inside' };
+}
+
+/** A rule set's margin rule. */
+export type MarginRule =
+	| {
+			kind: 'fixed';
+			/** required margin for every excitation kind without its own entry, % */
+			percent: number;
+			perKind?: Partial<Record<ExcitationKind, number>>;
+	  }
+	| {
+			/**
+			 * API RP 684 / API 617 style, from the mode's amplification factor. A mode with no damping
+			 * measured has no AF: the caps (16 % below, 26 % above) apply, the conservative reading.
+			 */
+			kind: 'amplification';
+	  };
+
+export const DEFAULT_RULE: MarginRule = { kind: 'fixed', percent: 10 };
+
+/** API 684 thresholds (../shared/domain.md §1.2, [S2]). */
+export const API_AF_THRESHOLD = 2.5;
+export const API_CAP_BELOW = 16;
+export const API_CAP_ABOVE = 26;
+
+/**
+ * The required separation margin, %.
+ * - fixed: `perKind[excitationKind]` when given, else `percent` (default 10 %, common practice).
+ * - amplification (API RP 684 style, [S2]): AF < 2.5 → 0 (critically damped, no margin needed);
+ *   AF ≥ 2.5 → below: min(16, 17·(1 − 1/(AF − 1.5))); above: min(26, 10 + 17·(1 − 1/(AF − 1.5))).
+ *   We read the threshold as "AF ≥ 2.5 needs a margin" (public code differs; domain.md §1.2), so
+ *   at exactly 2.5 the above-side answer is 10 %. AF unknown → the caps.
+ */
+export function requiredMarginPct(
+	rule: MarginRule,
+	context: { amplificationFactor?: number | null; position: Position | 'inside'; excitationKind?: ExcitationKind }
+): number {
+	object('rule', rule);
+	object('context', context);
+	const position = context.position;
+	if (position !== 'below' && position !== 'above' && position !== 'inside') {
+		throw new VibrationInputError('position', 'below, above or inside', position);
+	}
+	if (rule.kind === 'fixed') {
+		const own = context.excitationKind !== undefined ? rule.perKind?.[context.excitationKind] : undefined;
+		return nonNegative(own !== undefined ? `rule percent for ${context.excitationKind}` : 'rule percent', own ?? rule.percent);
+	}
+	if (rule.kind !== 'amplification') throw new VibrationInputError('rule kind', 'fixed or amplification', (rule as { kind: unknown }).kind);
+	// a crossed mode has no side; use the stricter, above-side figure
+	const above = position !== 'below';
+	const af = context.amplificationFactor;
+	if (af === null || af === undefined) return above ? API_CAP_ABOVE : API_CAP_BELOW;
+	const a = positive('amplificationFactor', af);
+	if (a < API_AF_THRESHOLD) return 0;
+	const base = 17 * (1 - 1 / (a - 1.5));
+	return above ? Math.min(API_CAP_ABOVE, 10 + base) : Math.min(API_CAP_BELOW, base);
+}
+
+export type Verdict = 'clear' | 'tight' | 'conflict';
+export type AssetVerdict = Verdict | 'unchecked';
+
+export const VERDICT_RANK: Record<AssetVerdict, number> = { unchecked: 0, clear: 1, tight: 2, conflict: 3 };
+
+/** clear when SM ≥ R, tight when R/2 ≤ SM < R, conflict when SM < R/2 (product design). */
+export function pairVerdict(marginPct: number, requiredPct: number): Verdict {
+	const sm = nonNegative('marginPct', marginPct);
+	const r = nonNegative('requiredPct', requiredPct);
+	if (sm >= r) return 'clear';
+	return sm >= r / 2 ? 'tight' : 'conflict';
+}
+
+/** The worse of two verdicts. */
+export function worseVerdict<A extends AssetVerdict>(a: A, b: A): A {
+	return VERDICT_RANK[b] > VERDICT_RANK[a] ? b : a;
+}
+
+/** ISO 10816-3 / 20816-3: rigid when the lowest natural frequency ≥ 1.25 × the main excitation ([S2]). */
+export function supportClass(lowestNaturalHz: number, mainExcitationHz: number): 'rigid' | 'flexible' {
+	const fn = positive('lowestNaturalHz', lowestNaturalHz);
+	const fe = positive('mainExcitationHz', mainExcitationHz);
+	return fn >= 1.25 * fe ? 'rigid' : 'flexible';
+}
+
+export interface Mode {
+	frequencyHz: number;
+	/** damping ratio ζ if measured; gives the amplification factor 1/(2ζ) */
+	dampingRatio?: number | null;
+	direction?: 'horizontal' | 'vertical' | 'axial' | null;
+	location?: string | null;
+}
+
+export interface SpeedRange {
+	minRpm: number;
+	maxRpm: number;
+}
+
+export interface PairResult {
+	modeIndex: number;
+	naturalHz: number;
+	lineId: string;
+	sourceId: string;
+	kind: ExcitationKind;
+	label: string;
+	/** the line's frequency at the measured speed, Hz (null when no speed was measured) */
+	excitationHz: number | null;
+	marginAtSpeedPct: number | null;
+	requiredAtSpeedPct: number | null;
+	verdictAtSpeed: Verdict | null;
+	/** the band the line sweeps over the operating envelope, Hz */
+	bandHz: [number, number];
+	marginOverRangePct: number;
+	requiredOverRangePct: number;
+	verdictOverRange: Verdict;
+	positionOverRange: Position | 'inside';
+}
+
+export interface CheckInput {
+	speedRange: SpeedRange;
+	/** measured running speed, rpm; null for a desk review with no measurement */
+	measuredRpm: number | null;
+	sources: readonly ExcitationSource[];
+	modes: readonly Mode[];
+	rule: MarginRule;
+}
+
+export interface CheckResult {
+	convention: string;
+	/** the speeds evaluated: the speed range, widened to include the measured speed */
+	envelope: SpeedRange;
+	measuredOutsideRange: boolean;
+	lines: ExcitationLine[];
+	pairs: PairResult[];
+	/** worst verdict over the envelope; 'unchecked' when there are no modes */
+	verdict: AssetVerdict;
+	verdictAtSpeed: AssetVerdict;
+	worstAtSpeed: PairResult | null;
+	worstOverRange: PairResult | null;
+}
+
+export function validateSpeedRange(range: SpeedRange): SpeedRange {
+	object('speedRange', range);
+	const lo = nonNegative('minRpm', range.minRpm);
+	const hi = positive('maxRpm', range.maxRpm);
+	if (hi < lo) throw new VibrationInputError('maxRpm', `at least minRpm ${lo}`, hi);
+	return { minRpm: lo, maxRpm: hi };
+}
+
+const ALLOWED_KINDS: readonly string[] = EXCITATION_KINDS;
+
+/** Orders pairs worst first: verdict, then how far short of its requirement, then margin. */
+export function comparePairs(a: PairResult, b: PairResult, at: 'speed' | 'range' = 'range'): number {
+	const va = at === 'speed' ? a.verdictAtSpeed : a.verdictOverRange;
+	const vb = at === 'speed' ? b.verdictAtSpeed : b.verdictOverRange;
+	const rank = VERDICT_RANK[vb ?? 'unchecked'] - VERDICT_RANK[va ?? 'unchecked'];
+	if (rank !== 0) return rank;
+	const sa = at === 'speed' ? (a.marginAtSpeedPct ?? Infinity) - (a.requiredAtSpeedPct ?? 0) : a.marginOverRangePct - a.requiredOverRangePct;
+	const sb = at === 'speed' ? (b.marginAtSpeedPct ?? Infinity) - (b.requiredAtSpeedPct ?? 0) : b.marginOverRangePct - b.requiredOverRangePct;
+	return sa - sb;
+}
+
+/**
+ * Every mode × excitation pair of a check, at the measured speed and over the operating envelope,
+ * with required margins from the rule and the verdicts.
+ */
+export function evaluateCheck(input: CheckInput): CheckResult {
+	object('check', input);
+	const range = validateSpeedRange(input.speedRange);
+	const measured = input.measuredRpm === null || input.measuredRpm === undefined ? null : atLeast('measuredRpm', input.measuredRpm, MIN_MEASURED_RPM, 'rpm');
+	if (!Array.isArray(input.modes)) throw new VibrationInputError('modes', 'a list', input.modes);
+	const lines = excitationCatalogue(input.sources);
+	const envelope = measured === null ? range : { minRpm: Math.min(range.minRpm, measured), maxRpm: Math.max(range.maxRpm, measured) };
+	const modes = input.modes.map((m, i) => {
+		object(`modes[${i}]`, m);
+		const z = m.dampingRatio;
+		const zeta = z === null || z === undefined ? null : positive(`modes[${i}].dampingRatio`, z);
+		return { fn: positive(`modes[${i}].frequencyHz`, m.frequencyHz), af: zeta === null ? null : 1 / (2 * zeta) };
+	});
+	const pairs: PairResult[] = [];
+	let verdict: AssetVerdict = modes.length === 0 ? 'unchecked' : 'clear';
+	let verdictAtSpeed: AssetVerdict = modes.length === 0 || measured === null ? 'unchecked' : 'clear';
+	let worstAtSpeed: PairResult | null = null;
+	let worstOverRange: PairResult | null = null;
+	for (const line of lines) {
+		if (!ALLOWED_KINDS.includes(line.kind)) throw new VibrationInputError('excitation kind', EXCITATION_KINDS.join(', '), line.kind);
+		const band = lineBandHz(line, envelope.minRpm, envelope.maxRpm);
+		const fe = measured === null ? null : lineFrequencyHz(line, measured);
+		for (let i = 0; i < modes.length; i++) {
+			const { fn, af } = modes[i];
+			const over = bandMarginPct(fn, band[0], band[1]);
+			const reqRange = requiredMarginPct(input.rule, { amplificationFactor: af, position: over.position, excitationKind: line.kind });
+			let smAt: number | null = null;
+			let reqAt: number | null = null;
+			let vAt: Verdict | null = null;
+			if (fe !== null && fe > 0) {
+				smAt = (Math.abs(fn - fe) / fe) * 100;
+				reqAt = requiredMarginPct(input.rule, { amplificationFactor: af, position: fn < fe ? 'below' : 'above', excitationKind: line.kind });
+				vAt = pairVerdict(smAt, reqAt);
+			}
+			const pair: PairResult = {
+				modeIndex: i,
+				naturalHz: fn,
+				lineId: line.id,
+				sourceId: line.sourceId,
+				kind: line.kind,
+				label: line.label,
+				excitationHz: fe,
+				marginAtSpeedPct: smAt,
+				requiredAtSpeedPct: reqAt,
+				verdictAtSpeed: vAt,
+				bandHz: band,
+				marginOverRangePct: over.marginPct,
+				requiredOverRangePct: reqRange,
+				verdictOverRange: pairVerdict(over.marginPct, reqRange),
+				positionOverRange: over.position
+			};
+			pairs.push(pair);
+			verdict = worseVerdict(verdict, pair.verdictOverRange);
+			if (vAt !== null) verdictAtSpeed = worseVerdict(verdictAtSpeed, vAt);
+			if (worstOverRange === null || comparePairs(pair, worstOverRange, 'range') < 0) worstOverRange = pair;
+			if (vAt !== null && (worstAtSpeed === null || comparePairs(pair, worstAtSpeed, 'speed') < 0)) worstAtSpeed = pair;
+		}
+	}
+	return {
+		convention: MARGIN_CONVENTION,
+		envelope,
+		measuredOutsideRange: measured !== null && (measured < range.minRpm || measured > range.maxRpm),
+		lines,
+		pairs,
+		verdict,
+		verdictAtSpeed,
+		worstAtSpeed,
+		worstOverRange
+	};
+}
+
+/** A check is stale when older than the site's recheck interval. */
+export function isStale(checkedAtMs: number, nowMs: number, recheckDays: number): boolean {
+	const t = finite('checkedAtMs', checkedAtMs);
+	const now = finite('nowMs', nowMs);
+	const days = positive('recheckDays', recheckDays);
+	return now - t > days * 86_400_000;
+}

@@ -1,0 +1,18 @@
+import { sveltekit } from '@sveltejs/kit/vite';
+import tailwindcss from '@tailwindcss/vite';
+import { defineConfig } from 'vitest/config';
+
+export default defineConfig({
+	plugins: [tailwindcss(), sveltekit()],
+	test: {
+		include: ['src/**/*.spec.ts', 'tests/unit/**/*.spec.ts'],
+		environment: 'node',
+		expect: { requireAssertions: true },
+		coverage: {
+			provider: 'v8',
+			include: ['src/lib/vibration/**/*.ts'],
+			exclude: ['**/*.spec.ts'],
+			reporter: ['text-summary', 'text']
+		}
+	}
+});
