@@ -8,6 +8,13 @@ const config = {
 		adapter: adapter({ out: 'build' }),
 		// the PWA plugin generates the service worker; SvelteKit's own one is off
 		serviceWorker: { register: false },
+		typescript: {
+			// odex ships its TypeScript source beside the JS; point the checker at our declaration
+			config: (tsconfig) => {
+				tsconfig.compilerOptions.paths = { ...tsconfig.compilerOptions.paths, odex: ['../src/types/odex.d.ts'] };
+				return tsconfig;
+			}
+		},
 		csp: {
 			mode: 'auto',
 			directives: {

@@ -7,6 +7,8 @@ export default defineConfig({
 	test: {
 		include: ['src/**/*.spec.ts', 'tests/unit/**/*.spec.ts'],
 		environment: 'node',
+		// each test file gets its own in-memory database through $lib/server/db
+		env: { DATABASE_URL: ':memory:', SEED_DEMO: 'false' },
 		expect: { requireAssertions: true },
 		coverage: {
 			provider: 'v8',

@@ -1,0 +1,70 @@
+/**
+ * The role × route table: the single list the server guard (hooks.server.ts and every load,
+ * action and endpoint) and the tests read. Keys are SvelteKit route ids. A route missing from this
+ * table is refused (403) by the guard, and the route test fails, so nothing ships unlisted.
+ */
+import { ROLES, type Role } from './roles.ts';
+
+export type RouteAccess = 'public' | 'signed-in' | readonly Role[];
+
+export interface RouteEntry {
+	access: RouteAccess;
+	/** a concrete path to probe, for routes with parameters */
+	sample?: string;
+	/** how the route test probes it */
+	method?: 'GET' | 'POST';
+}
+
+const ALL: readonly Role[] = ROLES;
+const FIELD: readonly Role[] = ['technician', 'supervisor', 'admin'];
+const FLEET: readonly Role[] = ['supervisor', 'planner', 'admin'];
+const ADMIN: readonly Role[] = ['admin'];
+
+export const ROUTE_ACCESS: Record<string, RouteEntry> = {
+	'/': { access: 'signed-in' },
+	'/login': { access: 'public' },
+	'/logout': { access: 'signed-in', method: 'POST' },
+	'/(app)/field': { access: FIELD },
+	'/(app)/board': { access: FLEET },
+	'/(app)/follow-ups': { access: ALL },
+	'/(app)/admin/users': { access: ADMIN },
+	'/api/health': { access: 'public' }
+};
+
+/** The entry for a route id, or null when the route is not listed. */
+export function routeEntry(routeId: string | null): RouteEntry | null {
+	if (routeId === null) return null;
+	return Object.hasOwn(ROUTE_ACCESS, routeId) ? ROUTE_ACCESS[routeId] : null;
+}
+
+/** Whether a user with `role` (null when signed out) may use the route. */
+export function mayAccess(entry: RouteEntry, role: Role | null): boolean {
+	if (entry.access === 'public') return true;
+	if (role === null) return false;
+	if (entry.access === 'signed-in') return true;
+	return entry.access.includes(role);
+}
+
+export interface NavItem {
+	href: string;
+	label: string;
+	routeId: string;
+	icon: 'field' | 'board' | 'follow-ups' | 'users';
+}
+
+export const NAV: readonly NavItem[] = [
+	{ href: '/field', label: 'Floor check', routeId: '/(app)/field', icon: 'field' },
+	{ href: '/board', label: 'Margin board', routeId: '/(app)/board', icon: 'board' },
+	{ href: '/follow-ups', label: 'Follow-ups', routeId: '/(app)/follow-ups', icon: 'follow-ups' },
+	{ href: '/admin/users', label: 'Users', routeId: '/(app)/admin/users', icon: 'users' }
+];
+
+/** The navigation a role may use, in the table's order. */
+export function navFor(role: Role): NavItem[] {
+	return NAV.filter((n) => mayAccess(ROUTE_ACCESS[n.routeId], role));
+}
+
+/** Where a role lands after sign-in. */
+export function homeFor(role: Role): string {
+	return role === 'technician' ? '/field' : role === 'planner' ? '/follow-ups' : role === 'admin' ? '/board' : '/board';
+}

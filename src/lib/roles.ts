@@ -1,0 +1,16 @@
+/** The four roles and what each does (../shared/product.md, "People and what they may do"). */
+export const ROLES = ['technician', 'supervisor', 'planner', 'admin'] as const;
+export type Role = (typeof ROLES)[number];
+
+export const ROLE_LABELS: Record<Role, string> = {
+	technician: 'Technician',
+	supervisor: 'Supervisor',
+	planner: 'Planner',
+	admin: 'Admin'
+};
+
+/** Roles that see every site; a technician sees only the sites they are assigned to. */
+export const FLEET_WIDE: readonly Role[] = ['supervisor', 'planner', 'admin'];
+
+export const canEditAssets = (role: Role) => role === 'supervisor' || role === 'admin';
+export const canPlan = (role: Role) => role === 'planner' || role === 'admin';

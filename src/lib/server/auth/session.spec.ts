@@ -1,0 +1,78 @@
+import { afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
+import { freshDatabase } from '../test-db.ts';
+import * as users from '../db/users.ts';
+import { createSession, endSession, SIGN_IN_FAILED, signIn, validateSession } from './index.ts';
+import { hashPassword } from './password.ts';
+
+const HOUR = 3_600_000;
+let userId: string;
+
+beforeAll(async () => {
+	await freshDatabase();
+	userId = users.create({ email: 'shift@example.com', name: 'Shift Worker', role: 'technician', passwordHash: await hashPassword('night-shift-pass'), siteIds: [] }, null);
+});
+
+afterEach(() => {
+	vi.useRealTimers();
+});
+
+const idOf = (cookieValue: string) => cookieValue;
+
+describe('sessions', () => {
+	it('last a whole 12-hour shift and slide while the tablet is in use', async () => {
+		vi.useFakeTimers({ toFake: ['Date'] });
+		vi.setSystemTime(0);
+		const cookie = await createSession(userId);
+		expect(cookie.attributes.httpOnly).toBe(true);
+		expect(cookie.attributes.sameSite).toBe('lax');
+		const id = idOf(cookie.value);
+		vi.setSystemTime(12 * HOUR);
+		const atEndOfShift = await validateSession(id);
+		expect(atEndOfShift.user?.email).toBe('shift@example.com');
+		// past half its life, so lucia renewed it and we hand back a fresh cookie
+		expect(atEndOfShift.session?.fresh).toBe(true);
+		expect(atEndOfShift.cookie?.value).toBe(id);
+		vi.setSystemTime(25 * HOUR);
+		expect((await validateSession(id)).user?.email).toBe('shift@example.com');
+	});
+
+	it('expire when unused for longer than their lifetime', async () => {
+		vi.useFakeTimers({ toFake: ['Date'] });
+		vi.setSystemTime(0);
+		const { value } = await createSession(userId);
+		vi.setSystemTime(14 * HOUR + 1);
+		const r = await validateSession(value);
+		expect(r.user).toBeNull();
+		expect(r.cookie?.value).toBe(''); // a blank cookie clears it in the browser
+	});
+
+	it('end on sign-out', async () => {
+		const { value } = await createSession(userId);
+		await endSession(value);
+		expect((await validateSession(value)).user).toBeNull();
+	});
+
+	it('are refused for a disabled account', async () => {
+		const { value } = await createSession(userId);
+		users.setDisabled(userId, true, userId);
+		expect((await validateSession(value)).user).toBeNull();
+		users.setDisabled(userId, false, userId);
+	});
+});
+
+describe('signing in', () => {
+	it('gives one message for an unknown address and a wrong password', async () => {
+		const unknown = await signIn('nobody@example.com', 'whatever-pass', '10.0.0.1');
+		const wrong = await signIn('shift@example.com', 'wrong-password', '10.0.0.2');
+		expect(unknown).toEqual({ ok: false, message: SIGN_IN_FAILED });
+		expect(wrong).toEqual({ ok: false, message: SIGN_IN_FAILED });
+		expect(await signIn('Shift@Example.com ', 'night-shift-pass', '10.0.0.3')).toMatchObject({ ok: true, role: 'technician' });
+	});
+
+	it('throttles an account after five failures, whoever tries, and says how long to wait', async () => {
+		for (let i = 0; i < 5; i++) await signIn('locked@example.com', 'bad', `10.1.0.${i}`);
+		const r = await signIn('locked@example.com', 'bad', '10.1.0.99');
+		expect(r.ok).toBe(false);
+		expect(r.ok === false && r.message).toMatch(/Too many sign-in attempts. Wait 15 minutes/);
+	});
+});

@@ -1,0 +1,319 @@
+/**
+ * The one Drizzle schema. Ids are text (UUIDs made by whoever creates the row: the tablet for a
+ * check, the server for the rest), so the sync protocol never depends on one node's sequence.
+ * Syncable tables carry `version` (a monotonically increasing change number, see sync_state) and
+ * `updatedAt`; deletions of syncable rows are kept in `deletions` so a pull can report them.
+ * Times are integers in milliseconds since the epoch (UTC).
+ */
+import { sqliteTable, text, integer, real, index, uniqueIndex, primaryKey } from 'drizzle-orm/sqlite-core';
+
+import { ROLES } from '../../roles.ts';
+export { ROLES, type Role } from '../../roles.ts';
+
+const timestamps = {
+	createdAt: integer('created_at').notNull(),
+	updatedAt: integer('updated_at').notNull()
+};
+
+export const users = sqliteTable(
+	'users',
+	{
+		id: text('id').primaryKey(),
+		email: text('email').notNull(),
+		name: text('name').notNull(),
+		role: text('role', { enum: ROLES }).notNull(),
+		passwordHash: text('password_hash').notNull(),
+		disabled: integer('disabled', { mode: 'boolean' }).notNull().default(false),
+		unitSystem: text('unit_system', { enum: ['metric', 'us'] }).notNull().default('metric'),
+		...timestamps
+	},
+	(t) => [uniqueIndex('users_email_idx').on(t.email)]
+);
+
+export const sessions = sqliteTable(
+	'sessions',
+	{
+		id: text('id').primaryKey(),
+		userId: text('user_id')
+			.notNull()
+			.references(() => users.id, { onDelete: 'cascade' }),
+		expiresAt: integer('expires_at').notNull()
+	},
+	(t) => [index('sessions_user_idx').on(t.userId)]
+);
+
+export const sites = sqliteTable('sites', {
+	id: text('id').primaryKey(),
+	code: text('code').notNull().unique(),
+	name: text('name').notNull(),
+	/** days after which a check is flagged stale */
+	recheckDays: integer('recheck_days').notNull().default(180),
+	lineFrequencyHz: real('line_frequency_hz').notNull().default(60),
+	version: integer('version').notNull().default(0),
+	...timestamps
+});
+
+export const userSites = sqliteTable(
+	'user_sites',
+	{
+		userId: text('user_id')
+			.notNull()
+			.references(() => users.id, { onDelete: 'cascade' }),
+		siteId: text('site_id')
+			.notNull()
+			.references(() => sites.id, { onDelete: 'cascade' })
+	},
+	(t) => [primaryKey({ columns: [t.userId, t.siteId] })]
+);
+
+export const areas = sqliteTable(
+	'areas',
+	{
+		id: text('id').primaryKey(),
+		siteId: text('site_id')
+			.notNull()
+			.references(() => sites.id),
+		name: text('name').notNull(),
+		version: integer('version').notNull().default(0),
+		...timestamps
+	},
+	(t) => [index('areas_site_idx').on(t.siteId)]
+);
+
+export const ruleSets = sqliteTable('rule_sets', {
+	id: text('id').primaryKey(),
+	name: text('name').notNull(),
+	kind: text('kind', { enum: ['fixed', 'amplification'] }).notNull(),
+	/** fixed rule: the default required margin, % */
+	percent: real('percent'),
+	/** fixed rule: JSON object excitation kind → % */
+	perKind: text('per_kind', { mode: 'json' }).$type<Record<string, number>>(),
+	source: text('source').notNull(),
+	edition: text('edition').notNull().default(''),
+	version: integer('version').notNull().default(0),
+	...timestamps
+});
+
+export const MACHINE_KINDS = ['pump', 'fan', 'blower', 'compressor', 'motor', 'gearbox', 'refiner', 'agitator', 'other'] as const;
+export const DRIVE_TYPES = ['fixed', 'vfd'] as const;
+
+export const assets = sqliteTable(
+	'assets',
+	{
+		id: text('id').primaryKey(),
+		tag: text('tag').notNull(),
+		name: text('name').notNull(),
+		siteId: text('site_id')
+			.notNull()
+			.references(() => sites.id),
+		areaId: text('area_id').references(() => areas.id),
+		machineKind: text('machine_kind', { enum: MACHINE_KINDS }).notNull(),
+		driveType: text('drive_type', { enum: DRIVE_TYPES }).notNull(),
+		minRpm: real('min_rpm').notNull(),
+		maxRpm: real('max_rpm').notNull(),
+		nominalRpm: real('nominal_rpm'),
+		motorPoles: integer('motor_poles'),
+		/** motor rpm per reference-shaft rpm (belt or gearbox); 1 for direct drive */
+		driveRatio: real('drive_ratio').notNull().default(1),
+		skipBands: integer('skip_bands').notNull().default(3),
+		ruleSetId: text('rule_set_id').references(() => ruleSets.id),
+		notes: text('notes').notNull().default(''),
+		version: integer('version').notNull().default(0),
+		...timestamps
+	},
+	(t) => [uniqueIndex('assets_tag_idx').on(t.tag), index('assets_site_idx').on(t.siteId, t.areaId), index('assets_version_idx').on(t.version)]
+);
+
+export const excitationSources = sqliteTable(
+	'excitation_sources',
+	{
+		id: text('id').primaryKey(),
+		assetId: text('asset_id')
+			.notNull()
+			.references(() => assets.id, { onDelete: 'cascade' }),
+		kind: text('kind').notNull(),
+		label: text('label').notNull().default(''),
+		/** the kind's fields (counts, geometry, orders …), validated by the shared zod schema */
+		params: text('params', { mode: 'json' }).notNull().$type<Record<string, unknown>>(),
+		sortOrder: integer('sort_order').notNull().default(0),
+		version: integer('version').notNull().default(0),
+		...timestamps
+	},
+	(t) => [index('sources_asset_idx').on(t.assetId), index('sources_version_idx').on(t.version)]
+);
+
+/** Tombstones of syncable rows, so a pull can tell a tablet what to forget. */
+export const deletions = sqliteTable(
+	'deletions',
+	{
+		id: integer('id').primaryKey({ autoIncrement: true }),
+		entity: text('entity').notNull(),
+		rowId: text('row_id').notNull(),
+		siteId: text('site_id'),
+		version: integer('version').notNull(),
+		deletedAt: integer('deleted_at').notNull()
+	},
+	(t) => [index('deletions_version_idx').on(t.version)]
+);
+
+/** Single-row counter of the change number handed to syncable rows. */
+export const syncState = sqliteTable('sync_state', {
+	id: integer('id').primaryKey(),
+	version: integer('version').notNull()
+});
+
+export const VERDICTS = ['clear', 'tight', 'conflict', 'unchecked'] as const;
+
+export const checks = sqliteTable(
+	'checks',
+	{
+		/** made by the tablet: the idempotency key of sync */
+		id: text('id').primaryKey(),
+		assetId: text('asset_id')
+			.notNull()
+			.references(() => assets.id),
+		userId: text('user_id')
+			.notNull()
+			.references(() => users.id),
+		/** when the technician saved it on the device */
+		checkedAt: integer('checked_at').notNull(),
+		/** when the server stored it */
+		receivedAt: integer('received_at').notNull(),
+		measuredRpm: real('measured_rpm'),
+		driveSetpointHz: real('drive_setpoint_hz'),
+		notes: text('notes').notNull().default(''),
+		replacesCheckId: text('replaces_check_id'),
+		ruleSetId: text('rule_set_id').references(() => ruleSets.id),
+		/** the rule as applied, so a later edit of the rule set does not rewrite history silently */
+		ruleSnapshot: text('rule_snapshot', { mode: 'json' }).$type<Record<string, unknown>>(),
+		verdict: text('verdict', { enum: VERDICTS }).notNull(),
+		verdictAtSpeed: text('verdict_at_speed', { enum: VERDICTS }).notNull(),
+		worstMarginAtSpeedPct: real('worst_margin_at_speed_pct'),
+		worstMarginOverRangePct: real('worst_margin_over_range_pct'),
+		worstPair: text('worst_pair'),
+		/** the server's result of record (pairs, bands) */
+		result: text('result', { mode: 'json' }).$type<Record<string, unknown>>(),
+		/** what the device showed, kept when it differs from the server's */
+		deviceResult: text('device_result', { mode: 'json' }).$type<Record<string, unknown>>(),
+		resultDiffers: integer('result_differs', { mode: 'boolean' }).notNull().default(false),
+		reviewedBy: text('reviewed_by').references(() => users.id),
+		reviewedAt: integer('reviewed_at'),
+		reviewComment: text('review_comment')
+	},
+	(t) => [index('checks_asset_idx').on(t.assetId, t.checkedAt), index('checks_user_idx').on(t.userId)]
+);
+
+export const DIRECTIONS = ['horizontal', 'vertical', 'axial'] as const;
+export const MODE_ORIGINS = ['typed', 'estimate', 'recording'] as const;
+
+export const modes = sqliteTable(
+	'modes',
+	{
+		id: text('id').primaryKey(),
+		checkId: text('check_id')
+			.notNull()
+			.references(() => checks.id, { onDelete: 'cascade' }),
+		frequencyHz: real('frequency_hz').notNull(),
+		dampingRatio: real('damping_ratio'),
+		direction: text('direction', { enum: DIRECTIONS }),
+		location: text('location'),
+		origin: text('origin', { enum: MODE_ORIGINS }).notNull(),
+		recordingId: text('recording_id')
+	},
+	(t) => [index('modes_check_idx').on(t.checkId)]
+);
+
+export const recordings = sqliteTable(
+	'recordings',
+	{
+		id: text('id').primaryKey(),
+		checkId: text('check_id').references(() => checks.id),
+		assetId: text('asset_id')
+			.notNull()
+			.references(() => assets.id),
+		sha256: text('sha256').notNull(),
+		fileName: text('file_name').notNull(),
+		sizeBytes: integer('size_bytes').notNull(),
+		mediaType: text('media_type').notNull(),
+		sampleRateHz: real('sample_rate_hz'),
+		channels: integer('channels'),
+		durationS: real('duration_s'),
+		analysis: text('analysis', { mode: 'json' }).$type<Record<string, unknown>>(),
+		deviceAnalysis: text('device_analysis', { mode: 'json' }).$type<Record<string, unknown>>(),
+		analysisDiffers: integer('analysis_differs', { mode: 'boolean' }).notNull().default(false),
+		createdAt: integer('created_at').notNull()
+	},
+	(t) => [index('recordings_asset_idx').on(t.assetId), index('recordings_hash_idx').on(t.sha256)]
+);
+
+export const FOLLOW_UP_STATUSES = ['open', 'scheduled', 'done', 'retested'] as const;
+export const PRIORITIES = ['low', 'normal', 'high', 'urgent'] as const;
+
+export const followUps = sqliteTable(
+	'follow_ups',
+	{
+		id: text('id').primaryKey(),
+		assetId: text('asset_id')
+			.notNull()
+			.references(() => assets.id),
+		checkId: text('check_id').references(() => checks.id),
+		createdBy: text('created_by')
+			.notNull()
+			.references(() => users.id),
+		assigneeId: text('assignee_id').references(() => users.id),
+		title: text('title').notNull(),
+		remedy: text('remedy', { mode: 'json' }).$type<Record<string, unknown>>(),
+		status: text('status', { enum: FOLLOW_UP_STATUSES }).notNull().default('open'),
+		priority: text('priority', { enum: PRIORITIES }).notNull().default('normal'),
+		/** due date as YYYY-MM-DD (a plant's calendar day, not an instant) */
+		dueDate: text('due_date'),
+		notes: text('notes').notNull().default(''),
+		retestCheckId: text('retest_check_id').references(() => checks.id),
+		...timestamps
+	},
+	(t) => [index('follow_ups_asset_idx').on(t.assetId, t.status), index('follow_ups_assignee_idx').on(t.assigneeId, t.status)]
+);
+
+/** Outgoing mail as sent, and — in development — every message the local SMTP catcher received. */
+export const mail = sqliteTable(
+	'mail',
+	{
+		id: text('id').primaryKey(),
+		/** idempotency key: never the same mail twice (e.g. "overdue:<followUpId>:<dueDate>") */
+		dedupeKey: text('dedupe_key'),
+		kind: text('kind').notNull(),
+		toAddress: text('to_address').notNull(),
+		subject: text('subject').notNull(),
+		textBody: text('text_body').notNull(),
+		htmlBody: text('html_body'),
+		raw: text('raw'),
+		status: text('status', { enum: ['queued', 'sent', 'failed', 'received'] }).notNull(),
+		error: text('error'),
+		createdAt: integer('created_at').notNull()
+	},
+	(t) => [uniqueIndex('mail_dedupe_idx').on(t.dedupeKey)]
+);
+
+export const auditLog = sqliteTable(
+	'audit_log',
+	{
+		id: integer('id').primaryKey({ autoIncrement: true }),
+		at: integer('at').notNull(),
+		userId: text('user_id').references(() => users.id),
+		entity: text('entity').notNull(),
+		entityId: text('entity_id').notNull(),
+		action: text('action').notNull(),
+		before: text('before', { mode: 'json' }).$type<Record<string, unknown> | null>(),
+		after: text('after', { mode: 'json' }).$type<Record<string, unknown> | null>()
+	},
+	(t) => [index('audit_entity_idx').on(t.entity, t.entityId, t.at), index('audit_at_idx').on(t.at)]
+);
+
+export type User = typeof users.$inferSelect;
+export type Site = typeof sites.$inferSelect;
+export type Area = typeof areas.$inferSelect;
+export type Asset = typeof assets.$inferSelect;
+export type ExcitationSourceRow = typeof excitationSources.$inferSelect;
+export type RuleSetRow = typeof ruleSets.$inferSelect;
+export type CheckRow = typeof checks.$inferSelect;
+export type ModeRow = typeof modes.$inferSelect;

@@ -1,0 +1,73 @@
+import { fail } from '@sveltejs/kit';
+import type { Actions, PageServerLoad } from './$types';
+import * as users from '$lib/server/db/users';
+import { endAllSessions, hashPassword } from '$lib/server/auth';
+import { requireUser } from '$lib/server/guard';
+import { createUserForm, fieldErrors, formToObject, resetPasswordForm, updateUserForm, userIdForm } from '$lib/schemas/user';
+
+export const load: PageServerLoad = (event) => {
+	requireUser(event);
+	return { users: users.list(), sites: users.allSites() };
+};
+
+/** Maps the domain errors of the users module to form failures. */
+function domainFailure(action: string, id: string | null, e: unknown) {
+	if (e instanceof users.LastAdminError) return fail(409, { action, id, errors: { form: e.message } });
+	if (e instanceof users.DuplicateEmailError) return fail(409, { action, id, errors: { email: e.message } });
+	throw e;
+}
+
+export const actions: Actions = {
+	create: async (event) => {
+		const actor = requireUser(event);
+		const raw = formToObject(await event.request.formData(), ['siteIds']);
+		const parsed = createUserForm.safeParse(raw);
+		const values = { name: String(raw.name ?? ''), email: String(raw.email ?? ''), role: String(raw.role ?? '') };
+		if (!parsed.success) return fail(400, { action: 'create', id: null, values, errors: fieldErrors(parsed.error) });
+		try {
+			users.create({ ...parsed.data, passwordHash: await hashPassword(parsed.data.password) }, actor.id);
+		} catch (e) {
+			return domainFailure('create', null, e);
+		}
+		return { action: 'create', id: null, done: `Account for ${parsed.data.email} created.` };
+	},
+	update: async (event) => {
+		const actor = requireUser(event);
+		const parsed = updateUserForm.safeParse(formToObject(await event.request.formData(), ['siteIds']));
+		if (!parsed.success) return fail(400, { action: 'update', id: null, errors: fieldErrors(parsed.error) });
+		try {
+			users.update(parsed.data.id, { role: parsed.data.role, siteIds: parsed.data.siteIds }, actor.id);
+		} catch (e) {
+			return domainFailure('update', parsed.data.id, e);
+		}
+		return { action: 'update', id: parsed.data.id, done: 'Saved.' };
+	},
+	disable: async (event) => {
+		const actor = requireUser(event);
+		const parsed = userIdForm.safeParse(formToObject(await event.request.formData()));
+		if (!parsed.success) return fail(400, { action: 'disable', id: null, errors: fieldErrors(parsed.error) });
+		try {
+			users.setDisabled(parsed.data.id, true, actor.id);
+			await endAllSessions(parsed.data.id);
+		} catch (e) {
+			return domainFailure('disable', parsed.data.id, e);
+		}
+		return { action: 'disable', id: parsed.data.id, done: 'Account disabled; its sessions are ended.' };
+	},
+	enable: async (event) => {
+		const actor = requireUser(event);
+		const parsed = userIdForm.safeParse(formToObject(await event.request.formData()));
+		if (!parsed.success) return fail(400, { action: 'enable', id: null, errors: fieldErrors(parsed.error) });
+		users.setDisabled(parsed.data.id, false, actor.id);
+		return { action: 'enable', id: parsed.data.id, done: 'Account enabled.' };
+	},
+	reset: async (event) => {
+		const actor = requireUser(event);
+		const raw = formToObject(await event.request.formData());
+		const parsed = resetPasswordForm.safeParse(raw);
+		if (!parsed.success) return fail(400, { action: 'reset', id: String(raw.id ?? ''), errors: fieldErrors(parsed.error) });
+		users.setPasswordHash(parsed.data.id, await hashPassword(parsed.data.password), actor.id);
+		await endAllSessions(parsed.data.id);
+		return { action: 'reset', id: parsed.data.id, done: 'Password reset; the user signs in again with the new one.' };
+	}
+};

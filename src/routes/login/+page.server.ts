@@ -1,0 +1,34 @@
+import { fail, redirect } from '@sveltejs/kit';
+import type { Actions, PageServerLoad } from './$types';
+import { homeFor } from '$lib/access';
+import { createSession, signIn } from '$lib/server/auth';
+import { authorize } from '$lib/server/guard';
+import { fieldErrors, signInForm } from '$lib/schemas/user';
+
+/** Only same-site paths may follow sign-in: never an absolute or protocol-relative URL. */
+function safeNext(next: string | null): string | null {
+	if (!next || !next.startsWith('/') || next.startsWith('//') || next.startsWith('/\\')) return null;
+	return next;
+}
+
+export const load: PageServerLoad = (event) => {
+	const user = authorize(event);
+	if (user) redirect(303, safeNext(event.url.searchParams.get('next')) ?? homeFor(user.role));
+	return { next: safeNext(event.url.searchParams.get('next')) };
+};
+
+export const actions: Actions = {
+	default: async (event) => {
+		authorize(event);
+		const form = await event.request.formData();
+		const raw = { email: form.get('email'), password: form.get('password') };
+		const parsed = signInForm.safeParse(raw);
+		const email = typeof raw.email === 'string' ? raw.email.slice(0, 254) : '';
+		if (!parsed.success) return fail(400, { email, errors: fieldErrors(parsed.error), message: null });
+		const result = await signIn(parsed.data.email, parsed.data.password, event.getClientAddress());
+		if (!result.ok) return fail(result.retryAfterS ? 429 : 400, { email, errors: {} as Record<string, string>, message: result.message });
+		const cookie = await createSession(result.userId);
+		event.cookies.set(cookie.name, cookie.value, { path: '/', ...cookie.attributes });
+		redirect(303, safeNext(String(form.get('next') ?? '')) ?? homeFor(result.role));
+	}
+};
