@@ -14,7 +14,9 @@ export default defineConfig({
 			provider: 'v8',
 			include: ['src/lib/vibration/**/*.ts'],
 			exclude: ['**/*.spec.ts'],
-			reporter: ['text-summary', 'text']
+			reporter: ['text-summary', 'text'],
+			// the engine carries every verdict: keep it covered
+			thresholds: { lines: 95 }
 		}
 	}
 });

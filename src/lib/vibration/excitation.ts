@@ -75,14 +75,25 @@ export function bearingDefectFrequencies(geometry: BearingGeometry, shaftHz: num
 	};
 }
 
+const isPositive = (v: unknown): v is number => typeof v === 'number' && v > 0 && v < Infinity;
+
 function harmonicsOf(name: string, list: number[] | undefined, fallback: number[]): number[] {
 	const h = list ?? fallback;
 	nonEmpty(name, h);
-	return h.map((x, i) => positive(`${name}[${i}]`, x));
+	// validate without building a message unless something is wrong (this runs for every asset of a fleet)
+	for (let i = 0; i < h.length; i++) if (!isPositive(h[i])) positive(`${name}[${i}]`, h[i]);
+	return h;
 }
 
+const TIMES_CACHE = new Map<number, string>();
 function times(h: number): string {
-	return `${Number.isInteger(h) ? h : +h.toFixed(3)}×`;
+	if (Number.isInteger(h)) return `${h}×`;
+	let t = TIMES_CACHE.get(h);
+	if (t === undefined) {
+		t = `${Number.isInteger(h) ? h : +h.toFixed(3)}×`;
+		if (TIMES_CACHE.size < 10_000) TIMES_CACHE.set(h, t);
+	}
+	return t;
 }
 
 /**
@@ -94,7 +105,7 @@ function times(h: number): string {
 export function excitationLines(source: ExcitationSource): ExcitationLine[] {
 	const s = object('excitation source', source);
 	if (typeof s.id !== 'string' || s.id.length === 0) throw new VibrationInputError('source id', 'a non-empty string', s.id);
-	const ratio = positive(`speedRatio of ${s.id}`, s.speedRatio ?? 1);
+	const ratio = s.speedRatio === undefined ? 1 : isPositive(s.speedRatio) ? s.speedRatio : positive(`speedRatio of ${s.id}`, s.speedRatio);
 	const orderLine = (tag: string, label: string, order: number): ExcitationLine => ({
 		id: `${s.id}:${tag}`,
 		sourceId: s.id,
@@ -161,7 +172,9 @@ export function excitationLines(source: ExcitationSource): ExcitationLine[] {
 /** All lines of an asset's sources. */
 export function excitationCatalogue(sources: readonly ExcitationSource[]): ExcitationLine[] {
 	if (!Array.isArray(sources)) throw new VibrationInputError('sources', 'a list', sources);
-	return sources.flatMap(excitationLines);
+	const out: ExcitationLine[] = [];
+	for (const s of sources) for (const line of excitationLines(s)) out.push(line);
+	return out;
 }
 
 /** The line's frequency at reference shaft speed `rpm`, Hz. */

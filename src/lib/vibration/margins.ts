@@ -87,15 +87,33 @@ export function requiredMarginPct(
 		return nonNegative(own !== undefined ? `rule percent for ${context.excitationKind}` : 'rule percent', own ?? rule.percent);
 	}
 	if (rule.kind !== 'amplification') throw new VibrationInputError('rule kind', 'fixed or amplification', (rule as { kind: unknown }).kind);
-	// a crossed mode has no side; use the stricter, above-side figure
-	const above = position !== 'below';
 	const af = context.amplificationFactor;
-	if (af === null || af === undefined) return above ? API_CAP_ABOVE : API_CAP_BELOW;
-	const a = positive('amplificationFactor', af);
-	if (a < API_AF_THRESHOLD) return 0;
-	const base = 17 * (1 - 1 / (a - 1.5));
+	return amplificationRequired(af === null || af === undefined ? null : positive('amplificationFactor', af), position);
+}
+
+/** The amplification rule for a validated AF (null = unknown). A crossed mode takes the stricter, above-side figure. */
+function amplificationRequired(af: number | null, position: Position | 'inside'): number {
+	const above = position !== 'below';
+	if (af === null) return above ? API_CAP_ABOVE : API_CAP_BELOW;
+	if (af < API_AF_THRESHOLD) return 0;
+	const base = 17 * (1 - 1 / (af - 1.5));
 	return above ? Math.min(API_CAP_ABOVE, 10 + base) : Math.min(API_CAP_BELOW, base);
 }
+
+/** A rule checked once, then applied many times without re-validation (the hot loop of a fleet). */
+export function compileRule(rule: MarginRule): (af: number | null, position: Position | 'inside', kind: ExcitationKind) => number {
+	object('rule', rule);
+	if (rule.kind === 'fixed') {
+		const base = nonNegative('rule percent', rule.percent);
+		const per: Partial<Record<ExcitationKind, number>> = {};
+		for (const [k, v] of Object.entries(rule.perKind ?? {})) per[k as ExcitationKind] = nonNegative(`rule percent for ${k}`, v);
+		return (_af, _position, kind) => per[kind] ?? base;
+	}
+	if (rule.kind !== 'amplification') throw new VibrationInputError('rule kind', 'fixed or amplification', (rule as { kind: unknown }).kind);
+	return amplificationRequired;
+}
+
+const verdictOf = (sm: number, r: number): Verdict => (sm >= r ? 'clear' : sm >= r / 2 ? 'tight' : 'conflict');
 
 export type Verdict = 'clear' | 'tight' | 'conflict';
 export type AssetVerdict = Verdict | 'unchecked';
@@ -157,6 +175,11 @@ export interface PairResult {
 
 export interface CheckInput {
 	speedRange: SpeedRange;
+	/**
+	 * The asset's excitation lines when already built ({@link excitationCatalogue} of `sources`):
+	 * a fleet job builds each asset's catalogue once and evaluates its checks against it.
+	 */
+	lines?: readonly ExcitationLine[];
 	/** measured running speed, rpm; null for a desk review with no measurement */
 	measuredRpm: number | null;
 	sources: readonly ExcitationSource[];
@@ -199,68 +222,153 @@ export function comparePairs(a: PairResult, b: PairResult, at: 'speed' | 'range'
 	return sa - sb;
 }
 
+export interface EvaluateOptions {
+	/**
+	 * false: verdicts and the worst pairs only, without the full pair table — the fleet path
+	 * (board recompute, rule-set change); the table is built for the asset on screen.
+	 */
+	pairs?: boolean;
+}
+
+type RequiredFn = (af: number | null, position: Position | 'inside', kind: ExcitationKind) => number;
+
+/** One pair, from validated inputs. */
+function pairOf(line: ExcitationLine, band: [number, number], fe: number | null, fn: number, af: number | null, modeIndex: number, required: RequiredFn): PairResult {
+	const [lo, hi] = band;
+	let smRange = 0;
+	let position: Position | 'inside' = 'inside';
+	if (fn < lo) {
+		smRange = ((lo - fn) / lo) * 100;
+		position = 'below';
+	} else if (fn > hi && hi > 0) {
+		smRange = ((fn - hi) / hi) * 100;
+		position = 'above';
+	}
+	const reqRange = required(af, position, line.kind);
+	let smAt: number | null = null;
+	let reqAt: number | null = null;
+	let vAt: Verdict | null = null;
+	if (fe !== null && fe > 0) {
+		smAt = (Math.abs(fn - fe) / fe) * 100;
+		reqAt = required(af, fn < fe ? 'below' : 'above', line.kind);
+		vAt = verdictOf(smAt, reqAt);
+	}
+	return {
+		modeIndex,
+		naturalHz: fn,
+		lineId: line.id,
+		sourceId: line.sourceId,
+		kind: line.kind,
+		label: line.label,
+		excitationHz: fe,
+		marginAtSpeedPct: smAt,
+		requiredAtSpeedPct: reqAt,
+		verdictAtSpeed: vAt,
+		bandHz: band,
+		marginOverRangePct: smRange,
+		requiredOverRangePct: reqRange,
+		verdictOverRange: verdictOf(smRange, reqRange),
+		positionOverRange: position
+	};
+}
+
+/** Verdict rank as a number (1 clear, 2 tight, 3 conflict), for the hot loop. */
+const rankOf = (sm: number, r: number): number => (sm >= r ? 1 : sm >= r / 2 ? 2 : 3);
+const RANKED: Verdict[] = ['clear', 'clear', 'tight', 'conflict'];
+
+/** Lines handed in precomputed: the shape is checked, since they may come from storage. */
+function validLines(lines: readonly ExcitationLine[]): ExcitationLine[] {
+	if (!Array.isArray(lines)) throw new VibrationInputError('lines', 'a list', lines);
+	for (let i = 0; i < lines.length; i++) {
+		const l = lines[i];
+		const ok = l && typeof l.id === 'string' && ((typeof l.order === 'number' && l.order > 0 && l.order < Infinity && l.fixedHz === null) || (l.order === null && typeof l.fixedHz === 'number' && l.fixedHz > 0 && l.fixedHz < Infinity));
+		if (!ok) throw new VibrationInputError(`lines[${i}]`, 'an excitation line with either a positive order or a positive fixed frequency', l);
+	}
+	return lines as ExcitationLine[];
+}
+
 /**
  * Every mode × excitation pair of a check, at the measured speed and over the operating envelope,
  * with required margins from the rule and the verdicts.
  */
-export function evaluateCheck(input: CheckInput): CheckResult {
+export function evaluateCheck(input: CheckInput, options: EvaluateOptions = {}): CheckResult {
 	object('check', input);
 	const range = validateSpeedRange(input.speedRange);
 	const measured = input.measuredRpm === null || input.measuredRpm === undefined ? null : atLeast('measuredRpm', input.measuredRpm, MIN_MEASURED_RPM, 'rpm');
 	if (!Array.isArray(input.modes)) throw new VibrationInputError('modes', 'a list', input.modes);
-	const lines = excitationCatalogue(input.sources);
+	const lines = input.lines ? validLines(input.lines) : excitationCatalogue(input.sources);
 	const envelope = measured === null ? range : { minRpm: Math.min(range.minRpm, measured), maxRpm: Math.max(range.maxRpm, measured) };
-	const modes = input.modes.map((m, i) => {
+	const n = input.modes.length;
+	const fns = new Float64Array(n);
+	const afs: (number | null)[] = new Array(n);
+	for (let i = 0; i < n; i++) {
+		const m = input.modes[i];
 		object(`modes[${i}]`, m);
+		fns[i] = positive(`modes[${i}].frequencyHz`, m.frequencyHz);
 		const z = m.dampingRatio;
-		const zeta = z === null || z === undefined ? null : positive(`modes[${i}].dampingRatio`, z);
-		return { fn: positive(`modes[${i}].frequencyHz`, m.frequencyHz), af: zeta === null ? null : 1 / (2 * zeta) };
-	});
+		afs[i] = z === null || z === undefined ? null : 1 / (2 * positive(`modes[${i}].dampingRatio`, z));
+	}
+	const required = compileRule(input.rule);
+	const detail = options.pairs !== false;
 	const pairs: PairResult[] = [];
-	let verdict: AssetVerdict = modes.length === 0 ? 'unchecked' : 'clear';
-	let verdictAtSpeed: AssetVerdict = modes.length === 0 || measured === null ? 'unchecked' : 'clear';
-	let worstAtSpeed: PairResult | null = null;
-	let worstOverRange: PairResult | null = null;
-	for (const line of lines) {
-		if (!ALLOWED_KINDS.includes(line.kind)) throw new VibrationInputError('excitation kind', EXCITATION_KINDS.join(', '), line.kind);
-		const band = lineBandHz(line, envelope.minRpm, envelope.maxRpm);
-		const fe = measured === null ? null : lineFrequencyHz(line, measured);
-		for (let i = 0; i < modes.length; i++) {
-			const { fn, af } = modes[i];
-			const over = bandMarginPct(fn, band[0], band[1]);
-			const reqRange = requiredMarginPct(input.rule, { amplificationFactor: af, position: over.position, excitationKind: line.kind });
-			let smAt: number | null = null;
-			let reqAt: number | null = null;
-			let vAt: Verdict | null = null;
-			if (fe !== null && fe > 0) {
-				smAt = (Math.abs(fn - fe) / fe) * 100;
-				reqAt = requiredMarginPct(input.rule, { amplificationFactor: af, position: fn < fe ? 'below' : 'above', excitationKind: line.kind });
-				vAt = pairVerdict(smAt, reqAt);
+	// ranks: 0 unchecked, 1 clear, 2 tight, 3 conflict
+	let rank = n === 0 ? 0 : 1;
+	let rankAtSpeed = n === 0 || measured === null ? 0 : 1;
+	// the worst pairs are remembered by position and built once at the end. Order: verdict first,
+	// then how far the margin falls short of its requirement (as comparePairs).
+	let worstRank = 0;
+	let worstGap = Infinity;
+	let worstRangeAt: [number, number] = [-1, -1];
+	let worstRankAt = 0;
+	let worstGapAt = Infinity;
+	let worstSpeedAt: [number, number] = [-1, -1];
+	const bands: [number, number][] = new Array(lines.length);
+	const fes: (number | null)[] = new Array(lines.length);
+	for (let l = 0; l < lines.length; l++) {
+		const line = lines[l];
+		const kind = line.kind;
+		if (!ALLOWED_KINDS.includes(kind)) throw new VibrationInputError('excitation kind', EXCITATION_KINDS.join(', '), kind);
+		const band = (bands[l] = lineBandHz(line, envelope.minRpm, envelope.maxRpm));
+		const fe = (fes[l] = measured === null ? null : lineFrequencyHz(line, measured));
+		const lo = band[0];
+		const hi = band[1];
+		for (let i = 0; i < n; i++) {
+			const fn = fns[i];
+			const af = afs[i];
+			if (detail) pairs.push(pairOf(line, band, fe, fn, af, i, required));
+			let sm = 0;
+			let position: Position | 'inside' = 'inside';
+			if (fn < lo) {
+				sm = ((lo - fn) / lo) * 100;
+				position = 'below';
+			} else if (fn > hi && hi > 0) {
+				sm = ((fn - hi) / hi) * 100;
+				position = 'above';
 			}
-			const pair: PairResult = {
-				modeIndex: i,
-				naturalHz: fn,
-				lineId: line.id,
-				sourceId: line.sourceId,
-				kind: line.kind,
-				label: line.label,
-				excitationHz: fe,
-				marginAtSpeedPct: smAt,
-				requiredAtSpeedPct: reqAt,
-				verdictAtSpeed: vAt,
-				bandHz: band,
-				marginOverRangePct: over.marginPct,
-				requiredOverRangePct: reqRange,
-				verdictOverRange: pairVerdict(over.marginPct, reqRange),
-				positionOverRange: over.position
-			};
-			pairs.push(pair);
-			verdict = worseVerdict(verdict, pair.verdictOverRange);
-			if (vAt !== null) verdictAtSpeed = worseVerdict(verdictAtSpeed, vAt);
-			if (worstOverRange === null || comparePairs(pair, worstOverRange, 'range') < 0) worstOverRange = pair;
-			if (vAt !== null && (worstAtSpeed === null || comparePairs(pair, worstAtSpeed, 'speed') < 0)) worstAtSpeed = pair;
+			const r = required(af, position, kind);
+			const k = rankOf(sm, r);
+			if (k > rank) rank = k;
+			if (k > worstRank || (k === worstRank && sm - r < worstGap)) {
+				worstRank = k;
+				worstGap = sm - r;
+				worstRangeAt = [l, i];
+			}
+			if (fe !== null && fe > 0) {
+				const smAt = (Math.abs(fn - fe) / fe) * 100;
+				const rAt = required(af, fn < fe ? 'below' : 'above', kind);
+				const kAt = rankOf(smAt, rAt);
+				if (kAt > rankAtSpeed) rankAtSpeed = kAt;
+				if (kAt > worstRankAt || (kAt === worstRankAt && smAt - rAt < worstGapAt)) {
+					worstRankAt = kAt;
+					worstGapAt = smAt - rAt;
+					worstSpeedAt = [l, i];
+				}
+			}
 		}
 	}
+	const verdict: AssetVerdict = rank === 0 ? 'unchecked' : RANKED[rank];
+	const verdictAtSpeed: AssetVerdict = rankAtSpeed === 0 ? 'unchecked' : RANKED[rankAtSpeed];
+	const build = ([l, i]: [number, number]) => (l < 0 ? null : pairOf(lines[l], bands[l], fes[l], fns[i], afs[i], i, required));
 	return {
 		convention: MARGIN_CONVENTION,
 		envelope,
@@ -269,8 +377,8 @@ export function evaluateCheck(input: CheckInput): CheckResult {
 		pairs,
 		verdict,
 		verdictAtSpeed,
-		worstAtSpeed,
-		worstOverRange
+		worstAtSpeed: build(worstSpeedAt),
+		worstOverRange: build(worstRangeAt)
 	};
 }
 

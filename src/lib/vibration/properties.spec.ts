@@ -4,7 +4,9 @@ import fc from 'fast-check';
 import {
 	avoidanceBands,
 	bearingDefectFrequencies,
+	comparePairs,
 	evaluateCheck,
+	excitationCatalogue,
 	excitationLines,
 	freeResponse,
 	magnification,
@@ -126,6 +128,27 @@ describe('invariants (fast-check)', () => {
 			{ numRuns: 300 }
 		);
 		expect(evaluateCheck({ speedRange: { minRpm: 0, maxRpm: 10 }, measuredRpm: 5, sources: [], modes: [], rule: { kind: 'fixed', percent: 10 } }).pairs).toEqual([]);
+	});
+
+	it('the fleet path (no pair table, catalogue built once) gives the same verdicts and worst pairs as the full table', () => {
+		fc.assert(
+			fc.property(check, (input) => {
+				const full = evaluateCheck(input);
+				const fast = evaluateCheck({ ...input, lines: excitationCatalogue(input.sources) }, { pairs: false });
+				const worst = [...full.pairs].sort((a, b) => comparePairs(a, b, 'range'))[0] ?? null;
+				const worstAt = [...full.pairs].filter((p) => p.verdictAtSpeed !== null).sort((a, b) => comparePairs(a, b, 'speed'))[0] ?? null;
+				return (
+					fast.pairs.length === 0 &&
+					fast.verdict === full.verdict &&
+					fast.verdictAtSpeed === full.verdictAtSpeed &&
+					JSON.stringify(fast.worstOverRange) === JSON.stringify(full.worstOverRange) &&
+					(worst === null || comparePairs(worst, full.worstOverRange!, 'range') === 0) &&
+					(worstAt === null || comparePairs(worstAt, full.worstAtSpeed!, 'speed') === 0)
+				);
+			}),
+			{ numRuns: 300 }
+		);
+		expect(() => evaluateCheck({ speedRange: { minRpm: 1, maxRpm: 2 }, measuredRpm: 1, sources: [], lines: [{ id: 'x', sourceId: 'x', kind: 'shaft', label: 'x', order: -1, fixedHz: null }], modes: [], rule: { kind: 'fixed', percent: 10 } })).toThrow(/lines\[0\]/);
 	});
 
 	it('the oscillator and its free response stay finite for every valid m, k, c and time', () => {

@@ -1,0 +1,26 @@
+#!/usr/bin/env bash
+# `npm test`: type checks, unit tests (with the engine's coverage floor), a production build and the
+# Playwright suite against it in Debian's chromium. Needs no network but the package registries.
+set -euo pipefail
+cd "$(dirname "$0")/.."
+
+if [ ! -x /usr/bin/chromium ]; then
+	if [ "$(id -u)" = "0" ] && command -v apt-get >/dev/null; then
+		echo "[test] Debian's chromium is missing: installing it with apt-get"
+		apt-get update -qq
+		DEBIAN_FRONTEND=noninteractive apt-get install -y -qq chromium >/dev/null
+	else
+		echo "[test] The end-to-end tests need Debian's chromium at /usr/bin/chromium." >&2
+		echo "[test] Install it with: sudo apt-get update && sudo apt-get install -y chromium" >&2
+		exit 1
+	fi
+fi
+
+echo "[test] 1/4 svelte-check"
+npm run --silent check
+echo "[test] 2/4 vitest (with coverage of src/lib/vibration)"
+npx vitest run --coverage
+echo "[test] 3/4 vite build"
+npx vite build --logLevel warn
+echo "[test] 4/4 playwright (Debian chromium, built app)"
+npx playwright test
