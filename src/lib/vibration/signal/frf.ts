@@ -1,0 +1,178 @@
+/**
+ * Two-channel impact test (instrumented hammer + response): hit detection, double-hit rejection,
+ * the H1 frequency response function averaged over the accepted hits, and the ordinary coherence
+ * (Ewins, Modal Testing §3; Brown, Allemang & Phillips, IMAC 2015 on double hits and overloads).
+ *   H1(f) = Σ conj(F)·X / Σ |F|²,   γ²(f) = |Σ conj(F)·X|² / (Σ|F|² · Σ|X|²)
+ * A force window keeps the pulse and zeroes the force record after it; the response may take an
+ * exponential window (its added damping is subtracted from the modes).
+ */
+import { positive, VibrationInputError, integerAtLeast } from '../errors.ts';
+import { maxDecimate, nextPow2, realFft } from './spectrum.ts';
+import { findPeaks, halfPowerBins, interpolatePeak } from './peaks.ts';
+
+export interface Hit {
+	/** first sample of the pulse above the trigger */
+	index: number;
+	/** pulse length, samples */
+	width: number;
+	accepted: boolean;
+	reason: string | null;
+}
+
+export interface FrfMode {
+	frequencyHz: number;
+	dampingRatio: number | null;
+	qFactor: number | null;
+	/** |H1| at the peak (response unit per force unit) */
+	amplitude: number;
+	coherence: number;
+	flags: ('low-coherence' | 'coarse-resolution')[];
+}
+
+export interface ImpactResult {
+	hits: Hit[];
+	averages: number;
+	resolutionHz: number;
+	modes: FrfMode[];
+	/** for charts (≤ 2048 points) */
+	frf: { frequencyHz: number[]; magnitude: number[]; coherence: number[] };
+}
+
+export interface ImpactOptions {
+	/** trigger level as a fraction of the largest force (default 0.1) */
+	trigger?: number;
+	/** pre-trigger as a fraction of the segment (default 0.05) */
+	preTrigger?: number;
+	exponentialWindowS?: number | null;
+	maxModes?: number;
+	minProminence?: number;
+	maxFrequencyHz?: number;
+	onProgress?: (fraction: number) => void;
+}
+
+/** Pulses where |force| exceeds the trigger; a pulse closer to the previous one than `doubleWindow` samples marks a double hit. */
+export function detectHits(force: ArrayLike<number>, trigger: number, doubleWindow: number): Hit[] {
+	let max = 0;
+	for (let i = 0; i < force.length; i++) max = Math.max(max, Math.abs(force[i]));
+	if (max === 0) return [];
+	const level = trigger * max;
+	const pulses: { index: number; width: number }[] = [];
+	for (let i = 0; i < force.length; i++) {
+		if (Math.abs(force[i]) < level) continue;
+		const start = i;
+		while (i < force.length && Math.abs(force[i]) >= level) i++;
+		pulses.push({ index: start, width: i - start });
+	}
+	const hits: Hit[] = pulses.map((p) => ({ ...p, accepted: true, reason: null }));
+	for (let i = 1; i < hits.length; i++) {
+		if (hits[i].index - hits[i - 1].index < doubleWindow) {
+			hits[i - 1].accepted = false;
+			hits[i - 1].reason = 'double hit';
+			hits[i].accepted = false;
+			hits[i].reason = 'double hit (second strike)';
+		}
+	}
+	return hits;
+}
+
+export function analyzeImpact(force: ArrayLike<number>, response: ArrayLike<number>, sampleRateHz: number, options: ImpactOptions = {}): ImpactResult {
+	const fs = positive('sampleRateHz', sampleRateHz);
+	integerAtLeast('number of samples', force.length, 64);
+	if (response.length !== force.length) throw new VibrationInputError('response channel', `as long as the force channel (${force.length} samples)`, response.length);
+	for (let i = 0; i < force.length; i++) {
+		if (!Number.isFinite(force[i])) throw new VibrationInputError(`force[${i}]`, 'a finite number', force[i]);
+		if (!Number.isFinite(response[i])) throw new VibrationInputError(`response[${i}]`, 'a finite number', response[i]);
+	}
+	const progress = options.onProgress ?? (() => {});
+	const trigger = positive('trigger', options.trigger ?? 0.1);
+	const tauW = options.exponentialWindowS ?? null;
+	// provisional hits to size the segments: each hit gets the time until the next one
+	const provisional = detectHits(force, trigger, 1);
+	if (provisional.length === 0) throw new VibrationInputError('force channel', 'a recording with at least one hammer hit (it is flat)', 'flat');
+	const starts = provisional.map((h) => h.index);
+	const spacing = starts.length > 1 ? Math.min(...starts.slice(1).map((s, i) => s - starts[i])) : force.length - starts[0];
+	// strikes closer than a tenth of the usual spacing (or 20 pulse widths) are one double hit
+	const widest = Math.max(...provisional.map((h) => h.width));
+	const gaps = starts.slice(1).map((s, i) => s - starts[i]);
+	const typical = gaps.length ? gaps.sort((a, b) => a - b)[Math.floor(gaps.length / 2)] : force.length;
+	const hits = detectHits(force, trigger, Math.max(20 * widest, Math.floor(typical / 10)));
+	const acceptedHits = hits.filter((h) => h.accepted);
+	if (acceptedHits.length === 0) throw new VibrationInputError('force channel', 'at least one clean hit (every hit was a double hit)', hits.length);
+	const usable = hits.length > 1 ? Math.max(64, Math.min(...acceptedHits.map((h) => nextHitGap(h, hits, force.length)))) : force.length - acceptedHits[0].index;
+	let seg = 1;
+	while (seg * 2 <= Math.max(64, Math.min(spacing, usable))) seg *= 2;
+	const pre = Math.floor((options.preTrigger ?? 0.05) * seg);
+	const nfft = seg * 2;
+	const half = nfft / 2;
+	const gff = new Float64Array(half + 1);
+	const gxx = new Float64Array(half + 1);
+	const gre = new Float64Array(half + 1);
+	const gim = new Float64Array(half + 1);
+	let averages = 0;
+	for (const h of acceptedHits) {
+		const s0 = Math.max(0, h.index - pre);
+		if (s0 + seg > force.length) {
+			h.accepted = false;
+			h.reason = 'too close to the end of the recording';
+			continue;
+		}
+		const f = new Float64Array(seg);
+		const x = new Float64Array(seg);
+		const pulseEnd = h.index - s0 + h.width * 3;
+		for (let i = 0; i < seg; i++) {
+			f[i] = i <= pulseEnd ? force[s0 + i] : 0; // force window
+			x[i] = response[s0 + i] * (tauW ? Math.exp(-i / fs / tauW) : 1);
+		}
+		const F = realFft(f, nfft);
+		const X = realFft(x, nfft);
+		for (let k = 0; k <= half; k++) {
+			gff[k] += F.re[k] ** 2 + F.im[k] ** 2;
+			gxx[k] += X.re[k] ** 2 + X.im[k] ** 2;
+			// conj(F)·X
+			gre[k] += F.re[k] * X.re[k] + F.im[k] * X.im[k];
+			gim[k] += F.re[k] * X.im[k] - F.im[k] * X.re[k];
+		}
+		averages++;
+		progress(averages / acceptedHits.length / 2);
+	}
+	if (averages === 0) throw new VibrationInputError('force channel', 'a hit with a full segment after it', 0);
+	const mag = new Float64Array(half + 1);
+	const coh = new Float64Array(half + 1);
+	for (let k = 0; k <= half; k++) {
+		mag[k] = gff[k] > 0 ? Math.hypot(gre[k], gim[k]) / gff[k] : 0;
+		coh[k] = gff[k] > 0 && gxx[k] > 0 ? (gre[k] ** 2 + gim[k] ** 2) / (gff[k] * gxx[k]) : 0;
+	}
+	const df = fs / nfft;
+	const resolution = fs / seg;
+	const fMax = Math.min(options.maxFrequencyHz ?? Infinity, 0.45 * fs);
+	const kMax = Math.floor(fMax / df);
+	let tallest = 0;
+	for (let k = 2; k <= kMax; k++) tallest = Math.max(tallest, mag[k]);
+	const minProm = options.minProminence ?? 0.02;
+	const peaks = findPeaks(mag, 2, kMax, tallest * minProm)
+		.filter((p) => p.prominence >= tallest * minProm)
+		.sort((a, b) => b.prominence - a.prominence)
+		.slice(0, options.maxModes ?? 6);
+	const modes: FrfMode[] = peaks.map((p) => {
+		const ip = interpolatePeak(mag, p.bin);
+		const f = ip.bin * df;
+		const hp = halfPowerBins(mag, p.bin, ip.height);
+		const windowDamping = tauW ? 1 / (2 * Math.PI * f * tauW) : 0;
+		const zeta = hp ? Math.max(0, ((hp[1] - hp[0]) * df) / (2 * f) - windowDamping) : null;
+		const flags: FrfMode['flags'] = [];
+		if (coh[p.bin] < 0.9) flags.push('low-coherence');
+		if (hp && (hp[1] - hp[0]) * df < 5 * resolution) flags.push('coarse-resolution');
+		return { frequencyHz: f, dampingRatio: zeta && zeta > 0 ? zeta : null, qFactor: zeta && zeta > 0 ? 1 / (2 * zeta) : null, amplitude: ip.height, coherence: coh[p.bin], flags };
+	});
+	modes.sort((a, b) => b.amplitude - a.amplitude);
+	const freqs = Array.from({ length: kMax + 1 }, (_, k) => k * df);
+	const dec = maxDecimate(freqs, mag, 2048, 0, kMax + 1);
+	const cohDec = dec.x.map((fx) => coh[Math.round(fx / df)]);
+	progress(1);
+	return { hits, averages, resolutionHz: resolution, modes, frf: { frequencyHz: dec.x, magnitude: dec.y, coherence: cohDec } };
+}
+
+function nextHitGap(h: Hit, hits: Hit[], length: number): number {
+	const later = hits.filter((o) => o.index > h.index);
+	return (later.length ? later[0].index : length) - h.index;
+}

@@ -1,0 +1,82 @@
+/**
+ * Spectra with fft.js (a radix-4 FFT from the registry). Transforms are cached per size, since a
+ * batch of recordings reuses the same lengths.
+ */
+import FFT from 'fft.js';
+import { integerAtLeast, VibrationInputError } from '../errors.ts';
+
+const instances = new Map<number, FFT>();
+
+export function nextPow2(n: number): number {
+	let p = 1;
+	while (p < n) p *= 2;
+	return p;
+}
+
+function fftOf(size: number): FFT {
+	let f = instances.get(size);
+	if (!f) {
+		f = new FFT(size);
+		if (instances.size > 16) instances.clear();
+		instances.set(size, f);
+	}
+	return f;
+}
+
+export interface OneSided {
+	/** real and imaginary parts of bins 0 … nfft/2 */
+	re: Float64Array;
+	im: Float64Array;
+	nfft: number;
+}
+
+/**
+ * One-sided DFT X_k = Σ x_n e^(−2πikn/N) of real `x` zero-padded to `nfft` (a power of two ≥ 4),
+ * bins k = 0 … nfft/2.
+ */
+export function realFft(x: ArrayLike<number>, nfft: number): OneSided {
+	integerAtLeast('nfft', nfft, 4);
+	if (nfft !== nextPow2(nfft)) throw new VibrationInputError('nfft', 'a power of two', nfft);
+	if (x.length > nfft) throw new VibrationInputError('nfft', `at least the signal length ${x.length}`, nfft);
+	const f = fftOf(nfft);
+	const input = new Float64Array(nfft);
+	for (let i = 0; i < x.length; i++) input[i] = x[i];
+	const out = new Float64Array(2 * nfft);
+	f.realTransform(out, input);
+	const half = nfft / 2;
+	const re = new Float64Array(half + 1);
+	const im = new Float64Array(half + 1);
+	for (let k = 0; k <= half; k++) {
+		re[k] = out[2 * k];
+		im[k] = out[2 * k + 1];
+	}
+	return { re, im, nfft };
+}
+
+/** |X_k| of a one-sided spectrum. */
+export function magnitude(s: OneSided): Float64Array {
+	const m = new Float64Array(s.re.length);
+	for (let k = 0; k < m.length; k++) m[k] = Math.hypot(s.re[k], s.im[k]);
+	return m;
+}
+
+/**
+ * Reduces a long series to at most `points` for a chart, keeping each bucket's largest value (so
+ * peaks survive), with the x of that value.
+ */
+export function maxDecimate(x: ArrayLike<number>, y: ArrayLike<number>, points: number, from = 0, to = y.length): { x: number[]; y: number[] } {
+	const n = Math.max(0, to - from);
+	if (n <= points) return { x: Array.from({ length: n }, (_, i) => x[from + i]), y: Array.from({ length: n }, (_, i) => y[from + i]) };
+	const bucket = n / points;
+	const xs: number[] = [];
+	const ys: number[] = [];
+	for (let b = 0; b < points; b++) {
+		const s = from + Math.floor(b * bucket);
+		const e = Math.min(to, from + Math.floor((b + 1) * bucket));
+		let best = s;
+		for (let i = s + 1; i < e; i++) if (Math.abs(y[i]) > Math.abs(y[best])) best = i;
+		xs.push(x[best]);
+		ys.push(y[best]);
+	}
+	return { x: xs, y: ys };
+}
