@@ -13,3 +13,6 @@ export * from './damping.ts';
 export * from './excitation.ts';
 export * from './margins.ts';
 export * from './bands.ts';
+export * from './signal/ringdown.ts';
+export * from './signal/frf.ts';
+export { realFft, magnitude, nextPow2 } from './signal/spectrum.ts';

@@ -1,0 +1,102 @@
+import { describe, expect, it } from 'vitest';
+import { WaveFile } from 'wavefile';
+import { parseCsvText } from './csv.ts';
+import { parseWav } from './wav.ts';
+import { RecordingError } from './types.ts';
+
+const sine = (n: number, fs: number, f: number, a = 0.5) => Array.from({ length: n }, (_, i) => a * Math.exp(-i / n) * Math.sin((2 * Math.PI * f * i) / fs));
+
+function wav(bitDepth: string, channels: number[][], fs = 2048): Uint8Array {
+	const w = new WaveFile();
+	const scale = bitDepth.endsWith('f') || bitDepth === '64' ? 1 : 2 ** (Number(bitDepth) - 1) - 1;
+	const data = channels.map((c) => c.map((v) => (scale === 1 ? v : Math.round(v * scale))));
+	w.fromScratch(channels.length, fs, bitDepth, channels.length === 1 ? data[0] : data);
+	return w.toBuffer();
+}
+
+describe('WAV recordings', () => {
+	it.each(['16', '24', '32', '32f', '64'])('reads %s-bit mono, scaled to full scale', (depth) => {
+		const x = sine(1000, 2048, 40);
+		const r = parseWav(wav(depth, [x]), 'hit.wav');
+		expect(r.sampleRateHz).toBe(2048);
+		expect(r.channels).toHaveLength(1);
+		expect(r.channels[0].samples).toHaveLength(1000);
+		const tol = depth === '16' ? 1e-4 : 1e-6;
+		for (const i of [10, 100, 500]) expect(Math.abs(r.channels[0].samples[i] - x[i])).toBeLessThan(tol);
+		expect(r.durationS).toBeCloseTo(1000 / 2048, 12);
+	});
+
+	it('reads several channels', () => {
+		const r = parseWav(wav('16', [sine(500, 1000, 10), sine(500, 1000, 20, 0.2)], 1000), 'two.wav');
+		expect(r.channels.map((c) => c.name)).toEqual(['Channel 1', 'Channel 2']);
+		expect(r.channels[1].samples).toHaveLength(500);
+	});
+
+	it('says so when the file is truncated, not a WAV, or too short', () => {
+		const good = wav('16', [sine(1000, 2048, 40)]);
+		expect(() => parseWav(good.slice(0, 600), 'cut.wav')).toThrow(/cut.wav is truncated: its header promises 2000 bytes of samples but only 556 are there/);
+		expect(() => parseWav(new TextEncoder().encode('time,accel\n0,1\n'.repeat(10)), 'x.wav')).toThrow(/is not a WAV file/);
+		expect(() => parseWav(wav('16', [sine(20, 2048, 40)]), 'tiny.wav')).toThrow(/only 20 samples/);
+		expect(() => parseWav(new Uint8Array(0), 'empty.wav')).toThrow(/empty.wav is empty/);
+	});
+});
+
+describe('CSV recordings', () => {
+	const rows = (n: number, fs: number, sep = ',', dec = '.') =>
+		Array.from({ length: n }, (_, i) => [(i / fs).toFixed(6), (Math.sin(i / 5) * 0.3).toFixed(5), (Math.cos(i / 7) * 2).toFixed(4)].map((v) => v.replace('.', dec)).join(sep)).join('\n');
+
+	it('reads a time column and two channels with a header and a units row', () => {
+		const text = `time,accel,force\ns,g,N\n${rows(200, 1000)}`;
+		const r = parseCsvText(text, 'bump.csv');
+		expect(r.sampleRateHz).toBeCloseTo(1000, 6);
+		expect(r.channels.map((c) => [c.name, c.unit])).toEqual([
+			['accel', 'g'],
+			['force', 'N']
+		]);
+		expect(r.channels[0].samples).toHaveLength(200);
+		expect(r.channels[0].samples[5]).toBeCloseTo(Math.sin(1) * 0.3, 4);
+	});
+
+	it('reads semicolons with a decimal comma', () => {
+		const r = parseCsvText(`Zeit;Beschleunigung\n${rows(100, 500, ';', ',').replace(/;[^;\n]*$/gm, '')}`, 'de.csv');
+		expect(r.sampleRateHz).toBeCloseTo(500, 6);
+		expect(r.channels[0].samples[5]).toBeCloseTo(Math.sin(1) * 0.3, 4);
+	});
+
+	it('reads one channel without a header when the sample rate is given', () => {
+		const text = Array.from({ length: 128 }, (_, i) => String(Math.sin(i))).join('\n');
+		const r = parseCsvText(text, 'one.csv', 2560);
+		expect(r.sampleRateHz).toBe(2560);
+		expect(r.channels).toHaveLength(1);
+		expect(() => parseCsvText(text, 'one.csv')).toThrow(/no time column: give the sample rate in Hz/);
+		expect(() => parseCsvText(text, 'one.csv', 0)).toThrow(/sample rate must be a number greater than zero/);
+	});
+
+	it('names the row and column of text in a number column, NaN rows and ragged rows', () => {
+		const base = `time,accel\n${rows(100, 1000).replace(/,[^,\n]*$/gm, '')}`.split('\n');
+		const withText = [...base];
+		withText[57] = '0.056000,abc';
+		expect(() => parseCsvText(withText.join('\n'), 'a.csv')).toThrow('Row 58, column 2 (“accel”): expected a number, found “abc”.');
+		const withNaN = [...base];
+		withNaN[9] = '0.008000,NaN';
+		expect(() => parseCsvText(withNaN.join('\n'), 'b.csv')).toThrow(/Row 10, column 2 \(“accel”\): expected a number, found “NaN”/);
+		const ragged = [...base];
+		ragged[12] = '0.011000,1,2';
+		try {
+			parseCsvText(ragged.join('\n'), 'c.csv');
+			expect.unreachable();
+		} catch (e) {
+			expect(e).toBeInstanceOf(RecordingError);
+			expect((e as RecordingError).message).toBe('Row 13 has 3 values; the file has 2 columns.');
+			expect((e as RecordingError).row).toBe(13);
+		}
+	});
+
+	it('refuses an empty file, an uneven time column and a 60 MB file, each with its own message', () => {
+		expect(() => parseCsvText('', 'empty.csv')).toThrow('empty.csv is empty.');
+		expect(() => parseCsvText('time,accel\n', 'hdr.csv')).toThrow('hdr.csv holds no rows of numbers.');
+		const uneven = `time,a\n${Array.from({ length: 100 }, (_, i) => `${i < 50 ? i / 1000 : i / 500},${i}`).join('\n')}`;
+		expect(() => parseCsvText(uneven, 'u.csv')).toThrow(/not evenly spaced at data row 51/);
+		expect(() => parseCsvText('x'.repeat(60 * 1024 * 1024), 'big.csv')).toThrow('big.csv is 60.0 MB; recordings may be at most 50 MB.');
+	});
+});

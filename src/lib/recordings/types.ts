@@ -1,0 +1,35 @@
+/** A recording as parsed from a data collector's file: channels of samples at one sample rate. */
+export interface Channel {
+	name: string;
+	unit: string;
+	samples: Float64Array;
+}
+
+export interface Recording {
+	format: 'csv' | 'wav';
+	fileName: string;
+	sizeBytes: number;
+	sampleRateHz: number;
+	durationS: number;
+	channels: Channel[];
+}
+
+/** Files larger than this are refused before reading. */
+export const MAX_RECORDING_BYTES = 50 * 1024 * 1024;
+
+/** A problem with the file, said so a technician can fix it: what, and where. */
+export class RecordingError extends Error {
+	readonly row?: number;
+	readonly column?: number;
+	constructor(message: string, where: { row?: number; column?: number } = {}) {
+		super(message);
+		this.name = 'RecordingError';
+		this.row = where.row;
+		this.column = where.column;
+	}
+}
+
+export function checkSize(name: string, bytes: number): void {
+	if (bytes === 0) throw new RecordingError(`${name} is empty.`);
+	if (bytes > MAX_RECORDING_BYTES) throw new RecordingError(`${name} is ${(bytes / 1048576).toFixed(1)} MB; recordings may be at most 50 MB.`);
+}
