@@ -28,7 +28,9 @@ export const ROUTE_ACCESS: Record<string, RouteEntry> = {
 	'/(app)/board': { access: FLEET },
 	'/(app)/follow-ups': { access: ALL },
 	'/(app)/admin/users': { access: ADMIN },
-	'/api/health': { access: 'public' }
+	'/api/health': { access: 'public' },
+	'/api/sync/pull': { access: ALL },
+	'/api/sync/push': { access: FIELD, method: 'POST' }
 };
 
 /** The entry for a route id, or null when the route is not listed. */

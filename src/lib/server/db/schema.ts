@@ -203,8 +203,8 @@ export const checks = sqliteTable(
 	(t) => [index('checks_asset_idx').on(t.assetId, t.checkedAt), index('checks_user_idx').on(t.userId)]
 );
 
-export const DIRECTIONS = ['horizontal', 'vertical', 'axial'] as const;
-export const MODE_ORIGINS = ['typed', 'estimate', 'recording'] as const;
+export { DIRECTIONS_LIST as DIRECTIONS, MODE_ORIGINS_LIST as MODE_ORIGINS } from '../../schemas/shared-enums.ts';
+import { DIRECTIONS_LIST as DIRECTIONS, MODE_ORIGINS_LIST as MODE_ORIGINS } from '../../schemas/shared-enums.ts';
 
 export const modes = sqliteTable(
 	'modes',

@@ -1,0 +1,122 @@
+/**
+ * The sync protocol's payloads, shared by the tablet and the server (documented in DEVELOPERS.md,
+ * "Sync API"). A check carries its own UUID, made on the device: the idempotency key.
+ */
+import { z } from 'zod';
+import { DIRECTIONS_LIST, MODE_ORIGINS_LIST } from './shared-enums.ts';
+
+export const MAX_PUSH_ITEMS = 50;
+export const MAX_PUSH_BYTES = 1024 * 1024;
+
+const uuid = z.uuid({ error: 'must be a UUID' });
+const finiteNumber = (what: string) => z.number({ error: `${what} must be a number` }).finite(`${what} must be finite`);
+
+export const modeInput = z
+	.object({
+		frequencyHz: finiteNumber('frequency').positive('frequency must be greater than zero').max(100_000, 'frequency must be at most 100 kHz'),
+		dampingRatio: finiteNumber('damping ratio').positive('damping ratio must be greater than zero').max(1, 'damping ratio must be at most 1').nullable(),
+		direction: z.enum(DIRECTIONS_LIST).nullable(),
+		location: z.string().trim().max(200, 'location is at most 200 characters').nullable(),
+		origin: z.enum(MODE_ORIGINS_LIST)
+	})
+	.strict();
+
+export type ModeInput = z.infer<typeof modeInput>;
+
+export const VERDICT_LIST = ['clear', 'tight', 'conflict', 'unchecked'] as const;
+
+export const checkPush = z
+	.object({
+		id: uuid,
+		assetId: z.string().min(1).max(64),
+		checkedAt: z.number().int().positive(),
+		measuredRpm: finiteNumber('measured speed').positive('measured speed must be greater than zero').max(100_000).nullable(),
+		driveSetpointHz: finiteNumber('drive setpoint').positive().max(1000).nullable(),
+		notes: z.string().max(4000, 'notes are at most 4000 characters'),
+		replacesCheckId: uuid.nullable(),
+		modes: z.array(modeInput).max(50, 'at most 50 natural frequencies per check'),
+		/** what the device computed and showed; the server recomputes and keeps its own */
+		device: z
+			.object({
+				verdict: z.enum(VERDICT_LIST),
+				verdictAtSpeed: z.enum(VERDICT_LIST),
+				worstMarginAtSpeedPct: z.number().finite().nullable(),
+				worstMarginOverRangePct: z.number().finite().nullable()
+			})
+			.strict()
+	})
+	.strict();
+
+export type CheckPush = z.infer<typeof checkPush>;
+
+/** The batch is checked loosely at the door, each item strictly, so one bad item cannot sink the others. */
+export const pushBatch = z
+	.object({
+		clientId: z.string().min(1).max(64),
+		items: z.array(z.unknown()).min(1, 'a push needs at least one item').max(MAX_PUSH_ITEMS, `a push carries at most ${MAX_PUSH_ITEMS} items`)
+	})
+	.strict();
+
+export type ItemStatus = 'applied' | 'duplicate' | 'rejected';
+
+export interface ItemResult {
+	id: string | null;
+	status: ItemStatus;
+	reason?: string;
+	verdict?: string;
+}
+
+export interface PushResponse {
+	results: ItemResult[];
+	/** set when the server stopped part-way: items after the last result were not processed */
+	error?: string;
+}
+
+export interface PulledSource {
+	id: string;
+	kind: string;
+	label: string;
+	params: Record<string, unknown>;
+	sortOrder: number;
+}
+
+export interface PulledAsset {
+	id: string;
+	tag: string;
+	name: string;
+	siteId: string;
+	siteName: string;
+	areaName: string | null;
+	machineKind: string;
+	driveType: string;
+	minRpm: number;
+	maxRpm: number;
+	nominalRpm: number | null;
+	motorPoles: number | null;
+	driveRatio: number;
+	skipBands: number;
+	ruleSetId: string | null;
+	sources: PulledSource[];
+	version: number;
+}
+
+export interface PulledRuleSet {
+	id: string;
+	name: string;
+	kind: 'fixed' | 'amplification';
+	percent: number | null;
+	perKind: Record<string, number> | null;
+	source: string;
+	edition: string;
+	version: number;
+}
+
+export interface PullResponse {
+	cursor: number;
+	/** true when the client must replace what it holds (first pull, or cursor too old) */
+	full: boolean;
+	assets: PulledAsset[];
+	ruleSets: PulledRuleSet[];
+	deleted: { entity: 'asset' | 'rule_set'; id: string }[];
+	serverTime: number;
+}

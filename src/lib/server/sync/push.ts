@@ -1,0 +1,101 @@
+/**
+ * Push: a batch of checks from a tablet, answered per item.
+ * 1. Each item is parsed on its own: a malformed item is rejected with the reason, the rest go on.
+ * 2. A check whose UUID the server already holds is a duplicate: acknowledged, nothing stored.
+ * 3. The asset must be on one of the user's sites, and a replaced check must exist.
+ * 4. The server recomputes margins and verdicts with the same engine and stores its result as the
+ *    one of record; where the device showed something else, both are kept and the difference logged.
+ * 5. All of it in one synchronous transaction. An unexpected error stops the batch there: the items
+ *    already applied are committed and reported, the rest are left for the client to retry.
+ */
+import { eq } from 'drizzle-orm';
+import { db } from '../db/index.ts';
+import { assets, checks, excitationSources, modes, ruleSets } from '../db/schema.ts';
+import { visibleSiteIds } from '../db/assets.ts';
+import { computeCheck, sameSummary } from '../../checks/compute.ts';
+import { checkPush, type ItemResult, type PushResponse } from '../../schemas/sync.ts';
+import type { Role } from '../../roles.ts';
+
+export interface PushOptions {
+	/** test hook (only with DETUNE_TEST_FAULTS=1): throw at this 1-based item */
+	failAtItem?: number | null;
+	now?: number;
+}
+
+export function push(user: { id: string; role: Role }, items: unknown[], options: PushOptions = {}): { response: PushResponse; failed: boolean } {
+	const results: ItemResult[] = [];
+	let error: string | undefined;
+	const scope = visibleSiteIds(user);
+	const now = options.now ?? Date.now();
+	db.transaction((tx) => {
+		for (let index = 0; index < items.length; index++) {
+			try {
+				if (options.failAtItem === index + 1) throw new Error(`fault injected at item ${index + 1}`);
+				results.push(applyOne(tx, user, scope, items[index], now));
+			} catch (e) {
+				error = `The server failed on item ${index + 1}; it and the items after it were not stored. Retry later.`;
+				console.error('[detune] push stopped:', (e as Error).message);
+				break;
+			}
+		}
+	});
+	return { response: error ? { results, error } : { results }, failed: error !== undefined };
+}
+
+type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];
+
+function applyOne(tx: Tx, user: { id: string }, scope: string[] | 'all', raw: unknown, now: number): ItemResult {
+	const parsed = checkPush.safeParse(raw);
+	const rawId = typeof raw === 'object' && raw !== null && typeof (raw as { id?: unknown }).id === 'string' ? ((raw as { id: string }).id as string).slice(0, 64) : null;
+	if (!parsed.success) {
+		const issue = parsed.error.issues[0];
+		return { id: rawId, status: 'rejected', reason: `${issue.path.join('.') || 'item'}: ${issue.message}` };
+	}
+	const c = parsed.data;
+	if (tx.select({ id: checks.id }).from(checks).where(eq(checks.id, c.id)).get()) return { id: c.id, status: 'duplicate' };
+	const asset = tx.select().from(assets).where(eq(assets.id, c.assetId)).get();
+	if (!asset || (scope !== 'all' && !scope.includes(asset.siteId))) return { id: c.id, status: 'rejected', reason: 'The asset does not exist or is not on your sites.' };
+	if (c.replacesCheckId && !tx.select({ id: checks.id }).from(checks).where(eq(checks.id, c.replacesCheckId)).get()) {
+		return { id: c.id, status: 'rejected', reason: 'The check it replaces is not on the server.' };
+	}
+	const sources = tx.select().from(excitationSources).where(eq(excitationSources.assetId, asset.id)).all();
+	const rule = asset.ruleSetId ? (tx.select().from(ruleSets).where(eq(ruleSets.id, asset.ruleSetId)).get() ?? null) : null;
+	let computed;
+	try {
+		computed = computeCheck({ ...asset, sources: sources.map((x) => ({ id: x.id, kind: x.kind, label: x.label, params: x.params })) }, rule ? { kind: rule.kind, percent: rule.percent, perKind: rule.perKind ?? null } : null, c.measuredRpm, c.modes);
+	} catch (e) {
+		return { id: c.id, status: 'rejected', reason: `The check cannot be computed: ${(e as Error).message}` };
+	}
+	const s = computed.summary;
+	const differs = !sameSummary(c.device, s);
+	if (differs) console.warn(`[detune] check ${c.id}: device showed ${JSON.stringify(c.device)}, server computed ${JSON.stringify({ verdict: s.verdict, verdictAtSpeed: s.verdictAtSpeed })}`);
+	tx.insert(checks)
+		.values({
+			id: c.id,
+			assetId: asset.id,
+			userId: user.id,
+			checkedAt: c.checkedAt,
+			receivedAt: now,
+			measuredRpm: c.measuredRpm,
+			driveSetpointHz: c.driveSetpointHz,
+			notes: c.notes,
+			replacesCheckId: c.replacesCheckId,
+			ruleSetId: asset.ruleSetId,
+			ruleSnapshot: { ...computed.rule, name: rule?.name ?? 'Detune default ±10 %', source: rule?.source ?? 'Common practice', edition: rule?.edition ?? '' },
+			verdict: s.verdict,
+			verdictAtSpeed: s.verdictAtSpeed,
+			worstMarginAtSpeedPct: s.worstMarginAtSpeedPct,
+			worstMarginOverRangePct: s.worstMarginOverRangePct,
+			worstPair: s.worstPair,
+			result: { pairs: computed.result.pairs, envelope: computed.result.envelope, bands: computed.bands.bands, warnings: computed.bands.warnings, remedies: computed.remedies } as unknown as Record<string, unknown>,
+			deviceResult: differs ? (c.device as unknown as Record<string, unknown>) : null,
+			resultDiffers: differs
+		})
+		.run();
+	c.modes.forEach((m) => {
+		tx.insert(modes)
+			.values({ id: crypto.randomUUID(), checkId: c.id, frequencyHz: m.frequencyHz, dampingRatio: m.dampingRatio, direction: m.direction, location: m.location, origin: m.origin })
+			.run();
+	});
+	return { id: c.id, status: 'applied', verdict: s.verdict };
+}

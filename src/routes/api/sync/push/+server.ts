@@ -1,0 +1,28 @@
+import { error, json } from '@sveltejs/kit';
+import type { RequestHandler } from './$types';
+import { requireUser } from '$lib/server/guard';
+import { setting } from '$lib/server/config';
+import { push } from '$lib/server/sync/push';
+import { MAX_PUSH_BYTES, pushBatch } from '$lib/schemas/sync';
+
+/** POST /api/sync/push — see DEVELOPERS.md, "Sync API". */
+export const POST: RequestHandler = async (event) => {
+	const user = requireUser(event);
+	if (!(event.request.headers.get('content-type') ?? '').startsWith('application/json')) error(415, { message: 'Send the batch as application/json.', code: 'bad-content-type' });
+	const declared = Number(event.request.headers.get('content-length') ?? '0');
+	if (declared > MAX_PUSH_BYTES) error(413, { message: `A push may be at most ${MAX_PUSH_BYTES} bytes; send fewer items per batch.`, code: 'too-large' });
+	const text = await event.request.text();
+	if (text.length > MAX_PUSH_BYTES) error(413, { message: `A push may be at most ${MAX_PUSH_BYTES} bytes; send fewer items per batch.`, code: 'too-large' });
+	let body: unknown;
+	try {
+		body = JSON.parse(text);
+	} catch {
+		error(400, { message: 'The body is not valid JSON.', code: 'bad-json' });
+	}
+	const batch = pushBatch.safeParse(body);
+	if (!batch.success) error(400, { message: `Bad batch: ${batch.error.issues[0].path.join('.') || 'body'}: ${batch.error.issues[0].message}`, code: 'bad-batch' });
+	const faultHeader = setting('DETUNE_TEST_FAULTS') === '1' ? event.request.headers.get('x-detune-fault') : null;
+	const failAtItem = faultHeader?.startsWith('item=') ? Number(faultHeader.slice(5)) : null;
+	const { response, failed } = push(user, batch.data.items, { failAtItem });
+	return json(response, { status: failed ? 500 : 200, headers: { 'cache-control': 'no-store' } });
+};
