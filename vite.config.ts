@@ -1,9 +1,56 @@
 import { sveltekit } from '@sveltejs/kit/vite';
 import tailwindcss from '@tailwindcss/vite';
+import { SvelteKitPWA } from '@vite-pwa/sveltekit';
 import { defineConfig } from 'vitest/config';
 
 export default defineConfig({
-	plugins: [tailwindcss(), sveltekit()],
+	plugins: [
+		tailwindcss(),
+		sveltekit(),
+		SvelteKitPWA({
+			// a new version waits for the technician's yes: it never reloads the page under them
+			registerType: 'prompt',
+			injectRegister: false,
+			manifest: {
+				id: '/field',
+				name: 'Detune — resonance checks',
+				short_name: 'Detune',
+				description: 'Separation margins between natural frequencies and forcing frequencies, on the plant floor.',
+				start_url: '/field',
+				scope: '/',
+				display: 'standalone',
+				orientation: 'any',
+				theme_color: '#0b6e69',
+				background_color: '#f4f5f1',
+				icons: [
+					{ src: '/icons/detune-192.png', sizes: '192x192', type: 'image/png' },
+					{ src: '/icons/detune-512.png', sizes: '512x512', type: 'image/png' },
+					{ src: '/icons/detune-maskable-512.png', sizes: '512x512', type: 'image/png', purpose: 'maskable' }
+				]
+			},
+			workbox: {
+				clientsClaim: true,
+				skipWaiting: false,
+				cleanupOutdatedCaches: true,
+				// the app shell, fonts and everything Floor check needs (the analysis worker included)
+				globPatterns: ['client/**/*.{js,css,ico,png,svg,webp,woff2,webmanifest}'],
+				navigateFallback: null,
+				runtimeCaching: [
+					{
+						// Floor check's page (server-rendered once online), then served from the cache offline
+						urlPattern: ({ request, url }) => request.mode === 'navigate' && url.pathname === '/field',
+						handler: 'NetworkFirst',
+						options: { cacheName: 'detune-pages', networkTimeoutSeconds: 4, cacheableResponse: { statuses: [200] } }
+					},
+					{
+						urlPattern: ({ url }) => url.pathname === '/field/__data.json' || url.pathname === '/__data.json',
+						handler: 'NetworkFirst',
+						options: { cacheName: 'detune-data', networkTimeoutSeconds: 4, cacheableResponse: { statuses: [200] } }
+					}
+				]
+			}
+		})
+	],
 	test: {
 		include: ['src/**/*.spec.ts', 'tests/unit/**/*.spec.ts'],
 		environment: 'node',

@@ -30,6 +30,7 @@ export const ROUTE_ACCESS: Record<string, RouteEntry> = {
 	'/(app)/admin/users': { access: ADMIN },
 	'/api/health': { access: 'public' },
 	'/api/sync/pull': { access: ALL },
+	'/api/checks/latest': { access: FLEET },
 	'/api/sync/push': { access: FIELD, method: 'POST' }
 };
 

@@ -39,7 +39,8 @@ export function latestPerAsset(limit = 500) {
 			verdictAtSpeed: checks.verdictAtSpeed,
 			worstMarginAtSpeedPct: checks.worstMarginAtSpeedPct,
 			worstMarginOverRangePct: checks.worstMarginOverRangePct,
-			worstPair: checks.worstPair
+			worstPair: checks.worstPair,
+			resultDiffers: checks.resultDiffers
 		})
 		.from(checks)
 		.innerJoin(latest, and(eq(latest.assetId, checks.assetId), eq(latest.at, checks.checkedAt)))

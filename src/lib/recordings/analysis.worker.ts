@@ -1,0 +1,40 @@
+/// <reference lib="webworker" />
+/**
+ * Parses and analyses a recording off the main thread, so the screen never freezes: messages
+ * { file, sampleRateHz, choice } in; { type: 'progress' | 'done' | 'error' } out.
+ */
+import { parseCsvBlob } from './csv.ts';
+import { parseWav } from './wav.ts';
+import { analyzeRecording, defaultChoice, type AnalysisChoice } from './analyze.ts';
+import { checkSize } from './types.ts';
+
+interface Request {
+	file: File;
+	sampleRateHz: number | null;
+	choice: AnalysisChoice | null;
+}
+
+const post = (m: unknown) => (self as unknown as Worker).postMessage(m);
+
+self.onmessage = async (e: MessageEvent<Request>) => {
+	const { file, sampleRateHz, choice } = e.data;
+	try {
+		checkSize(file.name, file.size);
+		post({ type: 'progress', stage: 'Reading the file', fraction: 0 });
+		const isWav = /\.wav$/i.test(file.name) || file.type === 'audio/wav' || file.type === 'audio/x-wav';
+		const recording = isWav
+			? parseWav(new Uint8Array(await file.arrayBuffer()), file.name)
+			: await parseCsvBlob(file, sampleRateHz, (f) => post({ type: 'progress', stage: 'Reading the file', fraction: f * 0.5 }));
+		const pick = choice ?? defaultChoice(recording);
+		post({ type: 'progress', stage: 'Finding the modes', fraction: 0.5 });
+		const analysis = analyzeRecording(recording, pick, (f) => post({ type: 'progress', stage: 'Finding the modes', fraction: 0.5 + f / 2 }));
+		post({
+			type: 'done',
+			recording: { format: recording.format, fileName: recording.fileName, sizeBytes: recording.sizeBytes, sampleRateHz: recording.sampleRateHz, durationS: recording.durationS, channels: recording.channels.map((c) => ({ name: c.name, unit: c.unit, samples: c.samples.length })) },
+			choice: pick,
+			analysis
+		});
+	} catch (err) {
+		post({ type: 'error', message: err instanceof Error ? err.message : String(err) });
+	}
+};
