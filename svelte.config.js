@@ -5,7 +5,8 @@ import { vitePreprocess } from '@sveltejs/vite-plugin-svelte';
 const config = {
 	preprocess: vitePreprocess(),
 	kit: {
-		adapter: adapter({ out: 'build' }),
+		// no precompressed copies: a reverse proxy compresses, and a deploy can swap sw.js in place
+		adapter: adapter({ out: 'build', precompress: false }),
 		// the PWA plugin generates the service worker; SvelteKit's own one is off
 		serviceWorker: { register: false },
 		typescript: {

@@ -114,5 +114,113 @@ test.describe('Floor check offline', () => {
 		expect(after.checks.filter((c: { tag: string }) => Object.keys(verdicts).includes(c.tag))).toHaveLength(3);
 		await api.close();
 		await tech.close();
+
+		// a supervisor sees the synced checks
+		const sup = await browser.newContext();
+		const sp = await sup.newPage();
+		await signIn(sp, 'supervisor');
+		await sp.goto('/board');
+		for (const tag of Object.keys(verdicts)) await expect(sp.getByTestId('latest-checks')).toContainText(tag);
+		await sup.close();
+	});
+
+	/** Saves `n` typed checks on the open Floor check page. */
+	async function saveChecks(page: Page, tags: string[]) {
+		for (const tag of tags) {
+			await pickAsset(page, tag);
+			await page.getByLabel(/^Measured running speed/).fill('1185');
+			await typeMode(page, '33.3', '0.02');
+			await page.getByRole('button', { name: 'Save check' }).click();
+			await expect(page.getByTestId('saved-message')).toContainText(tag);
+		}
+	}
+
+	test('a server fault on the second item: the first is acknowledged and gone, the others stay and go through on retry', async ({ page, context }) => {
+		await openFieldOnline(page);
+		await context.setOffline(true);
+		await saveChecks(page, ['KRW-HLP-202', 'KRW-HLP-203', 'KRW-BWP-301']);
+		await expect.poll(() => outboxCount(page)).toBe(3);
+		let faulted = false;
+		await page.route('**/api/sync/push', async (route) => {
+			if (faulted) return route.continue();
+			faulted = true;
+			// the server's test hook (DETUNE_TEST_FAULTS=1) fails the batch at its second item
+			await route.continue({ headers: { ...route.request().headers(), 'x-detune-fault': 'item=2' } });
+		});
+		// reconnecting pushes at once
+		await context.setOffline(false);
+		await expect.poll(() => outboxCount(page)).toBe(2);
+		await expect(page.getByTestId('sync-state')).toHaveText('Sync failed');
+		await page.getByRole('button', { name: 'Sync now' }).click();
+		await expect.poll(() => outboxCount(page)).toBe(0);
+	});
+
+	test('the connection drops during a push: nothing lost, nothing doubled', async ({ page, context, browser }) => {
+		await openFieldOnline(page);
+		await context.setOffline(true);
+		await saveChecks(page, ['KRW-SWP-305', 'KRW-AB-401']);
+		const ids: string[] = [];
+		let dropped = false;
+		await page.route('**/api/sync/push', async (route) => {
+			const body = route.request().postDataJSON() as { items: { id: string }[] };
+			ids.push(...body.items.map((i) => i.id));
+			if (dropped) return route.continue();
+			dropped = true;
+			await route.fetch(); // the server stores the batch …
+			await route.abort('connectionreset'); // … but the answer never reaches the tablet
+		});
+		await context.setOffline(false);
+		await expect(page.getByTestId('sync-state')).toHaveText('Sync failed');
+		await expect.poll(() => outboxCount(page)).toBe(2);
+		await page.getByRole('button', { name: 'Sync now' }).click();
+		await expect.poll(() => outboxCount(page)).toBe(0);
+		const api = await browser.newContext({ baseURL: ORIGIN });
+		await signInApi(api.request, 'supervisor');
+		const all = await (await api.request.get('/api/checks/latest')).json();
+		const stored = all.checks.filter((c: { id: string }) => ids.includes(c.id));
+		expect(new Set(ids).size).toBe(2);
+		expect(stored).toHaveLength(2);
+		await api.close();
+	});
+
+	test('a new app version arrives while two checks wait: the update waits for a yes, and both checks are still there and sync', async ({ page, context }) => {
+		await openFieldOnline(page);
+		await context.setOffline(true);
+		await saveChecks(page, ['KRW-AB-402', 'KRW-AB-403']);
+		// the checks cannot leave yet (the server is unreachable), but the page is online
+		await page.route('**/api/sync/push', (route) => route.abort('connectionrefused'));
+		await context.setOffline(false);
+		// a new release: the service worker is replaced by another script (here the same build under
+		// a new URL, which the browser installs as a new worker that then waits)
+		await page.evaluate(async () => {
+			await navigator.serviceWorker.register('/sw.js?release=next', { scope: '/' });
+		});
+		await expect(page.getByTestId('update-prompt')).toBeVisible();
+		// nothing happens until the technician says yes
+		await page.waitForTimeout(1000);
+		await expect(page.getByTestId('update-prompt')).toBeVisible();
+		await expect.poll(() => outboxCount(page)).toBe(2);
+		await page.getByRole('button', { name: 'Update now' }).click();
+		await page.waitForLoadState('load');
+		await expect.poll(() => outboxCount(page)).toBe(2);
+		await page.unroute('**/api/sync/push');
+		await page.getByRole('button', { name: 'Sync now' }).click();
+		await expect.poll(() => outboxCount(page)).toBe(0);
+	});
+
+	test('a session that expired offline asks for sign-in and loses nothing', async ({ page, context }) => {
+		await openFieldOnline(page);
+		await context.setOffline(true);
+		await saveChecks(page, ['KRW-AB-404']);
+		await context.clearCookies();
+		await context.setOffline(false);
+		await expect(page.getByTestId('sync-state')).toHaveText('Sign in to sync');
+		await expect.poll(() => outboxCount(page)).toBe(1);
+		await page.getByRole('link', { name: 'Sign in' }).click();
+		await page.getByLabel('E-mail').fill('tech@example.com');
+		await page.getByLabel('Password').fill('tech-demo-2026');
+		await page.getByRole('button', { name: 'Sign in' }).click();
+		await expect(page).toHaveURL(/\/field/);
+		await expect.poll(() => outboxCount(page), { timeout: 20_000 }).toBe(0);
 	});
 });
