@@ -1,4 +1,4 @@
-import { expect, test, type Page } from '@playwright/test';
+import { chromium, expect, test, type Page } from '@playwright/test';
 import { signIn, signInApi, ORIGIN } from './helpers.ts';
 
 /** Waits until the service worker controls the page (domain of ../shared/toolchain.md, pitfall 4). */
@@ -122,6 +122,33 @@ test.describe('Floor check offline', () => {
 		await sp.goto('/board');
 		for (const tag of Object.keys(verdicts)) await expect(sp.getByTestId('latest-checks')).toContainText(tag);
 		await sup.close();
+	});
+
+	test('works offline after the browser is closed and started again', async ({ browserName }, testInfo) => {
+		test.skip(browserName !== 'chromium');
+		const dir = testInfo.outputPath('profile');
+		const launch = () =>
+			chromium.launchPersistentContext(dir, {
+				executablePath: '/usr/bin/chromium',
+				baseURL: ORIGIN,
+				serviceWorkers: 'allow',
+				args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking']
+			});
+		const first = await launch();
+		const page = first.pages()[0] ?? (await first.newPage());
+		await openFieldOnline(page);
+		await first.setOffline(true);
+		await saveChecks(page, ['KRW-CLD-501']);
+		await first.close();
+		const second = await launch();
+		await second.setOffline(true);
+		const p2 = second.pages()[0] ?? (await second.newPage());
+		await p2.goto('/field');
+		await expect(p2.getByTestId('asset-list').getByRole('button').first()).toBeVisible();
+		await expect.poll(() => outboxCount(p2)).toBe(1);
+		await second.setOffline(false);
+		await expect.poll(() => outboxCount(p2), { timeout: 20_000 }).toBe(0);
+		await second.close();
 	});
 
 	/** Saves `n` typed checks on the open Floor check page. */

@@ -1,0 +1,56 @@
+/** Starts the built app on a loopback port with a throw-away database, for the benchmarks. */
+import { spawn, type ChildProcess } from 'node:child_process';
+import { existsSync, mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+
+export interface RunningServer {
+	origin: string;
+	dir: string;
+	stop(): Promise<void>;
+	process: ChildProcess;
+}
+
+export async function startServer(port: number, env: Record<string, string> = {}): Promise<RunningServer> {
+	if (!existsSync('build/index.js')) throw new Error('No build: run `npx vite build` first (npm run bench does).');
+	const dir = mkdtempSync(join(tmpdir(), 'detune-bench-'));
+	const origin = `http://127.0.0.1:${port}`;
+	const child = spawn(process.execPath, ['build'], {
+		env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', ORIGIN: origin, DATABASE_URL: join(dir, 'bench.db'), DATA_DIR: join(dir, 'data'), ...env },
+		stdio: ['ignore', 'ignore', 'inherit']
+	});
+	const deadline = Date.now() + 30_000;
+	for (;;) {
+		try {
+			const r = await fetch(`${origin}/api/health`);
+			if (r.ok) break;
+		} catch {
+			/* not up yet */
+		}
+		if (Date.now() > deadline) throw new Error('the server did not start');
+		await new Promise((r) => setTimeout(r, 200));
+	}
+	return {
+		origin,
+		dir,
+		process: child,
+		async stop() {
+			child.kill('SIGTERM');
+			await new Promise((r) => child.once('exit', r));
+			rmSync(dir, { recursive: true, force: true });
+		}
+	};
+}
+
+/** Signs in through the form action and returns the session cookie. */
+export async function signInCookie(origin: string, email: string, password: string): Promise<string> {
+	const res = await fetch(`${origin}/login`, {
+		method: 'POST',
+		headers: { 'content-type': 'application/x-www-form-urlencoded', origin, accept: 'text/html' },
+		body: new URLSearchParams({ email, password }),
+		redirect: 'manual'
+	});
+	const cookie = res.headers.get('set-cookie')?.split(';')[0];
+	if (!cookie) throw new Error(`sign-in failed (${res.status})`);
+	return cookie;
+}
