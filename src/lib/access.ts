@@ -27,10 +27,14 @@ export const ROUTE_ACCESS: Record<string, RouteEntry> = {
 	'/(app)/field': { access: FIELD },
 	'/(app)/board': { access: FLEET },
 	'/(app)/follow-ups': { access: ALL },
+	// sample: the demo's KRW-RWP-101 (a Kettle River asset, so the demo technician may read it)
+	'/(app)/assets/[assetId=id]': { access: ALL, sample: '/assets/ee690482-2661-40f0-a1ba-59140aa07f60' },
 	'/(app)/admin/users': { access: ADMIN },
 	'/api/health': { access: 'public' },
 	'/api/sync/pull': { access: ALL },
 	'/api/checks/latest': { access: FLEET },
+	'/api/recordings': { access: FIELD, method: 'POST' },
+	'/api/recordings/[recordingId=id]': { access: ALL, sample: '/api/recordings/00000000-0000-4000-a000-000000000000' },
 	'/api/sync/push': { access: FIELD, method: 'POST' }
 };
 

@@ -4,7 +4,7 @@
  * with the server's reason, until it is fixed or discarded. Pushes run oldest first, on demand, on
  * reconnect and on a timer that backs off after failures.
  */
-import { offlineDb, getMeta, setMeta, applyPull, type OutboxItem } from './store.ts';
+import { offlineDb, getMeta, setMeta, applyPull, type OutboxItem, type PendingRecording } from './store.ts';
 import { MAX_PUSH_ITEMS, type CheckPush, type PushResponse, type PullResponse } from '../schemas/sync.ts';
 
 export type SyncState = 'idle' | 'syncing' | 'offline' | 'signed-out' | 'error';
@@ -59,8 +59,8 @@ export class SyncManager {
 		this.items = all.filter(isOutboxItem);
 	}
 
-	async add(payload: CheckPush, display: OutboxItem['display']): Promise<void> {
-		const item: OutboxItem = { id: payload.id, createdAt: Date.now(), payload, status: 'pending', reason: null, attempts: 0, lastAttemptAt: null, display };
+	async add(payload: CheckPush, display: OutboxItem['display'], recordings: PendingRecording[] = []): Promise<void> {
+		const item: OutboxItem = { id: payload.id, createdAt: Date.now(), payload, status: 'pending', reason: null, attempts: 0, lastAttemptAt: null, display, recordings };
 		await (await offlineDb()).put('outbox', item);
 		await this.refresh();
 		this.#schedule(500);
@@ -144,8 +144,14 @@ export class SyncManager {
 		const db = await offlineDb();
 		for (;;) {
 			await this.refresh();
-			const batch = this.pending.slice(0, BATCH);
-			if (batch.length === 0) return 'done';
+			const candidates = this.pending.slice(0, BATCH);
+			if (candidates.length === 0) return 'done';
+			// recordings first: a check names files the server must already hold
+			const uploads = await this.#uploadRecordings(candidates);
+			if (uploads === 'stop') return 'stop';
+			await this.refresh();
+			const batch = this.pending.filter((p) => candidates.some((c) => c.id === p.id));
+			if (batch.length === 0) continue;
 			let res: Response;
 			try {
 				res = await fetch('/api/sync/push', {
@@ -181,6 +187,39 @@ export class SyncManager {
 				return 'stop';
 			}
 		}
+	}
+
+	async #uploadRecordings(items: OutboxItem[]): Promise<'ok' | 'stop'> {
+		const db = await offlineDb();
+		for (const item of items) {
+			for (const rec of item.recordings ?? []) {
+				if (rec.uploaded) continue;
+				const q = new URLSearchParams({ id: rec.id, assetId: rec.assetId, name: rec.fileName, ...(rec.sampleRateHz ? { sampleRateHz: String(rec.sampleRateHz) } : {}) });
+				let res: Response;
+				try {
+					res = await fetch(`/api/recordings?${q}`, { method: 'POST', headers: { 'content-type': rec.mediaType || 'application/octet-stream' }, body: rec.file });
+				} catch {
+					this.#fail('The server could not be reached.');
+					return 'stop';
+				}
+				if (res.status === 401) {
+					this.state = 'signed-out';
+					this.message = 'Your session ended. Sign in again to sync; your checks stay on this tablet.';
+					return 'stop';
+				}
+				const fresh = (await db.get('outbox', item.id)) ?? item;
+				if (res.ok) {
+					await db.put('outbox', { ...fresh, recordings: (fresh.recordings ?? []).map((r) => (r.id === rec.id ? { ...r, uploaded: true } : r)) });
+				} else if (res.status >= 400 && res.status < 500) {
+					const body = (await res.json().catch(() => null)) as { message?: string } | null;
+					await db.put('outbox', { ...fresh, status: 'rejected', reason: `Recording ${rec.fileName}: ${body?.message ?? `refused (${res.status})`}`, attempts: fresh.attempts + 1, lastAttemptAt: Date.now() });
+				} else {
+					this.#fail(`Uploading ${rec.fileName} failed (${res.status}).`);
+					return 'stop';
+				}
+			}
+		}
+		return 'ok';
 	}
 
 	async pull(): Promise<void> {

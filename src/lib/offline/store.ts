@@ -16,6 +16,18 @@ export interface OutboxItem {
 	lastAttemptAt: number | null;
 	/** what the list shows without recomputing */
 	display: { tag: string; name: string; verdict: string };
+	/** bump-test files that travel with the check, uploaded before it */
+	recordings?: PendingRecording[];
+}
+
+export interface PendingRecording {
+	id: string;
+	assetId: string;
+	file: Blob;
+	fileName: string;
+	mediaType: string;
+	sampleRateHz: number | null;
+	uploaded: boolean;
 }
 
 interface DetuneDB extends DBSchema {

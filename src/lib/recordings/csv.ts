@@ -110,14 +110,34 @@ function rateFromTime(t: Float64Array): number {
 	return (t.length - 1) / (t[t.length - 1] - t[0]);
 }
 
-/** Parses CSV text (server, tests). */
-export function parseCsvText(text: string, fileName: string, sampleRateHz: number | null = null): Recording {
+/**
+ * Parses CSV text (server, tests) in chunks, so the row arrays of a large file never all exist at
+ * once. `onChunk` reports progress as a fraction of characters read.
+ */
+export function parseCsvText(text: string, fileName: string, sampleRateHz: number | null = null, onChunk: (fraction: number) => void = () => {}): Recording {
 	checkSize(fileName, text.length);
 	let comma = true;
 	const collector = new CsvCollector(() => comma);
-	const result = Papa.parse<string[]>(text, { skipEmptyLines: true, delimitersToGuess: [',', ';', '\t', '|'] });
-	comma = result.meta.delimiter === ',';
-	collector.rows(result.data);
+	let failure: unknown = null;
+	// papaparse streams a string in chunks too, though its typings only admit that for files
+	const config = {
+		skipEmptyLines: true,
+		delimitersToGuess: [',', ';', '\t', '|'],
+		chunkSize: 1024 * 1024,
+		chunk: (res: Papa.ParseResult<string[]>, parser: Papa.Parser) => {
+			if (failure) return;
+			comma = res.meta.delimiter === ',';
+			try {
+				collector.rows(res.data);
+				onChunk(Math.min(1, res.meta.cursor / text.length));
+			} catch (e) {
+				failure = e;
+				parser.abort();
+			}
+		}
+	};
+	Papa.parse<string[]>(text, config as unknown as Papa.ParseConfig<string[]>);
+	if (failure) throw failure;
 	return collector.finish(fileName, text.length, sampleRateHz);
 }
 

@@ -57,6 +57,17 @@ describe('CSV recordings', () => {
 		expect(r.channels[0].samples[5]).toBeCloseTo(Math.sin(1) * 0.3, 4);
 	});
 
+	it('reads a file of several chunks without losing or splitting a row', () => {
+		const n = 120_000; // about 3 MB: three 1 MB chunks
+		const text = `time,accel\n${Array.from({ length: n }, (_, i) => `${(i / 5000).toFixed(6)},${(Math.sin(i / 9) * 0.25).toFixed(6)}`).join('\n')}`;
+		const fractions: number[] = [];
+		const r = parseCsvText(text, 'long.csv', null, (f) => fractions.push(f));
+		expect(fractions.length).toBeGreaterThan(2);
+		expect(r.channels[0].samples).toHaveLength(n);
+		expect(r.sampleRateHz).toBeCloseTo(5000, 3);
+		for (const i of [0, 41_234, 87_001, n - 1]) expect(r.channels[0].samples[i]).toBeCloseTo(Math.sin(i / 9) * 0.25, 6);
+	});
+
 	it('reads semicolons with a decimal comma', () => {
 		const r = parseCsvText(`Zeit;Beschleunigung\n${rows(100, 500, ';', ',').replace(/;[^;\n]*$/gm, '')}`, 'de.csv');
 		expect(r.sampleRateHz).toBeCloseTo(500, 6);

@@ -1,5 +1,9 @@
 /** WAV recordings (PCM 16/24/32-bit, float 32/64; one or more channels) through wavefile. */
-import { WaveFile } from 'wavefile';
+import * as wavefile from 'wavefile';
+
+// wavefile ships a UMD bundle: node sees its exports only as the default, bundlers as names
+const WaveFile: typeof wavefile.WaveFile = (wavefile as unknown as { WaveFile?: typeof wavefile.WaveFile }).WaveFile ?? (wavefile as unknown as { default: typeof wavefile }).default.WaveFile;
+type WaveFile = InstanceType<typeof WaveFile>;
 import { RecordingError, checkSize, type Recording } from './types.ts';
 
 const text = (b: Uint8Array, at: number) => String.fromCharCode(b[at], b[at + 1], b[at + 2], b[at + 3]);

@@ -17,7 +17,8 @@ export const modeInput = z
 		dampingRatio: finiteNumber('damping ratio').positive('damping ratio must be greater than zero').max(1, 'damping ratio must be at most 1').nullable(),
 		direction: z.enum(DIRECTIONS_LIST).nullable(),
 		location: z.string().trim().max(200, 'location is at most 200 characters').nullable(),
-		origin: z.enum(MODE_ORIGINS_LIST)
+		origin: z.enum(MODE_ORIGINS_LIST),
+		recordingId: uuid.nullable().optional()
 	})
 	.strict();
 
@@ -35,6 +36,11 @@ export const checkPush = z
 		notes: z.string().max(4000, 'notes are at most 4000 characters'),
 		replacesCheckId: uuid.nullable(),
 		modes: z.array(modeInput).max(50, 'at most 50 natural frequencies per check'),
+		/** bump-test files uploaded before this check (POST /api/recordings), with the peaks the device found */
+		recordings: z
+			.array(z.object({ id: uuid, deviceFrequenciesHz: z.array(z.number().finite().positive()).max(50) }).strict())
+			.max(5, 'at most 5 recordings per check')
+			.optional(),
 		/** what the device computed and showed; the server recomputes and keeps its own */
 		device: z
 			.object({

@@ -1,7 +1,7 @@
 /** Assets and what a user may see of them. */
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { db } from './index.ts';
-import { areas, assets, checks, sites, userSites } from './schema.ts';
+import { areas, assets, checks, excitationSources, ruleSets, sites, userSites } from './schema.ts';
 import { FLEET_WIDE, type Role } from '../../roles.ts';
 
 /** The site ids a user may read: every site for fleet-wide roles, else their assignments. */
@@ -31,4 +31,19 @@ export function counts() {
 
 export function bySite(siteId: string) {
 	return db.select().from(assets).where(and(eq(assets.siteId, siteId))).orderBy(asc(assets.tag)).all();
+}
+
+export function byId(id: string) {
+	return db.select().from(assets).where(eq(assets.id, id)).get();
+}
+
+/** Everything the asset sheet shows about the asset itself. */
+export function sheet(id: string) {
+	const asset = byId(id);
+	if (!asset) return null;
+	const site = db.select().from(sites).where(eq(sites.id, asset.siteId)).get()!;
+	const area = asset.areaId ? (db.select().from(areas).where(eq(areas.id, asset.areaId)).get() ?? null) : null;
+	const sources = db.select().from(excitationSources).where(eq(excitationSources.assetId, id)).orderBy(asc(excitationSources.sortOrder)).all();
+	const ruleSet = asset.ruleSetId ? (db.select().from(ruleSets).where(eq(ruleSets.id, asset.ruleSetId)).get() ?? null) : null;
+	return { asset, site, area, sources, ruleSet };
 }

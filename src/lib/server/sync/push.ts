@@ -10,7 +10,8 @@
  */
 import { eq } from 'drizzle-orm';
 import { db } from '../db/index.ts';
-import { assets, checks, excitationSources, modes, ruleSets } from '../db/schema.ts';
+import { assets, checks, excitationSources, modes, recordings, ruleSets } from '../db/schema.ts';
+import { analysesDiffer, type StoredAnalysis } from '../recordings.ts';
 import { visibleSiteIds } from '../db/assets.ts';
 import { computeCheck, sameSummary } from '../../checks/compute.ts';
 import { checkPush, type ItemResult, type PushResponse } from '../../schemas/sync.ts';
@@ -58,6 +59,10 @@ function applyOne(tx: Tx, user: { id: string }, scope: string[] | 'all', raw: un
 	if (c.replacesCheckId && !tx.select({ id: checks.id }).from(checks).where(eq(checks.id, c.replacesCheckId)).get()) {
 		return { id: c.id, status: 'rejected', reason: 'The check it replaces is not on the server.' };
 	}
+	for (const r of c.recordings ?? []) {
+		const row = tx.select().from(recordings).where(eq(recordings.id, r.id)).get();
+		if (!row || row.assetId !== asset.id) return { id: c.id, status: 'rejected', reason: `Recording ${r.id} has not been uploaded for this asset.` };
+	}
 	const sources = tx.select().from(excitationSources).where(eq(excitationSources.assetId, asset.id)).all();
 	const rule = asset.ruleSetId ? (tx.select().from(ruleSets).where(eq(ruleSets.id, asset.ruleSetId)).get() ?? null) : null;
 	let computed;
@@ -94,8 +99,17 @@ function applyOne(tx: Tx, user: { id: string }, scope: string[] | 'all', raw: un
 		.run();
 	c.modes.forEach((m) => {
 		tx.insert(modes)
-			.values({ id: crypto.randomUUID(), checkId: c.id, frequencyHz: m.frequencyHz, dampingRatio: m.dampingRatio, direction: m.direction, location: m.location, origin: m.origin })
+			.values({ id: crypto.randomUUID(), checkId: c.id, frequencyHz: m.frequencyHz, dampingRatio: m.dampingRatio, direction: m.direction, location: m.location, origin: m.origin, recordingId: m.recordingId ?? null })
 			.run();
 	});
+	for (const r of c.recordings ?? []) {
+		const row = tx.select().from(recordings).where(eq(recordings.id, r.id)).get()!;
+		const differs = analysesDiffer(row.analysis as unknown as StoredAnalysis, r.deviceFrequenciesHz);
+		if (differs) console.warn(`[detune] recording ${r.id}: device peaks ${r.deviceFrequenciesHz.map((f) => f.toFixed(2)).join(', ')} Hz differ from the server's analysis`);
+		tx.update(recordings)
+			.set({ checkId: c.id, deviceAnalysis: { frequenciesHz: r.deviceFrequenciesHz }, analysisDiffers: differs })
+			.where(eq(recordings.id, r.id))
+			.run();
+	}
 	return { id: c.id, status: 'applied', verdict: s.verdict };
 }

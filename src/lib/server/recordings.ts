@@ -1,0 +1,96 @@
+/**
+ * Bump-test files on the server: each stored once by its SHA-256 under the data folder, its
+ * metadata in SQLite, and analysed again here with the same code the tablet ran, so the server's
+ * modes are on record beside the device's.
+ */
+import { createHash } from 'node:crypto';
+import { existsSync, mkdirSync, readFileSync, renameSync, writeFileSync } from 'node:fs';
+import { dirname, join, resolve } from 'node:path';
+import { eq } from 'drizzle-orm';
+import { db } from './db/index.ts';
+import { recordings } from './db/schema.ts';
+import { setting } from './config.ts';
+import { parseCsvText } from '../recordings/csv.ts';
+import { parseWav } from '../recordings/wav.ts';
+import { analyzeRecording, defaultChoice } from '../recordings/analyze.ts';
+import { RecordingError, type Recording } from '../recordings/types.ts';
+
+export function dataDir(): string {
+	return resolve(setting('DATA_DIR') ?? 'data/files');
+}
+
+function pathFor(sha256: string): string {
+	return join(dataDir(), 'recordings', sha256.slice(0, 2), sha256);
+}
+
+export interface StoredAnalysis {
+	kind: 'ringdown' | 'impact';
+	modes: { frequencyHz: number; dampingRatio: number | null; qFactor: number | null; flags: string[] }[];
+}
+
+/** Parses a file's bytes by its name and type; throws RecordingError with what is wrong and where. */
+export function parseFile(bytes: Buffer, fileName: string, mediaType: string, sampleRateHz: number | null): Recording {
+	const isWav = /\.wav$/i.test(fileName) || /audio\/(x-)?wav/.test(mediaType);
+	if (isWav) return parseWav(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength), fileName);
+	if (/\.(csv|txt)$/i.test(fileName) || mediaType.startsWith('text/')) return parseCsvText(bytes.toString('utf8'), fileName, sampleRateHz);
+	throw new RecordingError(`${fileName} is neither a CSV nor a WAV file.`);
+}
+
+export function analyse(rec: Recording): StoredAnalysis {
+	const a = analyzeRecording(rec, defaultChoice(rec));
+	const modes = (a.kind === 'impact' ? a.result.modes : a.result.modes).map((m) => ({ frequencyHz: m.frequencyHz, dampingRatio: m.dampingRatio, qFactor: m.qFactor, flags: m.flags as string[] }));
+	return { kind: a.kind, modes };
+}
+
+export interface IngestInput {
+	id: string;
+	assetId: string;
+	fileName: string;
+	mediaType: string;
+	bytes: Buffer;
+	sampleRateHz: number | null;
+}
+
+/** Stores a recording (idempotent on its id). Returns whether it was new. */
+export function ingest(input: IngestInput): { created: boolean; sha256: string; analysis: StoredAnalysis } {
+	const existing = db.select().from(recordings).where(eq(recordings.id, input.id)).get();
+	if (existing) return { created: false, sha256: existing.sha256, analysis: existing.analysis as unknown as StoredAnalysis };
+	const rec = parseFile(input.bytes, input.fileName, input.mediaType, input.sampleRateHz);
+	const analysis = analyse(rec);
+	const sha256 = createHash('sha256').update(input.bytes).digest('hex');
+	const file = pathFor(sha256);
+	if (!existsSync(file)) {
+		mkdirSync(dirname(file), { recursive: true });
+		// write then rename, so a crash never leaves half a file under its hash
+		const tmp = `${file}.${process.pid}.tmp`;
+		writeFileSync(tmp, input.bytes);
+		renameSync(tmp, file);
+	}
+	db.insert(recordings)
+		.values({
+			id: input.id,
+			assetId: input.assetId,
+			sha256,
+			fileName: input.fileName.slice(0, 200),
+			sizeBytes: input.bytes.length,
+			mediaType: rec.format === 'wav' ? 'audio/wav' : 'text/csv',
+			sampleRateHz: rec.sampleRateHz,
+			channels: rec.channels.length,
+			durationS: rec.durationS,
+			analysis: analysis as unknown as Record<string, unknown>,
+			createdAt: Date.now()
+		})
+		.onConflictDoNothing()
+		.run();
+	return { created: true, sha256, analysis };
+}
+
+export function readStored(sha256: string): Buffer {
+	return readFileSync(pathFor(sha256));
+}
+
+/** The device's frequencies differ from the server's when a mode is missing or moved by more than 0.5 %. */
+export function analysesDiffer(server: StoredAnalysis, deviceHz: number[]): boolean {
+	const s = server.modes.map((m) => m.frequencyHz);
+	return deviceHz.some((f) => !s.some((g) => Math.abs(g - f) / f <= 0.005));
+}

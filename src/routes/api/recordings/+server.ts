@@ -1,0 +1,42 @@
+import { error, json } from '@sveltejs/kit';
+import type { RequestHandler } from './$types';
+import { requireUser } from '$lib/server/guard';
+import { visibleSiteIds } from '$lib/server/db/assets';
+import * as assetQueries from '$lib/server/db/assets';
+import { ingest } from '$lib/server/recordings';
+import { MAX_RECORDING_BYTES, RecordingError } from '$lib/recordings/types';
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+/**
+ * POST /api/recordings?id=<uuid>&assetId=…&name=…[&sampleRateHz=…] with the file as the body.
+ * Idempotent on id. The file is parsed and analysed before anything is stored.
+ */
+export const POST: RequestHandler = async (event) => {
+	const user = requireUser(event);
+	const q = event.url.searchParams;
+	const id = q.get('id') ?? '';
+	const assetId = q.get('assetId') ?? '';
+	const name = (q.get('name') ?? '').replace(/[\\/\0]/g, '_').slice(0, 200);
+	if (!UUID.test(id)) error(400, { message: 'id must be a UUID made on the device.', code: 'bad-id' });
+	if (!name) error(400, { message: 'name (the file name) is missing.', code: 'bad-name' });
+	const declared = Number(event.request.headers.get('content-length') ?? 'NaN');
+	if (Number.isFinite(declared) && declared > MAX_RECORDING_BYTES) error(413, { message: `Recordings may be at most 50 MB; this one is ${(declared / 1048576).toFixed(1)} MB.`, code: 'too-large' });
+	const type = event.request.headers.get('content-type') ?? '';
+	if (!/^(text\/csv|text\/plain|audio\/(x-)?wav|application\/octet-stream)/.test(type)) error(415, { message: 'Send a CSV (text/csv) or WAV (audio/wav) file.', code: 'bad-content-type' });
+	const asset = assetQueries.byId(assetId);
+	const scope = visibleSiteIds(user);
+	if (!asset || (scope !== 'all' && !scope.includes(asset.siteId))) error(404, { message: 'No such asset on your sites.', code: 'no-asset' });
+	const rateText = q.get('sampleRateHz');
+	const sampleRateHz = rateText === null || rateText === '' ? null : Number(rateText);
+	if (sampleRateHz !== null && !(sampleRateHz > 0 && Number.isFinite(sampleRateHz))) error(400, { message: 'sampleRateHz must be a number greater than zero.', code: 'bad-rate' });
+	const bytes = Buffer.from(await event.request.arrayBuffer());
+	if (bytes.length > MAX_RECORDING_BYTES) error(413, { message: 'Recordings may be at most 50 MB.', code: 'too-large' });
+	try {
+		const r = ingest({ id, assetId, fileName: name, mediaType: type, bytes, sampleRateHz });
+		return json({ id, sha256: r.sha256, created: r.created, modes: r.analysis.modes.length }, { status: r.created ? 201 : 200 });
+	} catch (e) {
+		if (e instanceof RecordingError) error(422, { message: e.message, code: 'bad-file' });
+		throw e;
+	}
+};
