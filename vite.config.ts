@@ -11,6 +11,9 @@ export default defineConfig({
 			// a new version waits for the technician's yes: it never reloads the page under them
 			registerType: 'prompt',
 			injectRegister: false,
+			// one worker for the whole app, registered from whichever page opens first
+			base: '/',
+			scope: '/',
 			manifest: {
 				id: '/field',
 				name: 'Detune — resonance checks',

@@ -9,26 +9,67 @@ export interface Peak {
 
 /**
  * Local maxima in [from, to) whose height is at least `minHeight`, each with its prominence
- * (as scipy.signal.peak_prominences defines it). Only tall-enough maxima are scanned, so noise
- * does not make this quadratic.
+ * (as scipy.signal.peak_prominences defines it: the height above the higher of the lowest points
+ * between the peak and the nearest higher ground on each side). Linear time: nearest higher
+ * samples from a monotonic stack, range minima from block minima.
  */
-export function findPeaks(mag: ArrayLike<number>, from: number, to: number, minHeight: number): Peak[] {
-	const out: Peak[] = [];
+export function findPeaks(mag: ArrayLike<number>, from: number, to: number, minHeight: number, minSeparation = 1): Peak[] {
+	const n = mag.length;
 	const lo = Math.max(1, from);
-	const hi = Math.min(mag.length - 1, to);
+	const hi = Math.min(n - 1, to);
+	const cands: number[] = [];
+	const sep = Math.max(1, Math.floor(minSeparation));
 	for (let k = lo; k < hi; k++) {
 		const h = mag[k];
 		if (h < minHeight || !(h > mag[k - 1] && h >= mag[k + 1])) continue;
-		let leftMin = h;
-		for (let i = k - 1; i >= 0 && mag[i] <= h; i--) if (mag[i] < leftMin) leftMin = mag[i];
-		let rightMin = h;
-		for (let i = k + 1; i < mag.length && mag[i] <= h; i++) {
-			if (mag[i] < rightMin) rightMin = mag[i];
-			if (mag[i] === h && i > k) break;
-		}
-		out.push({ bin: k, height: h, prominence: h - Math.max(leftMin, rightMin) });
+		// a ripple on the flank of a taller peak within `minSeparation` bins is not a peak of its own
+		let top = true;
+		for (let j = Math.max(0, k - sep); j <= Math.min(n - 1, k + sep) && top; j++) if (mag[j] > h) top = false;
+		if (top) cands.push(k);
 	}
-	return out;
+	if (cands.length === 0) return [];
+	// nearest strictly higher sample on each side within the searched range (monotonic stacks)
+	const a0 = lo - 1;
+	const a1 = hi + 1;
+	const len = a1 - a0;
+	const prev = new Int32Array(len);
+	const next = new Int32Array(len);
+	const stack = new Int32Array(len);
+	let top = 0;
+	for (let i = 0; i < len; i++) {
+		const v = mag[a0 + i];
+		while (top > 0 && mag[a0 + stack[top - 1]] <= v) top--;
+		prev[i] = top > 0 ? stack[top - 1] : -1;
+		stack[top++] = i;
+	}
+	top = 0;
+	for (let i = len - 1; i >= 0; i--) {
+		const v = mag[a0 + i];
+		while (top > 0 && mag[a0 + stack[top - 1]] <= v) top--;
+		next[i] = top > 0 ? stack[top - 1] : len;
+		stack[top++] = i;
+	}
+	const B = 256;
+	const blocks = new Float64Array(Math.ceil(n / B)).fill(Infinity);
+	for (let i = a0; i < a1; i++) if (mag[i] < blocks[(i / B) | 0]) blocks[(i / B) | 0] = mag[i];
+	const rangeMin = (a: number, b: number): number => {
+		// min of mag[a..b], inclusive
+		let m = Infinity;
+		let i = a;
+		while (i <= b && i % B !== 0) m = Math.min(m, mag[i++]);
+		while (i + B - 1 <= b) {
+			m = Math.min(m, blocks[i / B]);
+			i += B;
+		}
+		while (i <= b) m = Math.min(m, mag[i++]);
+		return m;
+	};
+	return cands.map((k) => {
+		const h = mag[k];
+		const leftMin = rangeMin(a0 + prev[k - a0] + 1, k);
+		const rightMin = rangeMin(k, Math.min(a1 - 1, a0 + next[k - a0] - 1));
+		return { bin: k, height: h, prominence: h - Math.max(leftMin, rightMin) };
+	});
 }
 
 /**

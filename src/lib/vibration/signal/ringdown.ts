@@ -16,7 +16,7 @@
  *    machine nearby), reported apart, not as a mode.
  */
 import { finite, integerAtLeast, positive, VibrationInputError } from '../errors.ts';
-import { magnitude, maxDecimate, nextPow2, realFft } from './spectrum.ts';
+import { magnitude, nextPow2, realFft } from './spectrum.ts';
 import { findPeaks, halfPowerBins, interpolatePeak } from './peaks.ts';
 
 export type ModeFlag = 'coarse-resolution' | 'short-record' | 'clipping' | 'double-hit' | 'damping-disagreement' | 'poor-envelope-fit';
@@ -31,7 +31,11 @@ export const FLAG_TEXT: Record<ModeFlag, string> = {
 };
 
 export interface RingdownOptions {
-	/** zero padding: the FFT length is nextPow2(n) × this (1, 2, 4 …; default 2) */
+	/**
+	 * zero padding: the FFT length is nextPow2(n) × this (1, 2, 4 …). By default records are
+	 * padded to twice their length up to 65,536 points; longer records already give a grid finer
+	 * than their frequency resolution needs, and are not padded.
+	 */
 	zeroPad?: number;
 	/** most modes reported (default 6) */
 	maxModes?: number;
@@ -78,7 +82,8 @@ export interface RingdownResult {
 	waveform: { timeS: number[]; value: number[]; envelope: number[] };
 }
 
-const DEFAULTS = { zeroPad: 2, maxModes: 6, minProminence: 0.02, disagreement: 0.3 };
+const DEFAULTS = { maxModes: 6, minProminence: 0.02, disagreement: 0.3 };
+const PAD_UP_TO = 65_536;
 
 /** Removes mean and linear trend (least squares), in place on a copy. */
 export function detrend(x: ArrayLike<number>): Float64Array {
@@ -152,36 +157,45 @@ export function hasSecondHit(x: ArrayLike<number>, sampleRateHz: number): boolea
 }
 
 /**
- * Envelope of one mode by complex demodulation at f (Hz) and a triangular low-pass of half-width
- * L samples (two passes of a centred moving average). Returns |envelope|·2, in signal units.
+ * Envelope of one mode by complex demodulation at f (Hz) and a low-pass of about L samples: the
+ * mixed signal is block-averaged over D = L/8 samples (itself a low-pass), then smoothed by two
+ * passes of a centred moving average (a triangle). Returns |envelope|·2 in signal units, one value
+ * per block; value k stands for sample k·D + D/2.
  */
-function demodulatedEnvelope(x: Float64Array, fs: number, f: number, L: number): Float64Array {
+function demodulatedEnvelope(x: Float64Array, fs: number, f: number, L: number): { env: Float64Array; step: number } {
 	const n = x.length;
-	const re = new Float64Array(n);
-	const im = new Float64Array(n);
+	const D = Math.max(1, Math.floor(L / 8));
+	const m = Math.floor(n / D);
+	const re = new Float64Array(m);
+	const im = new Float64Array(m);
 	const w = (2 * Math.PI * f) / fs;
-	// rotate with a recurrence: cos/sin per sample would dominate the cost
+	// rotate with a recurrence (renormalised now and then): cos/sin per sample would dominate
 	const cw = Math.cos(w);
 	const sw = Math.sin(w);
 	let c = 1;
 	let s = 0;
-	for (let i = 0; i < n; i++) {
-		re[i] = x[i] * c;
-		im[i] = -x[i] * s;
-		const c2 = c * cw - s * sw;
-		s = s * cw + c * sw;
-		c = c2;
-		if ((i & 1023) === 1023) {
-			const r = Math.hypot(c, s);
-			c /= r;
-			s /= r;
+	for (let b = 0; b < m; b++) {
+		let sr = 0;
+		let si = 0;
+		for (let i = b * D, e = i + D; i < e; i++) {
+			sr += x[i] * c;
+			si -= x[i] * s;
+			const c2 = c * cw - s * sw;
+			s = s * cw + c * sw;
+			c = c2;
 		}
+		re[b] = sr / D;
+		im[b] = si / D;
+		const r = Math.sqrt(c * c + s * s);
+		c /= r;
+		s /= r;
 	}
-	const a = movingAverage(movingAverage(re, L), L);
-	const b = movingAverage(movingAverage(im, L), L);
-	const env = new Float64Array(n);
-	for (let i = 0; i < n; i++) env[i] = 2 * Math.hypot(a[i], b[i]);
-	return env;
+	const Lb = Math.max(1, Math.round(L / D));
+	const a = movingAverage(movingAverage(re, Lb), Lb);
+	const bb = movingAverage(movingAverage(im, Lb), Lb);
+	const env = new Float64Array(m);
+	for (let i = 0; i < m; i++) env[i] = 2 * Math.sqrt(a[i] * a[i] + bb[i] * bb[i]);
+	return { env, step: D };
 }
 
 function movingAverage(x: Float64Array, L: number): Float64Array {
@@ -211,7 +225,7 @@ function movingAverage(x: Float64Array, L: number): Float64Array {
 	return out;
 }
 
-/** Straight line through (t, ln env) from `from` to `to`, every `step` samples: slope, intercept, R². */
+/** Straight line through (t, ln env) over env[from … to), value k at time (k·step + step/2)/fs: slope, intercept, R². */
 function logLinearFit(env: Float64Array, fs: number, from: number, to: number, step: number) {
 	let n = 0;
 	let st = 0;
@@ -219,9 +233,9 @@ function logLinearFit(env: Float64Array, fs: number, from: number, to: number, s
 	let stt = 0;
 	let sty = 0;
 	let syy = 0;
-	for (let i = from; i < to; i += step) {
+	for (let i = from; i < to; i++) {
 		if (env[i] <= 0) continue;
-		const t = i / fs;
+		const t = (i * step + step / 2) / fs;
 		const y = Math.log(env[i]);
 		n++;
 		st += t;
@@ -257,7 +271,6 @@ export function analyzeRingdown(samples: ArrayLike<number>, sampleRateHz: number
 	validateSamples(samples);
 	const fs = positive('sampleRateHz', sampleRateHz);
 	const opt = { ...DEFAULTS, ...options };
-	const zeroPad = integerAtLeast('zeroPad', opt.zeroPad, 1);
 	const maxModes = integerAtLeast('maxModes', opt.maxModes, 1);
 	const minProm = positive('minProminence', opt.minProminence);
 	const tauW = opt.exponentialWindowS === null || opt.exponentialWindowS === undefined ? null : positive('exponentialWindowS', opt.exponentialWindowS);
@@ -281,7 +294,10 @@ export function analyzeRingdown(samples: ArrayLike<number>, sampleRateHz: number
 
 	const windowed = new Float64Array(n);
 	for (let i = 0; i < n; i++) windowed[i] = tauW === null ? x[i] : x[i] * Math.exp(-i / fs / tauW);
-	const nfft = Math.min(nextPow2(n) * nextPow2(zeroPad), 1 << 22);
+	const nfft =
+		opt.zeroPad !== undefined
+			? Math.min(nextPow2(n) * nextPow2(integerAtLeast('zeroPad', opt.zeroPad, 1)), 1 << 22)
+			: Math.min(2 * nextPow2(n), Math.max(nextPow2(n), PAD_UP_TO));
 	const spec = realFft(windowed, nfft);
 	const mag = magnitude(spec);
 	progress(0.45);
@@ -292,13 +308,13 @@ export function analyzeRingdown(samples: ArrayLike<number>, sampleRateHz: number
 	const fMax = Math.min(opt.maxFrequencyHz ?? Infinity, 0.45 * fs);
 	let tallest = 0;
 	for (let k = Math.ceil(fMin / df); k <= Math.floor(fMax / df) && k < mag.length; k++) tallest = Math.max(tallest, mag[k]);
-	const peaks = findPeaks(mag, Math.ceil(fMin / df), Math.floor(fMax / df), tallest * minProm)
+	const peaks = findPeaks(mag, Math.ceil(fMin / df), Math.floor(fMax / df), tallest * minProm, Math.round((2 * resolution) / df))
 		.filter((p) => p.prominence >= tallest * minProm)
 		.sort((a, b) => b.prominence - a.prominence);
 	// keep peaks at least two resolution steps from a more prominent one
 	const kept: typeof peaks = [];
 	for (const p of peaks) if (kept.every((q) => Math.abs(q.bin - p.bin) * df >= 2 * resolution)) kept.push(p);
-	const candidates = kept.slice(0, maxModes * 2);
+	const candidates = kept.slice(0, maxModes + 2);
 
 	const modes: RingdownMode[] = [];
 	const tones: RingdownResult['tones'] = [];
@@ -314,20 +330,22 @@ export function analyzeRingdown(samples: ArrayLike<number>, sampleRateHz: number
 		const others = candidates.filter((q) => q !== p).map((q) => Math.abs(q.bin - p.bin) * df);
 		const nearest = others.length ? Math.min(...others) : Infinity;
 		const L = Math.min(Math.floor(n / 8), Math.max(8, Math.ceil((2 * fs) / Math.min(nearest, f))));
-		const env = demodulatedEnvelope(x, fs, f, L);
-		const from = Math.min(n - 1, 2 * L);
-		let to = n - 2 * L;
+		const { env, step } = demodulatedEnvelope(x, fs, f, L);
+		const m = env.length;
+		// skip the filter's start-up and its end (2L samples each), then stop in the noise
+		const edge = Math.ceil((2 * L) / step);
+		const from = Math.min(m - 1, edge);
+		let to = m - edge;
 		let envPeak = 0;
 		for (let i = from; i < to; i++) envPeak = Math.max(envPeak, env[i]);
 		let floor = Infinity;
-		for (let i = Math.max(from, to - Math.floor(n / 10)); i < to; i++) floor = Math.min(floor, env[i]);
+		for (let i = Math.max(from, to - Math.floor(m / 10)); i < to; i++) floor = Math.min(floor, env[i]);
 		if (floor < 0.1 * envPeak) {
-			// stop where the envelope sinks into the noise
 			let i = from;
 			while (i < to && env[i] > Math.max(3 * floor, 0.01 * envPeak)) i++;
 			to = i;
 		}
-		const fit = to - from > 16 ? logLinearFit(env, fs, from, to, Math.max(1, Math.floor(L / 4))) : null;
+		const fit = to - from > 8 ? logLinearFit(env, fs, from, to, step) : null;
 		const sigma = fit ? -fit.slope : null;
 		const w = 2 * Math.PI * f;
 		const decayDamping = sigma !== null && sigma > 0 ? sigma / Math.hypot(sigma, w) : sigma !== null ? 0 : null;
@@ -360,19 +378,13 @@ export function analyzeRingdown(samples: ArrayLike<number>, sampleRateHz: number
 	});
 	modes.sort((a, b) => b.amplitude - a.amplitude);
 
-	// chart data
-	const freqs = new Float64Array(mag.length);
-	for (let k = 0; k < mag.length; k++) freqs[k] = k * df;
+	// chart data, decimated without building full-length arrays
 	const scale = 2 / n;
-	const scaled = new Float64Array(mag.length);
-	for (let k = 0; k < mag.length; k++) scaled[k] = mag[k] * scale;
-	const dec = maxDecimate(freqs, scaled, 2048, 0, Math.min(mag.length, Math.ceil(Math.min(fMax, 0.5 * fs) / df) + 1));
-	const spectrum = { frequencyHz: dec.x, magnitude: dec.y };
+	const kEnd = Math.min(mag.length, Math.ceil(Math.min(fMax, 0.5 * fs) / df) + 1);
+	const spectrum = bucketMax(kEnd, 2048, (k) => mag[k] * scale, (k) => k * df);
 	const envW = Math.max(1, Math.floor(x0.length / 500));
 	const rms = rmsEnvelope(x0, envW);
-	const times = new Float64Array(x0.length);
-	for (let i = 0; i < x0.length; i++) times[i] = i / fs;
-	const wave = maxDecimate(times, x0, 2000);
+	const wave = bucketMax(x0.length, 2000, (i) => x0[i], (i) => i / fs);
 	const envelope = wave.x.map((t) => Math.SQRT2 * (rms[Math.min(rms.length - 1, Math.floor((t * fs) / envW))] ?? 0));
 	progress(1);
 	return {
@@ -385,9 +397,29 @@ export function analyzeRingdown(samples: ArrayLike<number>, sampleRateHz: number
 		nfft,
 		hitIndex: hit,
 		flags: recordFlags,
-		spectrum,
+		spectrum: { frequencyHz: spectrum.x, magnitude: spectrum.y },
 		waveform: { timeS: wave.x, value: wave.y, envelope }
 	};
+}
+
+/** At most `points` (x, y) pairs, each the largest |y| of its bucket, so peaks survive on a chart. */
+function bucketMax(n: number, points: number, y: (i: number) => number, x: (i: number) => number): { x: number[]; y: number[] } {
+	const xs: number[] = [];
+	const ys: number[] = [];
+	const per = Math.max(1, n / points);
+	for (let b = 0; b * per < n; b++) {
+		const s = Math.floor(b * per);
+		const e = Math.min(n, Math.floor((b + 1) * per));
+		let best = s;
+		let bv = Math.abs(y(s));
+		for (let i = s + 1; i < e; i++) {
+			const v = Math.abs(y(i));
+			if (v > bv) [best, bv] = [i, v];
+		}
+		xs.push(x(best));
+		ys.push(y(best));
+	}
+	return { x: xs, y: ys };
 }
 
 /** A finite check of a sample rate given by a person (CSV without a time column, WAV header). */

@@ -56,7 +56,7 @@ export function realFft(x: ArrayLike<number>, nfft: number): OneSided {
 /** |X_k| of a one-sided spectrum. */
 export function magnitude(s: OneSided): Float64Array {
 	const m = new Float64Array(s.re.length);
-	for (let k = 0; k < m.length; k++) m[k] = Math.hypot(s.re[k], s.im[k]);
+	for (let k = 0; k < m.length; k++) m[k] = Math.sqrt(s.re[k] * s.re[k] + s.im[k] * s.im[k]);
 	return m;
 }
 
