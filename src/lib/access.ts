@@ -33,6 +33,7 @@ export const ROUTE_ACCESS: Record<string, RouteEntry> = {
 	'/api/health': { access: 'public' },
 	'/api/sync/pull': { access: ALL },
 	'/api/checks/latest': { access: FLEET },
+	'/api/board': { access: FLEET },
 	'/api/recordings': { access: FIELD, method: 'POST' },
 	'/api/recordings/[recordingId=id]': { access: ALL, sample: '/api/recordings/00000000-0000-4000-a000-000000000000' },
 	'/api/sync/push': { access: FIELD, method: 'POST' }

@@ -97,7 +97,7 @@ function pump(tag: string, name: string, site: string, area: string, vfd: boolea
 		motorPoles: poles,
 		driveRatio: 1,
 		ruleSet,
-		sources: [shaft(), { kind: 'vane', params: { count: vanes } }, bearing('DE', 9, 0.0254, 0.115), bearing('NDE', 8, 0.0222, 0.095, 15), line(60, vfd ? poles : undefined)],
+		sources: [shaft([1, 2]), { kind: 'vane', params: { count: vanes } }, ...(tag.endsWith('1') ? [bearing('DE', 9, 0.0254, 0.115)] : []), line(60, vfd ? poles : undefined)],
 		modes
 	};
 }
@@ -116,7 +116,7 @@ function fan(tag: string, name: string, site: string, area: string, vfd: boolean
 		motorPoles: poles,
 		driveRatio: 1,
 		ruleSet,
-		sources: [shaft([1, 2]), { kind: 'blade', params: { count: blades } }, bearing('Fan DE', 14, 0.0286, 0.16), line(60, vfd ? poles : undefined)],
+		sources: [shaft([1, 2]), { kind: 'blade', params: { count: blades } }, line(60, vfd ? poles : undefined)],
 		modes
 	};
 }

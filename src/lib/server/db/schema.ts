@@ -94,7 +94,8 @@ export const ruleSets = sqliteTable('rule_sets', {
 	...timestamps
 });
 
-export const MACHINE_KINDS = ['pump', 'fan', 'blower', 'compressor', 'motor', 'gearbox', 'refiner', 'agitator', 'other'] as const;
+import { MACHINE_KINDS_LIST as MACHINE_KINDS } from '../../schemas/shared-enums.ts';
+export { MACHINE_KINDS };
 export const DRIVE_TYPES = ['fixed', 'vfd'] as const;
 
 export const assets = sqliteTable(
@@ -317,3 +318,30 @@ export type ExcitationSourceRow = typeof excitationSources.$inferSelect;
 export type RuleSetRow = typeof ruleSets.$inferSelect;
 export type CheckRow = typeof checks.$inferSelect;
 export type ModeRow = typeof modes.$inferSelect;
+
+/**
+ * The board's row per asset: its latest check, re-evaluated against today's asset data and rule
+ * set (so an edit or a rule change shows at once), kept up to date in the same transaction as the
+ * write that changes it. The check rows themselves stay as they were computed (the record).
+ */
+export const assetStatus = sqliteTable(
+	'asset_status',
+	{
+		assetId: text('asset_id')
+			.primaryKey()
+			.references(() => assets.id, { onDelete: 'cascade' }),
+		latestCheckId: text('latest_check_id').references(() => checks.id),
+		checkedAt: integer('checked_at'),
+		checkedBy: text('checked_by'),
+		measuredRpm: real('measured_rpm'),
+		verdict: text('verdict', { enum: VERDICTS }).notNull().default('unchecked'),
+		/** 0 unchecked, 1 clear, 2 tight, 3 conflict: for sorting worst first */
+		verdictRank: integer('verdict_rank').notNull().default(0),
+		worstMarginAtSpeedPct: real('worst_margin_at_speed_pct'),
+		worstMarginOverRangePct: real('worst_margin_over_range_pct'),
+		worstPair: text('worst_pair'),
+		openFollowUps: integer('open_follow_ups').notNull().default(0),
+		updatedAt: integer('updated_at').notNull()
+	},
+	(t) => [index('status_worst_idx').on(t.verdictRank, t.worstMarginOverRangePct), index('status_checked_idx').on(t.checkedAt)]
+);

@@ -22,7 +22,8 @@ describe('demo seed', () => {
 		expect(new Set(roles)).toEqual(new Set(['technician', 'supervisor', 'planner', 'admin']));
 		const before = [count(users), count(assets), count(excitationSources)];
 		const second = await seed(db);
-		expect(second).toEqual({ users: 0, sites: 0, assets: 0, sources: 0 });
+		expect(second).toEqual({ users: 0, sites: 0, assets: 0, sources: 0, checks: 0 });
+		expect(first.checks).toBeGreaterThan(50);
 		expect([count(users), count(assets), count(excitationSources)]).toEqual(before);
 	});
 

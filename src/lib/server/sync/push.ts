@@ -12,6 +12,7 @@ import { eq } from 'drizzle-orm';
 import { db } from '../db/index.ts';
 import { assets, checks, excitationSources, modes, recordings, ruleSets } from '../db/schema.ts';
 import { analysesDiffer, type StoredAnalysis } from '../recordings.ts';
+import { afterCheck } from '../db/status.ts';
 import { visibleSiteIds } from '../db/assets.ts';
 import { computeCheck, sameSummary } from '../../checks/compute.ts';
 import { checkPush, type ItemResult, type PushResponse } from '../../schemas/sync.ts';
@@ -23,7 +24,7 @@ export interface PushOptions {
 	now?: number;
 }
 
-export function push(user: { id: string; role: Role }, items: unknown[], options: PushOptions = {}): { response: PushResponse; failed: boolean } {
+export function push(user: { id: string; role: Role; name?: string }, items: unknown[], options: PushOptions = {}): { response: PushResponse; failed: boolean } {
 	const results: ItemResult[] = [];
 	let error: string | undefined;
 	const scope = visibleSiteIds(user);
@@ -45,7 +46,7 @@ export function push(user: { id: string; role: Role }, items: unknown[], options
 
 type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];
 
-function applyOne(tx: Tx, user: { id: string }, scope: string[] | 'all', raw: unknown, now: number): ItemResult {
+function applyOne(tx: Tx, user: { id: string; name?: string }, scope: string[] | 'all', raw: unknown, now: number): ItemResult {
 	const parsed = checkPush.safeParse(raw);
 	const rawId = typeof raw === 'object' && raw !== null && typeof (raw as { id?: unknown }).id === 'string' ? ((raw as { id: string }).id as string).slice(0, 64) : null;
 	if (!parsed.success) {
@@ -102,6 +103,7 @@ function applyOne(tx: Tx, user: { id: string }, scope: string[] | 'all', raw: un
 			.values({ id: crypto.randomUUID(), checkId: c.id, frequencyHz: m.frequencyHz, dampingRatio: m.dampingRatio, direction: m.direction, location: m.location, origin: m.origin, recordingId: m.recordingId ?? null })
 			.run();
 	});
+	afterCheck(tx, asset.id, { id: c.id, checkedAt: c.checkedAt, measuredRpm: c.measuredRpm, userName: user.name ?? null }, s, now);
 	for (const r of c.recordings ?? []) {
 		const row = tx.select().from(recordings).where(eq(recordings.id, r.id)).get()!;
 		const differs = analysesDiffer(row.analysis as unknown as StoredAnalysis, r.deviceFrequenciesHz);

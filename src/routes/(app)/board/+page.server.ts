@@ -1,9 +1,9 @@
 import type { PageServerLoad } from './$types';
-import * as assets from '$lib/server/db/assets';
-import * as checks from '$lib/server/db/checks';
+import * as board from '$lib/server/db/board';
 import { requireUser } from '$lib/server/guard';
 
+/** The filter choices; the rows come from /api/board, fetched by the page. */
 export const load: PageServerLoad = (event) => {
 	requireUser(event);
-	return { counts: assets.counts(), latest: checks.latestPerAsset() };
+	return board.filterOptions();
 };

@@ -1,0 +1,58 @@
+import { beforeAll, describe, expect, it } from 'vitest';
+import { freshDatabase } from '../test-db.ts';
+import { query, all } from './board.ts';
+import { boardQuery } from '../../schemas/board.ts';
+import { demoId } from './seed.ts';
+
+beforeAll(async () => {
+	await freshDatabase({ demo: true });
+});
+
+const q = (over: Record<string, string> = {}) => boardQuery.parse(over);
+
+describe('the Margin board query', () => {
+	it('lists every asset, worst first, with counts per verdict', () => {
+		const r = query(q(), 'all');
+		expect(r.total).toBe(40);
+		expect(r.counts.clear + r.counts.tight + r.counts.conflict + r.counts.unchecked).toBe(40);
+		const ranks = r.rows.map((x) => ['unchecked', 'clear', 'tight', 'conflict'].indexOf(x.verdict));
+		expect([...ranks].sort((a, b) => b - a)).toEqual(ranks);
+		const conflicts = r.rows.filter((x) => x.verdict === 'conflict').map((x) => x.worstMarginOverRangePct ?? Infinity);
+		expect([...conflicts].sort((a, b) => a - b)).toEqual(conflicts);
+	});
+
+	it('filters by site and verdict, searches tag and name, and pages', () => {
+		const site = demoId('site:KRW');
+		const r = query(q({ site, verdict: 'conflict' }), 'all');
+		expect(r.rows.every((x) => x.site === 'Kettle River Water Works' && x.verdict === 'conflict')).toBe(true);
+		expect(r.total).toBe(r.counts.conflict);
+		expect(query(q({ q: 'raw water' }), 'all').rows.map((x) => x.tag)).toEqual(expect.arrayContaining(['KRW-RWP-101', 'KRW-RWP-104']));
+		expect(query(q({ q: '%' }), 'all').total).toBe(0); // a wildcard is searched as a character
+		const p1 = query(q({ size: '10' }), 'all');
+		const p2 = query(q({ size: '10', page: '2' }), 'all');
+		expect(p1.rows).toHaveLength(10);
+		expect(p2.rows[0].id).not.toBe(p1.rows[0].id);
+		expect(all(q({ site }), 'all').length).toBe(query(q({ site }), 'all').total);
+	});
+
+	it('flags checks older than the site interval as stale, and filters on it', () => {
+		const stale = query(q({ stale: 'yes' }), 'all');
+		expect(stale.total).toBeGreaterThan(0);
+		expect(stale.rows.every((x) => x.stale)).toBe(true);
+		expect(query(q({ stale: 'no' }), 'all').rows.every((x) => !x.stale)).toBe(true);
+	});
+
+	it('sorts by a column both ways and keeps a technician to their sites', () => {
+		const asc = query(q({ sort: 'tag' }), 'all').rows.map((x) => x.tag);
+		const desc = query(q({ sort: 'tag', dir: 'desc' }), 'all').rows.map((x) => x.tag);
+		expect(asc).toEqual([...asc].sort());
+		expect(desc).toEqual([...asc].sort().reverse().slice(0, desc.length));
+		expect(query(q(), [demoId('site:LBM')]).rows.every((x) => x.site === 'Larkspur Board Mill')).toBe(true);
+	});
+
+	it('refuses bad parameters with a message', () => {
+		expect(boardQuery.safeParse({ verdict: 'awful' }).error?.issues[0].message).toMatch(/verdict must be one of/);
+		expect(boardQuery.safeParse({ page: '0' }).error?.issues[0].message).toBe('page starts at 1');
+		expect(boardQuery.safeParse({ nonsense: '1' }).success).toBe(false);
+	});
+});

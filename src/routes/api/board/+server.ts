@@ -1,0 +1,48 @@
+import { error, json } from '@sveltejs/kit';
+import type { RequestHandler } from './$types';
+import { requireUser } from '$lib/server/guard';
+import { visibleSiteIds } from '$lib/server/db/assets';
+import * as board from '$lib/server/db/board';
+import { boardQuery, type BoardRow } from '$lib/schemas/board';
+
+const CSV_COLUMNS: [string, (r: BoardRow) => unknown][] = [
+	['tag', (r) => r.tag],
+	['name', (r) => r.name],
+	['site', (r) => r.site],
+	['area', (r) => r.area ?? ''],
+	['machine_kind', (r) => r.machineKind],
+	['drive', (r) => r.driveType],
+	['min_rpm', (r) => r.minRpm],
+	['max_rpm', (r) => r.maxRpm],
+	['checked_at', (r) => (r.checkedAt ? new Date(r.checkedAt).toISOString() : '')],
+	['checked_by', (r) => r.checkedBy ?? ''],
+	['measured_rpm', (r) => r.measuredRpm ?? ''],
+	['worst_margin_at_speed_pct', (r) => (r.worstMarginAtSpeedPct === null ? '' : r.worstMarginAtSpeedPct.toFixed(2))],
+	['worst_margin_over_range_pct', (r) => (r.worstMarginOverRangePct === null ? '' : r.worstMarginOverRangePct.toFixed(2))],
+	['worst_pair', (r) => r.worstPair ?? ''],
+	['verdict', (r) => r.verdict],
+	['stale', (r) => (r.stale ? 'yes' : 'no')],
+	['open_follow_ups', (r) => r.openFollowUps]
+];
+
+const cell = (v: unknown) => {
+	const s = String(v);
+	// quote when needed; a leading =, +, - or @ is neutralised so a spreadsheet never runs it
+	const safe = /^[=+\-@]/.test(s) && !/^-?\d/.test(s) ? `'${s}` : s;
+	return /[",\n]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
+};
+
+/** GET /api/board — the Margin board's rows (JSON), or the whole filtered list as CSV (?format=csv). */
+export const GET: RequestHandler = (event) => {
+	const user = requireUser(event);
+	const parsed = boardQuery.safeParse(Object.fromEntries(event.url.searchParams));
+	if (!parsed.success) error(400, { message: `${parsed.error.issues[0].path.join('.') || 'query'}: ${parsed.error.issues[0].message}`, code: 'bad-query' });
+	const q = parsed.data;
+	const scope = visibleSiteIds(user);
+	if (q.format === 'csv') {
+		const rows = board.all(q, scope);
+		const text = [CSV_COLUMNS.map((c) => c[0]).join(','), ...rows.map((r) => CSV_COLUMNS.map(([, f]) => cell(f(r))).join(','))].join('\r\n');
+		return new Response(text + '\r\n', { headers: { 'content-type': 'text/csv; charset=utf-8', 'content-disposition': 'attachment; filename="detune-margin-board.csv"', 'cache-control': 'no-store' } });
+	}
+	return json(board.query(q, scope), { headers: { 'cache-control': 'no-store' } });
+};
