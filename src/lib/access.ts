@@ -19,6 +19,7 @@ const ALL: readonly Role[] = ROLES;
 const FIELD: readonly Role[] = ['technician', 'supervisor', 'admin'];
 const FLEET: readonly Role[] = ['supervisor', 'planner', 'admin'];
 const ADMIN: readonly Role[] = ['admin'];
+const EDITORS: readonly Role[] = ['supervisor', 'admin'];
 
 export const ROUTE_ACCESS: Record<string, RouteEntry> = {
 	'/': { access: 'signed-in' },
@@ -30,6 +31,10 @@ export const ROUTE_ACCESS: Record<string, RouteEntry> = {
 	// sample: the demo's KRW-RWP-101 (a Kettle River asset, so the demo technician may read it)
 	'/(app)/assets/[assetId=id]': { access: ALL, sample: '/assets/ee690482-2661-40f0-a1ba-59140aa07f60' },
 	'/(app)/admin/users': { access: ADMIN },
+	'/(app)/rule-sets': { access: EDITORS },
+	'/(app)/admin/import': { access: ADMIN },
+	'/(app)/admin/import/template.csv': { access: ADMIN },
+	'/(app)/admin/audit': { access: ADMIN },
 	'/api/health': { access: 'public' },
 	'/api/sync/pull': { access: ALL },
 	'/api/checks/latest': { access: FLEET },
@@ -57,14 +62,17 @@ export interface NavItem {
 	href: string;
 	label: string;
 	routeId: string;
-	icon: 'field' | 'board' | 'follow-ups' | 'users';
+	icon: 'field' | 'board' | 'follow-ups' | 'users' | 'rules' | 'import' | 'audit';
 }
 
 export const NAV: readonly NavItem[] = [
 	{ href: '/field', label: 'Floor check', routeId: '/(app)/field', icon: 'field' },
 	{ href: '/board', label: 'Margin board', routeId: '/(app)/board', icon: 'board' },
 	{ href: '/follow-ups', label: 'Follow-ups', routeId: '/(app)/follow-ups', icon: 'follow-ups' },
-	{ href: '/admin/users', label: 'Users', routeId: '/(app)/admin/users', icon: 'users' }
+	{ href: '/rule-sets', label: 'Rule sets', routeId: '/(app)/rule-sets', icon: 'rules' },
+	{ href: '/admin/users', label: 'Users', routeId: '/(app)/admin/users', icon: 'users' },
+	{ href: '/admin/import', label: 'Import', routeId: '/(app)/admin/import', icon: 'import' },
+	{ href: '/admin/audit', label: 'Audit', routeId: '/(app)/admin/audit', icon: 'audit' }
 ];
 
 /** The navigation a role may use, in the table's order. */

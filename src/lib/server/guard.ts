@@ -59,3 +59,10 @@ export function requireUser(event: RequestEvent) {
 	if (!user) error(401, { message: 'Sign in to continue.', code: 'unauthenticated' });
 	return user;
 }
+
+/** Throws 403 unless the signed-in user has one of `roles` (for actions finer than the route). */
+export function requireRole(event: RequestEvent, roles: readonly Role[]) {
+	const user = requireUser(event);
+	if (!roles.includes(user.role)) error(403, { message: `Your role (${user.role}) may not do this.`, code: 'forbidden' });
+	return user;
+}

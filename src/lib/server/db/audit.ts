@@ -1,5 +1,5 @@
 /** The audit log: who changed which record, when, from what to what. */
-import { and, desc, eq } from 'drizzle-orm';
+import { and, desc, eq, sql } from 'drizzle-orm';
 import { db, type Db } from './index.ts';
 import { auditLog, users } from './schema.ts';
 
@@ -37,6 +37,20 @@ export function recent(limit = 200) {
 		.select({ id: auditLog.id, at: auditLog.at, entity: auditLog.entity, entityId: auditLog.entityId, action: auditLog.action, before: auditLog.before, after: auditLog.after, userName: users.name })
 		.from(auditLog)
 		.leftJoin(users, eq(users.id, auditLog.userId))
+		.orderBy(desc(auditLog.at), desc(auditLog.id))
+		.limit(limit)
+		.all();
+}
+
+/** Changes to an asset and to its excitation sources, newest first. */
+export function forAsset(assetId: string, limit = 100) {
+	return db
+		.select({ id: auditLog.id, at: auditLog.at, entity: auditLog.entity, action: auditLog.action, before: auditLog.before, after: auditLog.after, userName: users.name })
+		.from(auditLog)
+		.leftJoin(users, eq(users.id, auditLog.userId))
+		.where(
+			sql`(${auditLog.entity} = 'asset' and ${auditLog.entityId} = ${assetId}) or (${auditLog.entity} = 'excitation_source' and (json_extract(${auditLog.before}, '$.asset') = ${assetId} or json_extract(${auditLog.after}, '$.asset') = ${assetId}))`
+		)
 		.orderBy(desc(auditLog.at), desc(auditLog.id))
 		.limit(limit)
 		.all();

@@ -1,0 +1,176 @@
+/**
+ * Asset import from CSV: every row validated first (row and column named in each message); then
+ * all rows in one transaction, or none. A tag already in the database is updated, and its
+ * excitation sources replaced by the row's when the row gives any.
+ */
+import Papa from 'papaparse';
+import { eq } from 'drizzle-orm';
+import { db } from './index.ts';
+import { areas, assets, excitationSources, ruleSets, sites } from './schema.ts';
+import { nextVersion } from './versions.ts';
+import { refreshAsset } from './status.ts';
+import * as audit from './audit.ts';
+import { assetForm, type AssetForm } from '../../schemas/asset.ts';
+import { sourceParams } from '../../schemas/excitation.ts';
+
+export const IMPORT_COLUMNS = [
+	['tag', 'unique asset tag (required)'],
+	['name', 'asset name (required)'],
+	['site_code', 'site code, e.g. KRW (required)'],
+	['area', 'area name; created in the site if new'],
+	['machine_kind', 'pump, fan, blower, compressor, motor, gearbox, refiner, agitator or other'],
+	['drive_type', 'fixed or vfd'],
+	['min_rpm', 'minimum shaft speed, rpm'],
+	['max_rpm', 'maximum shaft speed, rpm (= min_rpm for fixed speed)'],
+	['nominal_rpm', 'optional'],
+	['motor_poles', 'optional, for drive output Hz'],
+	['drive_ratio', 'motor rpm ÷ shaft rpm; 1 for direct drive'],
+	['skip_bands', 'skip bands the drive offers; default 3'],
+	['rule_set', 'rule-set name; empty for the default'],
+	['shaft_orders', 'e.g. 0.5;1;2'],
+	['vane_count', 'pump vanes'],
+	['blade_count', 'fan or blower blades'],
+	['gear_teeth', 'teeth on the reference shaft'],
+	['gear_mating_teeth', 'teeth on the mating gear'],
+	['bearing_elements', 'rolling elements'],
+	['bearing_element_mm', 'element diameter, mm'],
+	['bearing_pitch_mm', 'pitch diameter, mm'],
+	['bearing_angle_deg', 'contact angle, °'],
+	['line_hz', 'mains frequency, for 2× line'],
+	['fixed_hz', 'a fixed forcing frequency, Hz']
+] as const;
+
+export const TEMPLATE = [
+	IMPORT_COLUMNS.map((c) => c[0]).join(','),
+	'KRW-RWP-105,Raw water pump 5,KRW,Raw Water Intake,pump,vfd,720,1180,1180,6,1,3,Pump structures 15 %\\, vane pass 20 %,1;2,5,,,,9,25.4,115,0,60,',
+	'LBM-EXF-130,Dryer exhaust fan,LBM,Dryer Section,fan,fixed,1180,1180,1180,6,1,3,,1;2,,9,,,,,,,60,'
+]
+	.map((l) => l.replace('Pump structures 15 %\\, vane pass 20 %', '"Pump structures 15 %, vane pass 20 %"'))
+	.join('\r\n');
+
+export interface RowError {
+	row: number;
+	column: string;
+	message: string;
+}
+
+interface ValidRow {
+	row: number;
+	tag: string;
+	siteId: string;
+	areaName: string | null;
+	asset: AssetForm;
+	sources: { kind: string; label: string; params: Record<string, unknown> }[];
+}
+
+const COLUMN_OF: Record<string, string> = { name: 'name', machineKind: 'machine_kind', driveType: 'drive_type', minRpm: 'min_rpm', maxRpm: 'max_rpm', nominalRpm: 'nominal_rpm', motorPoles: 'motor_poles', driveRatio: 'drive_ratio', skipBands: 'skip_bands', ruleSetId: 'rule_set' };
+
+export function validate(text: string): { rows: ValidRow[]; errors: RowError[]; total: number } {
+	const parsed = Papa.parse<Record<string, string>>(text.replace(/^\uFEFF/, ''), { header: true, skipEmptyLines: 'greedy', transformHeader: (h) => h.trim().toLowerCase() });
+	const errors: RowError[] = [];
+	const headers = parsed.meta.fields ?? [];
+	const known = new Set<string>(IMPORT_COLUMNS.map((c) => c[0]));
+	for (const h of headers) if (!known.has(h)) errors.push({ row: 1, column: h, message: `Unknown column “${h}”; the template lists the columns.` });
+	for (const need of ['tag', 'name', 'site_code', 'min_rpm', 'max_rpm']) if (!headers.includes(need)) errors.push({ row: 1, column: need, message: `The column “${need}” is missing.` });
+	for (const e of parsed.errors) errors.push({ row: (e.row ?? 0) + 2, column: '', message: e.message });
+	if (errors.length) return { rows: [], errors, total: parsed.data.length };
+	const siteByCode = new Map(db.select().from(sites).all().map((s) => [s.code.toUpperCase(), s]));
+	const ruleByName = new Map(db.select().from(ruleSets).all().map((r) => [r.name.toLowerCase(), r.id]));
+	const seen = new Map<string, number>();
+	const rows: ValidRow[] = [];
+	parsed.data.forEach((raw, i) => {
+		const row = i + 2; // the header is row 1
+		const get = (k: string) => (raw[k] ?? '').trim();
+		const fail = (column: string, message: string) => errors.push({ row, column, message });
+		const tag = get('tag');
+		if (!/^[A-Za-z0-9][A-Za-z0-9._/-]{1,39}$/.test(tag)) return fail('tag', 'Tag: 2–40 letters, digits, dots, dashes or slashes.');
+		if (seen.has(tag)) return fail('tag', `Tag ${tag} is also on row ${seen.get(tag)}.`);
+		seen.set(tag, row);
+		const site = siteByCode.get(get('site_code').toUpperCase());
+		if (!site) return fail('site_code', `No site with code “${get('site_code')}”.`);
+		const ruleName = get('rule_set');
+		const ruleSetId = ruleName ? ruleByName.get(ruleName.toLowerCase()) : null;
+		if (ruleName && !ruleSetId) return fail('rule_set', `No rule set named “${ruleName}”.`);
+		const form = assetForm.safeParse({
+			name: get('name'),
+			machineKind: get('machine_kind') || 'other',
+			driveType: get('drive_type') || (get('min_rpm') === get('max_rpm') ? 'fixed' : 'vfd'),
+			minRpm: get('min_rpm'),
+			maxRpm: get('max_rpm'),
+			nominalRpm: get('nominal_rpm'),
+			motorPoles: get('motor_poles'),
+			driveRatio: get('drive_ratio') || '1',
+			skipBands: get('skip_bands') || '3',
+			ruleSetId: ruleSetId ?? '',
+			notes: ''
+		});
+		if (!form.success) {
+			const issue = form.error.issues[0];
+			return fail(COLUMN_OF[String(issue.path[0])] ?? String(issue.path[0]), issue.message);
+		}
+		const sources: ValidRow['sources'] = [];
+		const add = (kind: keyof typeof sourceParams, column: string, params: Record<string, unknown>) => {
+			const p = sourceParams[kind].safeParse(params);
+			if (!p.success) {
+				fail(column, p.error.issues[0].message);
+				return false;
+			}
+			sources.push({ kind, label: '', params: p.data as Record<string, unknown> });
+			return true;
+		};
+		const n = (k: string) => (get(k) === '' ? undefined : Number(get(k).replace(',', '.')));
+		if (get('shaft_orders') && !add('shaft', 'shaft_orders', { orders: get('shaft_orders').split(/[;\s]+/).filter(Boolean).map(Number) })) return;
+		if (get('vane_count') && !add('vane', 'vane_count', { count: n('vane_count') })) return;
+		if (get('blade_count') && !add('blade', 'blade_count', { count: n('blade_count') })) return;
+		if ((get('gear_teeth') || get('gear_mating_teeth')) && !add('gear', 'gear_teeth', { teeth: n('gear_teeth'), matingTeeth: n('gear_mating_teeth') })) return;
+		if (
+			(get('bearing_elements') || get('bearing_element_mm') || get('bearing_pitch_mm')) &&
+			!add('bearing', 'bearing_elements', {
+				rollingElements: n('bearing_elements'),
+				elementDiameter: (n('bearing_element_mm') ?? NaN) / 1000,
+				pitchDiameter: (n('bearing_pitch_mm') ?? NaN) / 1000,
+				contactAngleDeg: n('bearing_angle_deg') ?? 0
+			})
+		)
+			return;
+		if (get('line_hz') && !add('line', 'line_hz', { lineFrequencyHz: n('line_hz'), drive: form.data.driveType === 'vfd' && form.data.motorPoles ? { poles: form.data.motorPoles, motorRpmPerShaftRpm: form.data.driveRatio } : null })) return;
+		if (get('fixed_hz') && !add('fixed', 'fixed_hz', { frequencyHz: n('fixed_hz') })) return;
+		rows.push({ row, tag, siteId: site.id, areaName: get('area') || null, asset: form.data, sources });
+	});
+	return { rows: errors.length ? [] : rows, errors, total: parsed.data.length };
+}
+
+/** Imports all rows or none; returns how many were added and updated. */
+export function run(text: string, actorId: string, now = Date.now()): { errors: RowError[]; added: number; updated: number } {
+	const { rows, errors } = validate(text);
+	if (errors.length) return { errors, added: 0, updated: 0 };
+	let added = 0;
+	let updated = 0;
+	db.transaction((tx) => {
+		const version = nextVersion(tx);
+		for (const r of rows) {
+			let areaId: string | null = null;
+			if (r.areaName) {
+				const area = tx.select().from(areas).all().find((a) => a.siteId === r.siteId && a.name.toLowerCase() === r.areaName!.toLowerCase());
+				areaId = area?.id ?? crypto.randomUUID();
+				if (!area) tx.insert(areas).values({ id: areaId, siteId: r.siteId, name: r.areaName, version, createdAt: now, updatedAt: now }).run();
+			}
+			const existing = tx.select().from(assets).where(eq(assets.tag, r.tag)).get();
+			const id = existing?.id ?? crypto.randomUUID();
+			if (existing) {
+				tx.update(assets).set({ ...r.asset, siteId: r.siteId, areaId, version, updatedAt: now }).where(eq(assets.id, id)).run();
+				updated++;
+			} else {
+				tx.insert(assets).values({ id, tag: r.tag, ...r.asset, siteId: r.siteId, areaId, version, createdAt: now, updatedAt: now }).run();
+				added++;
+			}
+			if (r.sources.length || !existing) {
+				tx.delete(excitationSources).where(eq(excitationSources.assetId, id)).run();
+				r.sources.forEach((s, i) => tx.insert(excitationSources).values({ id: crypto.randomUUID(), assetId: id, kind: s.kind, label: s.label, params: s.params, sortOrder: i, version, createdAt: now, updatedAt: now }).run());
+			}
+			audit.record(tx, { userId: actorId, entity: 'asset', entityId: id, action: existing ? 'import (update)' : 'import (new)', before: existing ? { name: existing.name, minRpm: existing.minRpm, maxRpm: existing.maxRpm } : null, after: { ...r.asset, sources: r.sources.length } }, now);
+			refreshAsset(tx, id, now);
+		}
+	});
+	return { errors: [], added, updated };
+}

@@ -1,0 +1,41 @@
+import { fail } from '@sveltejs/kit';
+import type { Actions, PageServerLoad } from './$types';
+import { requireRole, requireUser } from '$lib/server/guard';
+import * as importer from '$lib/server/db/import';
+
+const MAX = 2 * 1024 * 1024;
+
+export const load: PageServerLoad = (event) => {
+	requireUser(event);
+	return { columns: importer.IMPORT_COLUMNS.map(([name, meaning]) => ({ name, meaning })) };
+};
+
+async function textOf(request: Request): Promise<{ text: string } | { error: string }> {
+	const form = await request.formData();
+	const file = form.get('file');
+	const kept = form.get('text');
+	if (file instanceof File && file.size > 0) {
+		if (file.size > MAX) return { error: `The file is ${(file.size / 1048576).toFixed(1)} MB; an asset list may be at most 2 MB.` };
+		return { text: await file.text() };
+	}
+	if (typeof kept === 'string' && kept.length > 0 && kept.length <= MAX) return { text: kept };
+	return { error: 'Choose a CSV file.' };
+}
+
+export const actions: Actions = {
+	preview: async (event) => {
+		requireRole(event, ['admin']);
+		const t = await textOf(event.request);
+		if ('error' in t) return fail(400, { stage: 'preview', error: t.error });
+		const v = importer.validate(t.text);
+		return { stage: 'preview', text: t.text, total: v.total, errors: v.errors, rows: v.rows.slice(0, 100).map((r) => ({ row: r.row, tag: r.tag, name: r.asset.name, minRpm: r.asset.minRpm, maxRpm: r.asset.maxRpm, sources: r.sources.length })) };
+	},
+	import: async (event) => {
+		const actor = requireRole(event, ['admin']);
+		const t = await textOf(event.request);
+		if ('error' in t) return fail(400, { stage: 'import', error: t.error });
+		const r = importer.run(t.text, actor.id);
+		if (r.errors.length) return fail(400, { stage: 'preview', text: t.text, total: 0, errors: r.errors, rows: [] });
+		return { stage: 'done', added: r.added, updated: r.updated };
+	}
+};

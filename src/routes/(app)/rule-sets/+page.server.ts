@@ -1,0 +1,44 @@
+import { fail } from '@sveltejs/kit';
+import type { Actions, PageServerLoad } from './$types';
+import { requireRole, requireUser } from '$lib/server/guard';
+import * as rules from '$lib/server/db/rule-sets';
+import { ruleSetForm } from '$lib/schemas/rule-set';
+import { fieldErrors } from '$lib/schemas/user';
+import { SOURCE_KINDS } from '$lib/schemas/excitation';
+
+export const load: PageServerLoad = (event) => {
+	requireUser(event);
+	return { ruleSets: rules.list() };
+};
+
+function parse(form: FormData) {
+	const perKind: Record<string, string> = {};
+	for (const k of SOURCE_KINDS) {
+		const v = String(form.get(`perKind.${k}`) ?? '').trim();
+		if (v !== '') perKind[k] = v;
+	}
+	return ruleSetForm.safeParse({
+		name: String(form.get('name') ?? ''),
+		kind: String(form.get('kind') ?? ''),
+		percent: String(form.get('percent') ?? ''),
+		perKind,
+		source: String(form.get('source') ?? ''),
+		edition: String(form.get('edition') ?? '')
+	});
+}
+
+export const actions: Actions = {
+	save: async (event) => {
+		const actor = requireRole(event, ['supervisor', 'admin']);
+		const form = await event.request.formData();
+		const id = String(form.get('id') ?? '') || null;
+		const parsed = parse(form);
+		if (!parsed.success) return fail(400, { id: id ?? 'new', errors: fieldErrors(parsed.error) });
+		try {
+			const r = rules.save(id, parsed.data, actor.id);
+			return { id: id ?? 'new', done: id ? `Saved; ${r.recomputed} asset verdict${r.recomputed === 1 ? '' : 's'} recomputed.` : 'Rule set created.' };
+		} catch (e) {
+			return fail(404, { id: id ?? 'new', errors: { form: (e as Error).message } });
+		}
+	}
+};
