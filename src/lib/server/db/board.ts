@@ -2,71 +2,69 @@
  * The Margin board: one row per asset from asset_status, filtered, searched, sorted and paged in
  * SQL. Stale = the latest check is older than its site's recheck interval.
  */
-import { and, asc, desc, eq, or, sql, type AnyColumn, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, or, sql, type AnyColumn, type SQL } from 'drizzle-orm';
 import { db } from './index.ts';
 import { areas, assetStatus, assets, sites } from './schema.ts';
 import type { BoardQuery, BoardResponse, BoardRow } from '../../schemas/board.ts';
 
-const DAY = 86_400_000;
-
 function staleExpr(now: number): SQL<number> {
-	return sql<number>`(${assetStatus.checkedAt} is not null and ${assetStatus.checkedAt} < ${now} - ${sites.recheckDays} * ${DAY})`;
+	return sql<number>`(${assetStatus.staleAfter} is not null and ${assetStatus.staleAfter} < ${now})`;
 }
 
 function conditions(q: BoardQuery, now: number, scope: string[] | 'all', withVerdict: boolean): SQL | undefined {
 	const c: (SQL | undefined)[] = [];
-	if (scope !== 'all') c.push(scope.length ? sql`${assets.siteId} in ${scope}` : sql`0`);
-	if (q.site) c.push(eq(assets.siteId, q.site));
-	if (q.area) c.push(eq(assets.areaId, q.area));
-	if (q.kind) c.push(eq(assets.machineKind, q.kind));
+	if (scope !== 'all') c.push(scope.length ? sql`${assetStatus.siteId} in ${scope}` : sql`0`);
+	if (q.site) c.push(eq(assetStatus.siteId, q.site));
+	if (q.area) c.push(eq(assetStatus.areaId, q.area));
+	if (q.kind) c.push(eq(assetStatus.machineKind, q.kind));
 	if (withVerdict && q.verdict) c.push(eq(assetStatus.verdict, q.verdict));
-	if (q.stale === 'yes') c.push(sql`${staleExpr(now)} = 1`);
-	if (q.stale === 'no') c.push(sql`${staleExpr(now)} = 0`);
+	if (q.stale === 'yes') c.push(sql`${assetStatus.staleAfter} < ${now}`);
+	if (q.stale === 'no') c.push(sql`(${assetStatus.staleAfter} is null or ${assetStatus.staleAfter} >= ${now})`);
 	if (q.q) {
 		const pattern = `%${q.q.replace(/[\\%_]/g, (m) => `\\${m}`)}%`;
-		c.push(or(sql`${assets.tag} like ${pattern} escape '\\'`, sql`${assets.name} like ${pattern} escape '\\'`));
+		c.push(or(sql`${assetStatus.tag} like ${pattern} escape '\\'`, sql`${assetStatus.name} like ${pattern} escape '\\'`));
 	}
 	return c.length ? and(...c) : undefined;
 }
 
 function ordering(q: BoardQuery): SQL[] {
 	const d = q.dir === 'desc' ? desc : asc;
-	const nullsLast = (col: AnyColumn) => sql`${col} is null`;
+	// SQLite puts NULLs first when ascending; unchecked assets (no figures) go last either way
+	const nullable = (col: AnyColumn): SQL[] => (q.dir === 'desc' ? [desc(col)] : [sql`${col} is null`, asc(col)]);
 	switch (q.sort) {
 		case 'tag':
-			return [d(assets.tag)];
+			return [d(assetStatus.tag)];
 		case 'name':
-			return [d(assets.name), asc(assets.tag)];
+			return [d(assetStatus.name), asc(assetStatus.tag)];
 		case 'site':
-			return [d(sites.name), asc(assets.tag)];
+			return [d(assetStatus.siteId), asc(assetStatus.tag)]; // sites are few: grouped, in a stable order
 		case 'checked':
-			return [nullsLast(assetStatus.checkedAt), d(assetStatus.checkedAt), asc(assets.tag)];
+			return [...nullable(assetStatus.checkedAt), asc(assetStatus.tag)];
 		case 'atSpeed':
-			return [nullsLast(assetStatus.worstMarginAtSpeedPct), d(assetStatus.worstMarginAtSpeedPct), asc(assets.tag)];
+			return [...nullable(assetStatus.worstMarginAtSpeedPct), asc(assetStatus.tag)];
 		case 'overRange':
-			return [nullsLast(assetStatus.worstMarginOverRangePct), d(assetStatus.worstMarginOverRangePct), asc(assets.tag)];
+			return [...nullable(assetStatus.worstMarginOverRangePct), asc(assetStatus.tag)];
 		case 'verdict':
-			return [q.dir === 'desc' ? asc(assetStatus.verdictRank) : desc(assetStatus.verdictRank), asc(assets.tag)];
+			return [q.dir === 'desc' ? asc(assetStatus.verdictRank) : desc(assetStatus.verdictRank), asc(assetStatus.tag)];
 		case 'followUps':
-			return [d(assetStatus.openFollowUps), asc(assets.tag)];
+			return [d(assetStatus.openFollowUps), asc(assetStatus.tag)];
 		default:
-			// worst first: verdict, then the smallest margin over the range, then the tag
-			return [desc(assetStatus.verdictRank), nullsLast(assetStatus.worstMarginOverRangePct), asc(assetStatus.worstMarginOverRangePct), asc(assets.tag)];
+			// worst first: verdict, then the smallest margin over the range (every checked asset has
+			// one; unchecked ones rank 0 and come last), then the tag. Matches status_worst_idx.
+			return [desc(assetStatus.verdictRank), asc(assetStatus.worstMarginOverRangePct), asc(assetStatus.tag)];
 	}
 }
 
+/** The board columns from asset_status alone: one table, so its indexes serve filter and order. */
 function base(now: number) {
 	return db
 		.select({
-			id: assets.id,
-			tag: assets.tag,
-			name: assets.name,
-			site: sites.name,
-			area: areas.name,
-			machineKind: assets.machineKind,
-			driveType: assets.driveType,
-			minRpm: assets.minRpm,
-			maxRpm: assets.maxRpm,
+			id: assetStatus.assetId,
+			tag: assetStatus.tag,
+			name: assetStatus.name,
+			siteId: assetStatus.siteId,
+			areaId: assetStatus.areaId,
+			machineKind: assetStatus.machineKind,
 			checkedAt: assetStatus.checkedAt,
 			checkedBy: assetStatus.checkedBy,
 			measuredRpm: assetStatus.measuredRpm,
@@ -77,26 +75,37 @@ function base(now: number) {
 			stale: staleExpr(now),
 			openFollowUps: assetStatus.openFollowUps
 		})
-		.from(assets)
-		.innerJoin(sites, eq(sites.id, assets.siteId))
-		.innerJoin(assetStatus, eq(assetStatus.assetId, assets.id))
-		.leftJoin(areas, eq(areas.id, assets.areaId));
+		.from(assetStatus);
+}
+
+type BaseRow = Awaited<ReturnType<ReturnType<typeof base>['all']>>[number];
+
+/** Adds site and area names and the speed range to a page of rows (small lookups). */
+function complete(rows: BaseRow[]): BoardRow[] {
+	if (rows.length === 0) return [];
+	const siteNames = new Map(db.select({ id: sites.id, name: sites.name }).from(sites).all().map((r) => [r.id, r.name]));
+	const areaIds = [...new Set(rows.map((r) => r.areaId).filter((a): a is string => a !== null))];
+	const areaNames = new Map(areaIds.length ? db.select({ id: areas.id, name: areas.name }).from(areas).where(inArray(areas.id, areaIds)).all().map((r) => [r.id, r.name]) : []);
+	const speeds = new Map(
+		db
+			.select({ id: assets.id, minRpm: assets.minRpm, maxRpm: assets.maxRpm, driveType: assets.driveType })
+			.from(assets)
+			.where(inArray(assets.id, rows.map((r) => r.id)))
+			.all()
+			.map((r) => [r.id, r])
+	);
+	return rows.map(({ siteId, areaId, ...r }) => {
+		const sp = speeds.get(r.id);
+		return { ...r, site: siteNames.get(siteId) ?? '', area: areaId ? (areaNames.get(areaId) ?? null) : null, minRpm: sp?.minRpm ?? 0, maxRpm: sp?.maxRpm ?? 0, driveType: sp?.driveType ?? 'fixed', stale: r.stale === 1 } as BoardRow;
+	});
 }
 
 export function query(q: BoardQuery, scope: string[] | 'all', now = Date.now()): BoardResponse {
 	const where = conditions(q, now, scope, true);
-	const rows = base(now)
-		.where(where)
-		.orderBy(...ordering(q))
-		.limit(q.size)
-		.offset((q.page - 1) * q.size)
-		.all()
-		.map((r) => ({ ...r, stale: r.stale === 1 }) as BoardRow);
+	const rows = complete(base(now).where(where).orderBy(...ordering(q)).limit(q.size).offset((q.page - 1) * q.size).all());
 	const grouped = db
 		.select({ verdict: assetStatus.verdict, n: sql<number>`count(*)`, stale: sql<number>`sum(${staleExpr(now)})` })
-		.from(assets)
-		.innerJoin(sites, eq(sites.id, assets.siteId))
-		.innerJoin(assetStatus, eq(assetStatus.assetId, assets.id))
+		.from(assetStatus)
 		.where(conditions(q, now, scope, false))
 		.groupBy(assetStatus.verdict)
 		.all();
@@ -112,11 +121,10 @@ export function query(q: BoardQuery, scope: string[] | 'all', now = Date.now()):
 
 /** Every row of the filtered list, for CSV export. */
 export function all(q: BoardQuery, scope: string[] | 'all', now = Date.now()): BoardRow[] {
-	return base(now)
-		.where(conditions(q, now, scope, true))
-		.orderBy(...ordering(q))
-		.all()
-		.map((r) => ({ ...r, stale: r.stale === 1 }) as BoardRow);
+	const rows = base(now).where(conditions(q, now, scope, true)).orderBy(...ordering(q)).all();
+	const out: BoardRow[] = [];
+	for (let i = 0; i < rows.length; i += 500) out.push(...complete(rows.slice(i, i + 500)));
+	return out;
 }
 
 export function filterOptions() {
@@ -126,8 +134,16 @@ export function filterOptions() {
 	};
 }
 
-/** The SQL the board runs, for the benchmark's bare-SQL comparison. */
+/** The two statements the board runs (rows, counts), for the benchmark's bare-SQL comparison. */
 export function sqlOf(q: BoardQuery, scope: string[] | 'all', now = Date.now()) {
-	return base(now).where(conditions(q, now, scope, true)).orderBy(...ordering(q)).limit(q.size).offset((q.page - 1) * q.size).toSQL();
+	return [
+		base(now).where(conditions(q, now, scope, true)).orderBy(...ordering(q)).limit(q.size).offset((q.page - 1) * q.size).toSQL(),
+		db
+			.select({ verdict: assetStatus.verdict, n: sql<number>`count(*)`, stale: sql<number>`sum(${staleExpr(now)})` })
+			.from(assetStatus)
+			.where(conditions(q, now, scope, false))
+			.groupBy(assetStatus.verdict)
+			.toSQL()
+	];
 }
 

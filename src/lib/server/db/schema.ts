@@ -341,7 +341,21 @@ export const assetStatus = sqliteTable(
 		worstMarginOverRangePct: real('worst_margin_over_range_pct'),
 		worstPair: text('worst_pair'),
 		openFollowUps: integer('open_follow_ups').notNull().default(0),
-		updatedAt: integer('updated_at').notNull()
+		updatedAt: integer('updated_at').notNull(),
+		// copies of the asset's board columns, so the board filters and sorts one table with indexes
+		siteId: text('site_id').notNull().default(''),
+		areaId: text('area_id'),
+		machineKind: text('machine_kind').notNull().default('other'),
+		tag: text('tag').notNull().default(''),
+		name: text('name').notNull().default(''),
+		/** checked_at + the site's recheck interval: stale once now passes it */
+		staleAfter: integer('stale_after')
 	},
-	(t) => [index('status_worst_idx').on(t.verdictRank, t.worstMarginOverRangePct), index('status_checked_idx').on(t.checkedAt)]
+	(t) => [
+		index('status_worst_idx').on(t.verdictRank, t.worstMarginOverRangePct),
+		index('status_checked_idx').on(t.checkedAt),
+		index('status_site_worst_idx').on(t.siteId, t.verdictRank, t.worstMarginOverRangePct),
+		index('status_verdict_idx').on(t.verdict, t.staleAfter),
+		index('status_tag_idx').on(t.tag)
+	]
 );

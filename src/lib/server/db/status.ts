@@ -5,7 +5,7 @@
  */
 import { and, asc, desc, eq, ne, sql } from 'drizzle-orm';
 import type { Db } from './client.ts';
-import { assetStatus, assets, checks, excitationSources, followUps, modes, ruleSets, users } from './schema.ts';
+import { assetStatus, assets, checks, excitationSources, followUps, modes, ruleSets, sites, users } from './schema.ts';
 import { computeCheck, type CheckSummary } from '../../checks/compute.ts';
 import { VERDICT_RANK } from '../../vibration/index.ts';
 
@@ -27,7 +27,15 @@ function write(tx: Tx, assetId: string, row: StatusRow, now: number): void {
 			.where(and(eq(followUps.assetId, assetId), ne(followUps.status, 'retested')))
 			.get()?.n ?? 0;
 	const s = row.summary;
+	const asset = tx.select({ siteId: assets.siteId, areaId: assets.areaId, machineKind: assets.machineKind, tag: assets.tag, name: assets.name, recheckDays: sites.recheckDays }).from(assets).innerJoin(sites, eq(sites.id, assets.siteId)).where(eq(assets.id, assetId)).get();
+	if (!asset) return;
 	const values = {
+		siteId: asset.siteId,
+		areaId: asset.areaId,
+		machineKind: asset.machineKind,
+		tag: asset.tag,
+		name: asset.name,
+		staleAfter: row.checkedAt === null ? null : row.checkedAt + asset.recheckDays * 86_400_000,
 		assetId,
 		latestCheckId: row.latestCheckId,
 		checkedAt: row.checkedAt,
