@@ -119,8 +119,12 @@ test.describe('Floor check offline', () => {
 		const sup = await browser.newContext();
 		const sp = await sup.newPage();
 		await signIn(sp, 'supervisor');
-		await sp.goto('/board');
-		for (const tag of Object.keys(verdicts)) await expect(sp.getByTestId('latest-checks')).toContainText(tag);
+		for (const tag of Object.keys(verdicts)) {
+			await sp.goto(`/board?q=${tag}`);
+			const row = sp.locator(`[data-testid="board-row"][data-tag="${tag}"]`);
+			await expect(row).toContainText(new Date().toLocaleDateString('en-US'));
+			await expect(row.locator('[data-verdict]')).toHaveAttribute('data-verdict', verdicts[tag]);
+		}
 		await sup.close();
 	});
 
