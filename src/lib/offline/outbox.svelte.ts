@@ -163,11 +163,7 @@ export class SyncManager {
 				this.#fail('The server could not be reached.');
 				return 'stop';
 			}
-			if (res.status === 401) {
-				this.state = 'signed-out';
-				this.message = 'Your session ended. Sign in again to sync; your checks stay on this tablet.';
-				return 'stop';
-			}
+			if (res.status === 401) return this.#signedOut();
 			let body: PushResponse | null = null;
 			try {
 				body = (await res.json()) as PushResponse;
@@ -189,6 +185,12 @@ export class SyncManager {
 		}
 	}
 
+	#signedOut(): 'stop' {
+		this.state = 'signed-out';
+		this.message = 'Your session ended. Sign in again to sync; your checks stay on this tablet.';
+		return 'stop';
+	}
+
 	async #uploadRecordings(items: OutboxItem[]): Promise<'ok' | 'stop'> {
 		const db = await offlineDb();
 		for (const item of items) {
@@ -202,11 +204,7 @@ export class SyncManager {
 					this.#fail('The server could not be reached.');
 					return 'stop';
 				}
-				if (res.status === 401) {
-					this.state = 'signed-out';
-					this.message = 'Your session ended. Sign in again to sync; your checks stay on this tablet.';
-					return 'stop';
-				}
+				if (res.status === 401) return this.#signedOut();
 				const fresh = (await db.get('outbox', item.id)) ?? item;
 				if (res.ok) {
 					await db.put('outbox', { ...fresh, recordings: (fresh.recordings ?? []).map((r) => (r.id === rec.id ? { ...r, uploaded: true } : r)) });

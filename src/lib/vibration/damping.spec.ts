@@ -13,17 +13,8 @@ import {
 	oscillatorFromModal,
 	peakMagnification
 } from './index.ts';
+import { bisect } from './testing/bisect.ts';
 
-function bisect(f: (x: number) => number, lo: number, hi: number): number {
-	let a = lo;
-	let b = hi;
-	for (let i = 0; i < 200; i++) {
-		const m = (a + b) / 2;
-		if (Math.sign(f(m)) === Math.sign(f(a))) a = m;
-		else b = m;
-	}
-	return (a + b) / 2;
-}
 
 describe('log decrement', () => {
 	it('successive peaks in the ratio 2 give δ = 0.6931, ζ = 0.10965 (domain.md E6 [C])', () => {

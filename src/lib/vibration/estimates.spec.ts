@@ -17,18 +17,8 @@ import {
 	tubeSecondMoment,
 	twoDiscFrequencyHz
 } from './index.ts';
+import { bisect } from './testing/bisect.ts';
 
-/** Bisection on a sign change: an independent root of a frequency equation. */
-function bisect(f: (x: number) => number, lo: number, hi: number): number {
-	let a = lo;
-	let b = hi;
-	for (let i = 0; i < 200; i++) {
-		const m = (a + b) / 2;
-		if (Math.sign(f(m)) === Math.sign(f(a))) a = m;
-		else b = m;
-	}
-	return (a + b) / 2;
-}
 
 // domain.md E14 [C]: steel flat bar 50 × 10 mm, 1 m long, bending about the thin axis
 const bar = { youngsModulus: 200e9, secondMoment: rectangleSecondMoment(0.05, 0.01), massPerLength: 7850 * 0.05 * 0.01, length: 1 };
