@@ -80,17 +80,18 @@ function base(now: number) {
 
 type BaseRow = Awaited<ReturnType<ReturnType<typeof base>['all']>>[number];
 
+const siteLookup = () => db.select({ id: sites.id, name: sites.name }).from(sites);
+const areaLookup = (ids: string[]) => db.select({ id: areas.id, name: areas.name }).from(areas).where(inArray(areas.id, ids));
+const speedLookup = (ids: string[]) => db.select({ id: assets.id, minRpm: assets.minRpm, maxRpm: assets.maxRpm, driveType: assets.driveType }).from(assets).where(inArray(assets.id, ids));
+
 /** Adds site and area names and the speed range to a page of rows (small lookups). */
 function complete(rows: BaseRow[]): BoardRow[] {
 	if (rows.length === 0) return [];
-	const siteNames = new Map(db.select({ id: sites.id, name: sites.name }).from(sites).all().map((r) => [r.id, r.name]));
+	const siteNames = new Map(siteLookup().all().map((r) => [r.id, r.name]));
 	const areaIds = [...new Set(rows.map((r) => r.areaId).filter((a): a is string => a !== null))];
-	const areaNames = new Map(areaIds.length ? db.select({ id: areas.id, name: areas.name }).from(areas).where(inArray(areas.id, areaIds)).all().map((r) => [r.id, r.name]) : []);
+	const areaNames = new Map(areaIds.length ? areaLookup(areaIds).all().map((r) => [r.id, r.name]) : []);
 	const speeds = new Map(
-		db
-			.select({ id: assets.id, minRpm: assets.minRpm, maxRpm: assets.maxRpm, driveType: assets.driveType })
-			.from(assets)
-			.where(inArray(assets.id, rows.map((r) => r.id)))
+		speedLookup(rows.map((r) => r.id))
 			.all()
 			.map((r) => [r.id, r])
 	);
@@ -132,6 +133,11 @@ export function filterOptions() {
 		sites: db.select({ id: sites.id, name: sites.name }).from(sites).orderBy(asc(sites.name)).all(),
 		areas: db.select({ id: areas.id, name: areas.name, siteId: areas.siteId }).from(areas).orderBy(asc(areas.name)).all()
 	};
+}
+
+/** The page-completion lookups for given row and area ids, for the benchmark's bare-SQL comparison. */
+export function completionSqlOf(rowIds: string[], areaIds: string[]) {
+	return [siteLookup().toSQL(), ...(areaIds.length ? [areaLookup(areaIds).toSQL()] : []), speedLookup(rowIds).toSQL()];
 }
 
 /** The two statements the board runs (rows, counts), for the benchmark's bare-SQL comparison. */

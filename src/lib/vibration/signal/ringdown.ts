@@ -330,7 +330,10 @@ export function analyzeRingdown(samples: ArrayLike<number>, sampleRateHz: number
 		const others = candidates.filter((q) => q !== p).map((q) => Math.abs(q.bin - p.bin) * df);
 		const nearest = others.length ? Math.min(...others) : Infinity;
 		const L = Math.min(Math.floor(n / 8), Math.max(8, Math.ceil((2 * fs) / Math.min(nearest, f))));
-		const { env, step } = demodulatedEnvelope(x, fs, f, L);
+		// the envelope is needed only until the mode has rung down: ten time constants by the
+		// half-power estimate (σ = π·(f₂ − f₁)), plus the filter's length at each end
+		const span = hpHz ? Math.min(n, Math.ceil((fs * 10) / (Math.PI * (hpHz[1] - hpHz[0]))) + 8 * L) : n;
+		const { env, step } = demodulatedEnvelope(span < n ? x.subarray(0, span) : x, fs, f, L);
 		const m = env.length;
 		// skip the filter's start-up and its end (2L samples each), then stop in the noise
 		const edge = Math.ceil((2 * L) / step);
