@@ -6,6 +6,8 @@ import { runMigrations } from '$lib/server/db/client';
 import { isEmpty, seed } from '$lib/server/db/seed';
 import { SESSION_COOKIE, validateSession } from '$lib/server/auth';
 import { decide, refusal } from '$lib/server/guard';
+import { startCatcher } from '$lib/server/mail';
+import { startReminderJob } from '$lib/server/mail/reminders';
 
 /** Runs before the server takes its first request: migrate, then seed an empty database. */
 export const init: ServerInit = async () => {
@@ -14,6 +16,8 @@ export const init: ServerInit = async () => {
 		const r = await seed(db);
 		console.log(`[detune] empty database: demo data added (${r.sites} sites, ${r.assets} assets, ${r.users} users)`);
 	}
+	await startCatcher();
+	if (setting('MAIL_JOBS') !== 'false') startReminderJob();
 };
 
 const session: Handle = async ({ event, resolve }) => {

@@ -28,6 +28,8 @@ export const ROUTE_ACCESS: Record<string, RouteEntry> = {
 	'/(app)/field': { access: FIELD },
 	'/(app)/board': { access: FLEET },
 	'/(app)/follow-ups': { access: ALL },
+	'/(app)/follow-ups/export.csv': { access: ALL },
+	'/(app)/admin/mailbox': { access: ADMIN },
 	// sample: the demo's KRW-RWP-101 (a Kettle River asset, so the demo technician may read it)
 	'/(app)/assets/[assetId=id]': { access: ALL, sample: '/assets/ee690482-2661-40f0-a1ba-59140aa07f60' },
 	'/(app)/admin/users': { access: ADMIN },
@@ -39,6 +41,8 @@ export const ROUTE_ACCESS: Record<string, RouteEntry> = {
 	'/api/sync/pull': { access: ALL },
 	'/api/checks/latest': { access: FLEET },
 	'/api/board': { access: FLEET },
+	'/api/reports/checks/[checkId=id]': { access: ALL, sample: '/api/reports/checks/00000000-0000-4000-a000-000000000000' },
+	'/api/reports/assets/[assetId=id]': { access: ALL, sample: '/api/reports/assets/ee690482-2661-40f0-a1ba-59140aa07f60' },
 	'/api/recordings': { access: FIELD, method: 'POST' },
 	'/api/recordings/[recordingId=id]': { access: ALL, sample: '/api/recordings/00000000-0000-4000-a000-000000000000' },
 	'/api/sync/push': { access: FIELD, method: 'POST' }
@@ -62,7 +66,7 @@ export interface NavItem {
 	href: string;
 	label: string;
 	routeId: string;
-	icon: 'field' | 'board' | 'follow-ups' | 'users' | 'rules' | 'import' | 'audit';
+	icon: 'field' | 'board' | 'follow-ups' | 'users' | 'rules' | 'import' | 'audit' | 'mail';
 }
 
 export const NAV: readonly NavItem[] = [
@@ -72,7 +76,8 @@ export const NAV: readonly NavItem[] = [
 	{ href: '/rule-sets', label: 'Rule sets', routeId: '/(app)/rule-sets', icon: 'rules' },
 	{ href: '/admin/users', label: 'Users', routeId: '/(app)/admin/users', icon: 'users' },
 	{ href: '/admin/import', label: 'Import', routeId: '/(app)/admin/import', icon: 'import' },
-	{ href: '/admin/audit', label: 'Audit', routeId: '/(app)/admin/audit', icon: 'audit' }
+	{ href: '/admin/audit', label: 'Audit', routeId: '/(app)/admin/audit', icon: 'audit' },
+	{ href: '/admin/mailbox', label: 'Mailbox', routeId: '/(app)/admin/mailbox', icon: 'mail' }
 ];
 
 /** The navigation a role may use, in the table's order. */

@@ -13,6 +13,7 @@ import { db } from '../db/index.ts';
 import { assets, checks, excitationSources, modes, recordings, ruleSets } from '../db/schema.ts';
 import { analysesDiffer, type StoredAnalysis } from '../recordings.ts';
 import { afterCheck } from '../db/status.ts';
+import { retestedBy } from '../db/follow-ups.ts';
 import { visibleSiteIds } from '../db/assets.ts';
 import { computeCheck, sameSummary } from '../../checks/compute.ts';
 import { checkPush, type ItemResult, type PushResponse } from '../../schemas/sync.ts';
@@ -103,6 +104,7 @@ function applyOne(tx: Tx, user: { id: string; name?: string }, scope: string[] |
 			.values({ id: crypto.randomUUID(), checkId: c.id, frequencyHz: m.frequencyHz, dampingRatio: m.dampingRatio, direction: m.direction, location: m.location, origin: m.origin, recordingId: m.recordingId ?? null })
 			.run();
 	});
+	if (s.verdict === 'clear') retestedBy(tx, asset.id, c.id, c.checkedAt, now);
 	afterCheck(tx, asset.id, { id: c.id, checkedAt: c.checkedAt, measuredRpm: c.measuredRpm, userName: user.name ?? null }, s, now);
 	for (const r of c.recordings ?? []) {
 		const row = tx.select().from(recordings).where(eq(recordings.id, r.id)).get()!;

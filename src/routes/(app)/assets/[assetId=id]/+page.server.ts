@@ -12,7 +12,7 @@ import { assetForm } from '$lib/schemas/asset';
 import { fieldErrors, formToObject } from '$lib/schemas/user';
 import { SOURCE_KINDS, type SourceKind } from '$lib/schemas/excitation';
 import { formFromParams, paramsFromForm } from '$lib/schemas/source-form';
-import { canEditAssets } from '$lib/roles';
+import { canEditAssets, canPlan } from '$lib/roles';
 
 const EDITORS = ['supervisor', 'admin'] as const;
 
@@ -45,6 +45,7 @@ export const load: PageServerLoad = (event) => {
 	return {
 		...sheet,
 		canEdit: canEditAssets(user.role),
+		canPlan: canPlan(user.role),
 		history,
 		current,
 		recordings: recordingQueries.forAsset(sheet.asset.id),

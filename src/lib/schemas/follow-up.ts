@@ -1,0 +1,38 @@
+/** Follow-up forms: created from a flagged check or an asset, then assigned, scheduled and closed. */
+import { z } from 'zod';
+
+export const FOLLOW_UP_STATUS_LIST = ['open', 'scheduled', 'done', 'retested'] as const;
+export const PRIORITY_LIST = ['low', 'normal', 'high', 'urgent'] as const;
+
+const day = z
+	.string()
+	.trim()
+	.regex(/^\d{4}-\d{2}-\d{2}$/, 'Due date: a date (YYYY-MM-DD).')
+	.refine((d) => !Number.isNaN(Date.parse(`${d}T00:00:00Z`)), 'Due date: a real calendar day.');
+
+export const followUpCreate = z
+	.object({
+		assetId: z.string().min(1, 'Choose the asset.').max(64),
+		checkId: z.preprocess((v) => (v === '' ? null : v), z.string().max(64).nullable()),
+		title: z.string().trim().min(3, 'Title: say what is to be done (at least 3 characters).').max(200, 'Title: at most 200 characters.'),
+		assigneeId: z.preprocess((v) => (v === '' ? null : v), z.string().max(64).nullable()),
+		dueDate: z.preprocess((v) => (v === '' ? null : v), day.nullable()),
+		priority: z.enum(PRIORITY_LIST, { error: `Priority: ${PRIORITY_LIST.join(', ')}.` }),
+		notes: z.string().max(4000, 'Notes: at most 4000 characters.').default('')
+	})
+	.strict();
+
+export const followUpUpdate = z
+	.object({
+		id: z.string().min(1).max(64),
+		assigneeId: z.preprocess((v) => (v === '' ? null : v), z.string().max(64).nullable()),
+		dueDate: z.preprocess((v) => (v === '' ? null : v), day.nullable()),
+		priority: z.enum(PRIORITY_LIST, { error: `Priority: ${PRIORITY_LIST.join(', ')}.` }),
+		notes: z.string().max(4000, 'Notes: at most 4000 characters.').default('')
+	})
+	.strict();
+
+export const followUpMove = z.object({ id: z.string().min(1).max(64), status: z.enum(['open', 'scheduled', 'done'], { error: 'Status: open, scheduled or done (retested comes from a clear check).' }) }).strict();
+
+export type FollowUpCreate = z.infer<typeof followUpCreate>;
+export type FollowUpUpdate = z.infer<typeof followUpUpdate>;

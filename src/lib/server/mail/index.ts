@@ -1,0 +1,124 @@
+/**
+ * E-mail through nodemailer over SMTP. Every message is recorded in the mail table first, under a
+ * de-duplication key, so a job that runs twice never sends the same mail twice. Without an
+ * SMTP_HOST (development, the demo, the tests) a local catcher (smtp-server) receives the mail and
+ * stores it in the same table, readable at Admin → Mailbox.
+ */
+import nodemailer, { type Transporter } from 'nodemailer';
+import { SMTPServer } from 'smtp-server';
+import { eq } from 'drizzle-orm';
+import { db } from '../db/index.ts';
+import { mail } from '../db/schema.ts';
+import { setting } from '../config.ts';
+
+export interface Outgoing {
+	kind: 'assignment' | 'due-soon' | 'overdue';
+	to: string;
+	subject: string;
+	text: string;
+	html: string;
+	/** never send two messages with the same key */
+	dedupeKey: string;
+}
+
+const localPort = () => Number(setting('SMTP_PORT') ?? 2525);
+const usesCatcher = () => !setting('SMTP_HOST') && setting('MAIL_CATCHER') !== 'false';
+
+let transporter: Transporter | null = null;
+function transport(): Transporter {
+	transporter ??= nodemailer.createTransport(
+		setting('SMTP_HOST')
+			? {
+					host: setting('SMTP_HOST'),
+					port: Number(setting('SMTP_PORT') ?? 587),
+					secure: setting('SMTP_SECURE') === 'true',
+					auth: setting('SMTP_USER') ? { user: setting('SMTP_USER') as string, pass: setting('SMTP_PASSWORD') ?? '' } : undefined
+				}
+			: { host: '127.0.0.1', port: localPort(), secure: false, ignoreTLS: true }
+	);
+	return transporter;
+}
+
+export const fromAddress = () => setting('MAIL_FROM') ?? 'Detune <detune@example.com>';
+
+/** Records, then sends. Returns 'duplicate' when the key was used before. */
+export async function send(m: Outgoing): Promise<'sent' | 'duplicate' | 'failed'> {
+	const id = crypto.randomUUID();
+	const inserted = db
+		.insert(mail)
+		.values({ id, dedupeKey: m.dedupeKey, kind: m.kind, toAddress: m.to, subject: m.subject, textBody: m.text, htmlBody: m.html, status: 'queued', createdAt: Date.now() })
+		.onConflictDoNothing()
+		.run();
+	if (inserted.changes === 0) return 'duplicate';
+	try {
+		await transport().sendMail({ from: fromAddress(), to: m.to, subject: m.subject, text: m.text, html: m.html, headers: { 'X-Detune-Kind': m.kind } });
+		db.update(mail).set({ status: 'sent' }).where(eq(mail.id, id)).run();
+		return 'sent';
+	} catch (e) {
+		db.update(mail).set({ status: 'failed', error: (e as Error).message }).where(eq(mail.id, id)).run();
+		console.error('[detune] mail failed:', (e as Error).message);
+		return 'failed';
+	}
+}
+
+/** Decodes quoted-printable text (RFC 2045 §6.7), as nodemailer writes non-ASCII bodies. */
+export function decodeQuotedPrintable(s: string): string {
+	const bytes: number[] = [];
+	const soft = s.replace(/=\r?\n/g, '');
+	for (let i = 0; i < soft.length; i++) {
+		if (soft[i] === '=' && /^[0-9A-F]{2}$/i.test(soft.slice(i + 1, i + 3))) {
+			bytes.push(parseInt(soft.slice(i + 1, i + 3), 16));
+			i += 2;
+		} else bytes.push(...new TextEncoder().encode(soft[i]));
+	}
+	return new TextDecoder().decode(new Uint8Array(bytes));
+}
+
+/** The subject and the text/plain part of a raw message (enough for the mailbox page). */
+export function readMessage(raw: string): { subject: string; text: string } {
+	const [head] = raw.split(/\r?\n\r?\n/, 1);
+	const subject = /^Subject: (.*(?:\r?\n[ \t].*)*)/im.exec(head)?.[1]?.replace(/\r?\n[ \t]/g, ' ') ?? '';
+	const parts = raw.split(/\r?\n--[^\r\n]+\r?\n/);
+	const plain = parts.find((p) => /^Content-Type: text\/plain/im.test(p)) ?? raw;
+	const [partHead, ...rest] = plain.split(/\r?\n\r?\n/);
+	let body = rest.join('\n\n').replace(/\r?\n--[^\r\n]+--\s*$/, '');
+	if (/Content-Transfer-Encoding: quoted-printable/i.test(partHead)) body = decodeQuotedPrintable(body);
+	return { subject: decodeWords(subject), text: body.trim() };
+}
+
+function decodeWords(s: string): string {
+	return s.replace(/=\?utf-8\?([QB])\?([^?]*)\?=/gi, (_m, enc: string, data: string) =>
+		enc.toUpperCase() === 'B' ? new TextDecoder().decode(Uint8Array.from(atob(data), (c) => c.charCodeAt(0))) : decodeQuotedPrintable(data.replace(/_/g, ' '))
+	);
+}
+
+let catcher: SMTPServer | null = null;
+
+/** Starts the local catcher when no SMTP relay is configured. */
+export function startCatcher(): Promise<void> {
+	if (!usesCatcher() || catcher) return Promise.resolve();
+	catcher = new SMTPServer({
+		authOptional: true,
+		disabledCommands: ['STARTTLS', 'AUTH'],
+		logger: false,
+		size: 5 * 1024 * 1024,
+		onData(stream, session, callback) {
+			const chunks: Buffer[] = [];
+			stream.on('data', (c: Buffer) => chunks.push(c));
+			stream.on('end', () => {
+				const raw = Buffer.concat(chunks).toString('utf8');
+				const { subject, text } = readMessage(raw);
+				const to = session.envelope.rcptTo.map((r) => r.address).join(', ');
+				db.insert(mail).values({ id: crypto.randomUUID(), kind: 'received', toAddress: to, subject, textBody: text, raw, status: 'received', createdAt: Date.now() }).run();
+				callback();
+			});
+		}
+	});
+	return new Promise((resolve) => {
+		catcher!.on('error', (e) => console.error('[detune] mail catcher:', e.message));
+		catcher!.listen(localPort(), '127.0.0.1', () => {
+			console.log(`[detune] local mail catcher on 127.0.0.1:${localPort()} (Admin → Mailbox)`);
+			resolve();
+		});
+	});
+}

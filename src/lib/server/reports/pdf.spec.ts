@@ -1,0 +1,55 @@
+import { beforeAll, describe, expect, it } from 'vitest';
+import { desc, eq } from 'drizzle-orm';
+// pdf-parse (registry, on Mozilla's pdf.js): an independent reader for what the report says
+import { PDFParse } from 'pdf-parse';
+import { freshDatabase } from '../test-db.ts';
+import { db } from '../db/index.ts';
+import { assets, checks } from '../db/schema.ts';
+import { assetReport, checkReport, CAUTIONS } from './pdf.ts';
+import { computeCheck } from '../../checks/compute.ts';
+import * as assetQueries from '../db/assets.ts';
+import * as checkQueries from '../db/checks.ts';
+
+beforeAll(async () => {
+	await freshDatabase({ demo: true });
+});
+
+const textOf = async (pdf: Buffer) => {
+	const parser = new PDFParse({ data: new Uint8Array(pdf) });
+	const r = await parser.getText();
+	await parser.destroy();
+	return r.text.replace(/\s+/g, ' ');
+};
+
+describe('PDF reports', () => {
+	it('a check report holds the asset tag, every margin, the verdict and the cautions', async () => {
+		const asset = db.select().from(assets).where(eq(assets.tag, 'KRW-RWP-103')).get()!;
+		const check = db.select().from(checks).where(eq(checks.assetId, asset.id)).orderBy(desc(checks.checkedAt)).limit(1).get()!;
+		const r = await checkReport(check.id);
+		expect(r!.pdf.subarray(0, 5).toString()).toBe('%PDF-');
+		const text = await textOf(r!.pdf);
+		expect(text).toContain('KRW-RWP-103');
+		const sheet = assetQueries.sheet(asset.id)!;
+		const c = computeCheck(
+			{ ...sheet.asset, sources: sheet.sources.map((s) => ({ id: s.id, kind: s.kind, label: s.label, params: s.params })) },
+			sheet.ruleSet ? { kind: sheet.ruleSet.kind, percent: sheet.ruleSet.percent, perKind: sheet.ruleSet.perKind ?? null } : null,
+			check.measuredRpm,
+			checkQueries.modesOf(check.id).map((m) => ({ frequencyHz: m.frequencyHz, dampingRatio: m.dampingRatio }))
+		);
+		expect(c.result.pairs.length).toBeGreaterThan(3);
+		for (const p of c.result.pairs) {
+			expect(text).toContain(`${p.marginOverRangePct.toFixed(1)} %`);
+			if (p.marginAtSpeedPct !== null) expect(text).toContain(`${p.marginAtSpeedPct.toFixed(1)} %`);
+		}
+		expect(text).toContain(c.result.verdict.toUpperCase());
+		for (const caution of CAUTIONS) expect(text).toContain(caution);
+	});
+
+	it('an asset report holds the history and the cautions', async () => {
+		const asset = db.select().from(assets).where(eq(assets.tag, 'LBM-IDF-110')).get()!;
+		const text = await textOf((await assetReport(asset.id))!.pdf);
+		expect(text).toContain('LBM-IDF-110');
+		expect(text).toContain('Check history');
+		for (const caution of CAUTIONS) expect(text).toContain(caution);
+	});
+});

@@ -1,0 +1,17 @@
+import { error } from '@sveltejs/kit';
+import type { RequestHandler } from './$types';
+import { requireUser } from '$lib/server/guard';
+import * as checkQueries from '$lib/server/db/checks';
+import * as assetQueries from '$lib/server/db/assets';
+import { checkReport } from '$lib/server/reports/pdf';
+
+export const GET: RequestHandler = async (event) => {
+	const user = requireUser(event);
+	const check = checkQueries.byId(event.params.checkId);
+	const asset = check ? assetQueries.byId(check.assetId) : undefined;
+	const scope = assetQueries.visibleSiteIds(user);
+	if (!check || !asset || (scope !== 'all' && !scope.includes(asset.siteId))) error(404, { message: 'No such check.', code: 'not-found' });
+	const r = await checkReport(check.id);
+	if (!r) error(404, { message: 'No such check.', code: 'not-found' });
+	return new Response(new Uint8Array(r.pdf), { headers: { 'content-type': 'application/pdf', 'content-disposition': `inline; filename="detune-${r.tag}-check.pdf"`, 'cache-control': 'private, no-store' } });
+};
