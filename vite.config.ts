@@ -58,7 +58,7 @@ export default defineConfig({
 		include: ['src/**/*.spec.ts', 'tests/unit/**/*.spec.ts'],
 		environment: 'node',
 		// each test file gets its own in-memory database through $lib/server/db
-		env: { DATABASE_URL: ':memory:', SEED_DEMO: 'false' },
+		env: { DATABASE_URL: ':memory:', SEED_DEMO: 'false', SMTP_PORT: '2727' },
 		expect: { requireAssertions: true },
 		coverage: {
 			provider: 'v8',

@@ -87,7 +87,8 @@ export function readMessage(raw: string): { subject: string; text: string } {
 }
 
 function decodeWords(s: string): string {
-	return s.replace(/=\?utf-8\?([QB])\?([^?]*)\?=/gi, (_m, enc: string, data: string) =>
+	// whitespace between two encoded words is folding, not text (RFC 2047 §6.2)
+	return s.replace(/\?=\s+=\?/g, '?==?').replace(/=\?utf-8\?([QB])\?([^?]*)\?=/gi, (_m, enc: string, data: string) =>
 		enc.toUpperCase() === 'B' ? new TextDecoder().decode(Uint8Array.from(atob(data), (c) => c.charCodeAt(0))) : decodeQuotedPrintable(data.replace(/_/g, ' '))
 	);
 }

@@ -1,0 +1,65 @@
+import { beforeAll, describe, expect, it } from 'vitest';
+import { eq } from 'drizzle-orm';
+import { freshDatabase } from '../test-db.ts';
+import { db } from './index.ts';
+import { assets, followUps, mail, users } from './schema.ts';
+import * as fu from './follow-ups.ts';
+import { push } from '../sync/push.ts';
+import { runReminders } from '../mail/reminders.ts';
+import { startCatcher } from '../mail/index.ts';
+
+let planner: string;
+let tech: { id: string; role: 'technician'; name: string };
+let assetId: string;
+
+beforeAll(async () => {
+	await freshDatabase({ demo: true });
+	await startCatcher();
+	planner = db.select().from(users).where(eq(users.email, 'planner@example.com')).get()!.id;
+	const t = db.select().from(users).where(eq(users.email, 'tech@example.com')).get()!;
+	tech = { id: t.id, role: 'technician', name: t.name };
+	assetId = db.select().from(assets).where(eq(assets.tag, 'KRW-RWP-101')).get()!.id;
+});
+
+const received = async (subject: RegExp, n: number) => {
+	for (let i = 0; i < 50; i++) {
+		const rows = db.select().from(mail).where(eq(mail.status, 'received')).all().filter((m) => subject.test(m.subject));
+		if (rows.length >= n) return rows;
+		await new Promise((r) => setTimeout(r, 50));
+	}
+	return db.select().from(mail).where(eq(mail.status, 'received')).all().filter((m) => subject.test(m.subject));
+};
+
+describe('follow-ups', () => {
+	it('suggests the engine’s remedy and closes on a newer clear check only', () => {
+		const id = fu.create({ assetId, checkId: null, title: 'Stiffen the motor stand', assigneeId: tech.id, dueDate: '2026-12-20', priority: 'high', notes: '' }, planner, Date.now() - 1000);
+		const row = fu.byId(id)!;
+		expect(row.status).toBe('scheduled');
+		expect(row.remedy).toMatchObject({ verdict: expect.any(String) });
+		const base = { assetId, checkedAt: Date.now(), measuredRpm: 1000, driveSetpointHz: null, notes: '', replacesCheckId: null, device: { verdict: 'clear', verdictAtSpeed: 'clear', worstMarginAtSpeedPct: null, worstMarginOverRangePct: null } };
+		// a conflict check leaves it open
+		push(tech, [{ ...base, id: crypto.randomUUID(), modes: [{ frequencyHz: 17.2, dampingRatio: null, direction: null, location: null, origin: 'typed' }] }]);
+		expect(fu.byId(id)!.status).toBe('scheduled');
+		// a clear one (the mode moved far above every excitation) retests it
+		const clear = crypto.randomUUID();
+		const r = push(tech, [{ ...base, id: clear, modes: [{ frequencyHz: 300, dampingRatio: null, direction: null, location: null, origin: 'typed' }] }]);
+		expect(r.response.results[0]).toMatchObject({ status: 'applied', verdict: 'clear' });
+		expect(fu.byId(id)!).toMatchObject({ status: 'retested', retestCheckId: clear });
+		expect(() => fu.move(id, 'open', planner)).toThrow(/closed by a clear retest/);
+	});
+
+	it('sends exactly one overdue mail however often the reminder job runs', async () => {
+		const id = fu.create({ assetId, checkId: null, title: 'Program the skip band', assigneeId: tech.id, dueDate: '2026-01-05', priority: 'normal', notes: '' }, planner);
+		const first = await runReminders();
+		await runReminders();
+		await runReminders();
+		expect(first.sent).toBeGreaterThanOrEqual(1);
+		const sent = db.select().from(mail).all().filter((m) => m.dedupeKey === `overdue:${id}:2026-01-05`);
+		expect(sent).toHaveLength(1);
+		const got = await received(/^Overdue: KRW-RWP-101 — Program the skip band$/, 1);
+		expect(got).toHaveLength(1);
+		expect(got[0].textBody).toContain('Due: 2026-01-05');
+		expect(got[0].toAddress).toBe('tech@example.com');
+		expect(db.select().from(followUps).where(eq(followUps.id, id)).get()!.status).toBe('scheduled');
+	});
+});

@@ -1,0 +1,89 @@
+import { expect, test } from '@playwright/test';
+import { ORIGIN, signIn, signInApi } from './helpers.ts';
+
+test('a planner turns a conflict check into a follow-up for a technician; the mail arrives; a clear retest closes it', async ({ page, browser }) => {
+	await signIn(page, 'planner');
+	// KRW-RWP-101's latest demo check is in conflict
+	const tech = await browser.newContext({ baseURL: ORIGIN });
+	await signInApi(tech.request, 'technician');
+	const pulled = await (await tech.request.get('/api/sync/pull?since=0')).json();
+	const asset = pulled.assets.find((a: { tag: string }) => a.tag === 'KRW-RWP-101');
+	await page.goto(`/assets/${asset.id}`);
+	await page.getByRole('link', { name: 'Create follow-up' }).first().click();
+	const form = page.getByTestId('new-follow-up');
+	await expect(form.getByTestId('suggested-remedy')).toBeVisible();
+	await form.getByLabel('What is to be done').fill('Add a stiffener to the motor stand and retest');
+	await form.getByLabel('Assign to').selectOption({ label: 'Tomas Ferreira (technician)' });
+	await form.getByLabel('Due date').fill('2027-01-15');
+	await form.getByRole('button', { name: 'Create follow-up' }).click();
+	await expect(form.getByText(/Follow-up created. The assignee has been e-mailed./)).toBeVisible();
+	const item = page.locator('[data-testid="follow-up"][data-tag="KRW-RWP-101"]').filter({ hasText: 'Add a stiffener' });
+	await expect(item.getByTestId('status')).toHaveText('scheduled');
+
+	// the admin's mailbox holds the assignment, with the asset and the due date
+	const admin = await browser.newContext();
+	const ap = await admin.newPage();
+	await signIn(ap, 'admin');
+	await ap.goto('/admin/mailbox');
+	const message = ap.getByTestId('message').filter({ hasText: 'Assigned: KRW-RWP-101 — Add a stiffener to the motor stand and retest' });
+	await expect(message).toContainText('to tech@example.com');
+	await expect(message).toContainText('Due: 2027-01-15');
+	await expect(message).toContainText('KRW-RWP-101');
+
+	// the technician's new check of that asset is clear (the stiffened stand moved the mode up)
+	const res = await tech.request.post('/api/sync/push', {
+		headers: { origin: ORIGIN },
+		data: {
+			clientId: 'retest',
+			items: [
+				{
+					id: crypto.randomUUID(),
+					assetId: asset.id,
+					checkedAt: Date.now(),
+					measuredRpm: 1000,
+					driveSetpointHz: null,
+					notes: 'Retest after the stiffener',
+					replacesCheckId: null,
+					modes: [{ frequencyHz: 300, dampingRatio: 0.02, direction: 'horizontal', location: 'Motor top', origin: 'typed' }],
+					device: { verdict: 'clear', verdictAtSpeed: 'clear', worstMarginAtSpeedPct: null, worstMarginOverRangePct: null }
+				}
+			]
+		}
+	});
+	expect((await res.json()).results[0]).toMatchObject({ status: 'applied', verdict: 'clear' });
+	await page.reload();
+	await expect(item.getByTestId('status')).toHaveText('retested');
+
+	// the check report opens in chromium as a PDF
+	const latest = await ap.request.get(`/api/reports/assets/${asset.id}`);
+	expect(latest.headers()['content-type']).toBe('application/pdf');
+	const pdfPage = await ap.context().newPage();
+	const nav = await pdfPage.goto(`/api/reports/assets/${asset.id}`);
+	expect(nav?.status()).toBe(200);
+	expect(nav?.headers()['content-type']).toBe('application/pdf');
+	await admin.close();
+	await tech.close();
+});
+
+test('an overdue follow-up produces exactly one overdue mail however often the job runs', async ({ page, browser }) => {
+	await signIn(page, 'planner');
+	const pulled = await (await page.request.get('/api/sync/pull?since=0')).json();
+	const asset = pulled.assets.find((a: { tag: string }) => a.tag === 'KRW-AB-401');
+	await page.goto(`/follow-ups?new=${asset.id}`);
+	const form = page.getByTestId('new-follow-up');
+	await form.getByLabel('What is to be done').fill('Program the drive skip band for the blower');
+	await form.getByLabel('Assign to').selectOption({ label: 'Tomas Ferreira (technician)' });
+	await form.getByLabel('Due date').fill('2026-02-01');
+	await form.getByRole('button', { name: 'Create follow-up' }).click();
+	await expect(page.locator('[data-testid="follow-up"]').filter({ hasText: 'Program the drive skip band for the blower' }).getByText('overdue')).toBeVisible();
+	for (let i = 0; i < 3; i++) {
+		await page.getByRole('button', { name: 'Send due reminders now' }).click();
+		await expect(page.getByTestId('remind-done')).toBeVisible();
+	}
+	const admin = await browser.newContext();
+	const ap = await admin.newPage();
+	await signIn(ap, 'admin');
+	await ap.goto('/admin/mailbox');
+	await expect(ap.getByTestId('message').filter({ hasText: 'Overdue: KRW-AB-401 — Program the drive skip band for the blower' })).toHaveCount(1);
+	await admin.close();
+});
