@@ -6,8 +6,8 @@ import { runMigrations } from '$lib/server/db/client';
 import { isEmpty, seed } from '$lib/server/db/seed';
 import { SESSION_COOKIE, validateSession } from '$lib/server/auth';
 import { decide, refusal } from '$lib/server/guard';
-import { startCatcher } from '$lib/server/mail';
-import { startReminderJob } from '$lib/server/mail/reminders';
+import { startCatcher, stopCatcher } from '$lib/server/mail';
+import { startReminderJob, stopReminderJob } from '$lib/server/mail/reminders';
 
 /** Runs before the server takes its first request: migrate, then seed an empty database. */
 export const init: ServerInit = async () => {
@@ -18,6 +18,11 @@ export const init: ServerInit = async () => {
 	}
 	await startCatcher();
 	if (setting('MAIL_JOBS') !== 'false') startReminderJob();
+	// adapter-node's graceful shutdown (SIGTERM/SIGINT): let the process end
+	process.once('sveltekit:shutdown', () => {
+		stopReminderJob();
+		void stopCatcher();
+	});
 };
 
 const session: Handle = async ({ event, resolve }) => {

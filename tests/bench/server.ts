@@ -16,7 +16,7 @@ export async function startServer(port: number, env: Record<string, string> = {}
 	const dir = mkdtempSync(join(tmpdir(), 'detune-bench-'));
 	const origin = `http://127.0.0.1:${port}`;
 	const child = spawn(process.execPath, ['build'], {
-		env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', ORIGIN: origin, DATABASE_URL: join(dir, 'bench.db'), DATA_DIR: join(dir, 'data'), ...env },
+		env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', ORIGIN: origin, DATABASE_URL: join(dir, 'bench.db'), DATA_DIR: join(dir, 'data'), MAIL_CATCHER: 'false', MAIL_JOBS: 'false', ...env },
 		stdio: ['ignore', 'ignore', 'inherit']
 	});
 	const deadline = Date.now() + 30_000;
@@ -35,8 +35,11 @@ export async function startServer(port: number, env: Record<string, string> = {}
 		dir,
 		process: child,
 		async stop() {
+			const exited = new Promise((r) => child.once('exit', r));
 			child.kill('SIGTERM');
-			await new Promise((r) => child.once('exit', r));
+			const timer = setTimeout(() => child.kill('SIGKILL'), 5000);
+			await exited;
+			clearTimeout(timer);
 			rmSync(dir, { recursive: true, force: true });
 		}
 	};

@@ -116,10 +116,22 @@ export function startCatcher(): Promise<void> {
 		}
 	});
 	return new Promise((resolve) => {
-		catcher!.on('error', (e) => console.error('[detune] mail catcher:', e.message));
+		// a port already taken must not stop the app from starting: mail then fails and says so
+		catcher!.on('error', (e) => {
+			console.error(`[detune] mail catcher on port ${localPort()}: ${e.message}`);
+			resolve();
+		});
 		catcher!.listen(localPort(), '127.0.0.1', () => {
 			console.log(`[detune] local mail catcher on 127.0.0.1:${localPort()} (Admin → Mailbox)`);
 			resolve();
 		});
 	});
+}
+
+export function stopCatcher(): Promise<void> {
+	const c = catcher;
+	catcher = null;
+	transporter?.close();
+	transporter = null;
+	return c ? new Promise((r) => c.close(() => r())) : Promise.resolve();
 }

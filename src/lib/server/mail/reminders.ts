@@ -36,3 +36,8 @@ export function startReminderJob(): void {
 	});
 	void runReminders().catch((e) => console.error('[detune] reminders:', e));
 }
+
+export function stopReminderJob(): void {
+	job?.stop();
+	job = null;
+}
