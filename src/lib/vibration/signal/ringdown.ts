@@ -292,8 +292,11 @@ export function analyzeRingdown(samples: ArrayLike<number>, sampleRateHz: number
 	const doubleHit = hasSecondHit(x, fs);
 	const recordFlags: ModeFlag[] = [...(clipped ? (['clipping'] as const) : []), ...(doubleHit ? (['double-hit'] as const) : [])];
 
-	const windowed = new Float64Array(n);
-	for (let i = 0; i < n; i++) windowed[i] = tauW === null ? x[i] : x[i] * Math.exp(-i / fs / tauW);
+	let windowed: Float64Array = x;
+	if (tauW !== null) {
+		windowed = new Float64Array(n);
+		for (let i = 0; i < n; i++) windowed[i] = x[i] * Math.exp(-i / fs / tauW);
+	}
 	const nfft =
 		opt.zeroPad !== undefined
 			? Math.min(nextPow2(n) * nextPow2(integerAtLeast('zeroPad', opt.zeroPad, 1)), 1 << 22)

@@ -13,6 +13,12 @@ export function nextPow2(n: number): number {
 	return p;
 }
 
+let buffers: { size: number; input: Float64Array; out: Float64Array } | null = null;
+function buffersFor(size: number) {
+	if (!buffers || buffers.size !== size) buffers = { size, input: new Float64Array(size), out: new Float64Array(2 * size) };
+	return buffers;
+}
+
 function fftOf(size: number): FFT {
 	let f = instances.get(size);
 	if (!f) {
@@ -39,9 +45,10 @@ export function realFft(x: ArrayLike<number>, nfft: number): OneSided {
 	if (nfft !== nextPow2(nfft)) throw new VibrationInputError('nfft', 'a power of two', nfft);
 	if (x.length > nfft) throw new VibrationInputError('nfft', `at least the signal length ${x.length}`, nfft);
 	const f = fftOf(nfft);
-	const input = new Float64Array(nfft);
+	// work buffers are kept per size: a batch of recordings would otherwise allocate megabytes each
+	const { input, out } = buffersFor(nfft);
 	for (let i = 0; i < x.length; i++) input[i] = x[i];
-	const out = new Float64Array(2 * nfft);
+	input.fill(0, x.length);
 	f.realTransform(out, input);
 	const half = nfft / 2;
 	const re = new Float64Array(half + 1);
