@@ -23,7 +23,7 @@ test.describe('security headers', () => {
 });
 
 test.describe('accessibility (axe-core)', () => {
-	const serious = (v: { impact?: string | null }[]) => v.filter((x) => x.impact === 'serious' || x.impact === 'critical');
+	const serious = <T extends { impact?: string | null }>(v: T[]) => v.filter((x) => x.impact === 'serious' || x.impact === 'critical');
 	const check = async (page: import('@playwright/test').Page, what: string) => {
 		const r = await new AxeBuilder({ page }).analyze();
 		expect(serious(r.violations).map((v) => `${what}: ${v.id} (${v.nodes.length}) ${v.help}`)).toEqual([]);

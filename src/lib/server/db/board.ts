@@ -3,29 +3,53 @@
  * SQL. Stale = the latest check is older than its site's recheck interval.
  */
 import { and, asc, desc, eq, inArray, or, sql, type AnyColumn, type SQL } from 'drizzle-orm';
+
 import { db } from './index.ts';
 import { areas, assetStatus, assets, sites } from './schema.ts';
 import type { BoardQuery, BoardResponse, BoardRow } from '../../schemas/board.ts';
 
-function staleExpr(now: number): SQL<number> {
-	return sql<number>`(${assetStatus.staleAfter} is not null and ${assetStatus.staleAfter} < ${now})`;
+/**
+ * Values go into the SQL either as themselves (the benchmark's bare statements) or as named
+ * placeholders of a prepared statement kept per query shape (the API: no query building per call).
+ */
+type Bind = (name: string, value: unknown) => unknown;
+const asValue: Bind = (_name, value) => value;
+const asPlaceholder: Bind = (name) => sql.placeholder(name);
+
+function staleExpr(bind: Bind, now: number): SQL<number> {
+	return sql<number>`(${assetStatus.staleAfter} is not null and ${assetStatus.staleAfter} < ${bind('now', now)})`;
 }
 
-function conditions(q: BoardQuery, now: number, scope: string[] | 'all', withVerdict: boolean): SQL | undefined {
+function conditions(q: BoardQuery, now: number, scope: string[] | 'all', withVerdict: boolean, bind: Bind = asValue): SQL | undefined {
 	const c: (SQL | undefined)[] = [];
-	if (scope !== 'all') c.push(scope.length ? sql`${assetStatus.siteId} in ${scope}` : sql`0`);
-	if (q.site) c.push(eq(assetStatus.siteId, q.site));
-	if (q.area) c.push(eq(assetStatus.areaId, q.area));
-	if (q.kind) c.push(eq(assetStatus.machineKind, q.kind));
-	if (withVerdict && q.verdict) c.push(eq(assetStatus.verdict, q.verdict));
-	if (q.stale === 'yes') c.push(sql`${assetStatus.staleAfter} < ${now}`);
-	if (q.stale === 'no') c.push(sql`(${assetStatus.staleAfter} is null or ${assetStatus.staleAfter} >= ${now})`);
+	if (scope !== 'all') c.push(scope.length ? sql`${assetStatus.siteId} in (${sql.join(scope.map((id, i) => sql`${bind(`scope${i}`, id)}`), sql`, `)})` : sql`0`);
+	if (q.site) c.push(sql`${assetStatus.siteId} = ${bind('site', q.site)}`);
+	if (q.area) c.push(sql`${assetStatus.areaId} = ${bind('area', q.area)}`);
+	if (q.kind) c.push(sql`${assetStatus.machineKind} = ${bind('kind', q.kind)}`);
+	if (withVerdict && q.verdict) c.push(sql`${assetStatus.verdict} = ${bind('verdict', q.verdict)}`);
+	if (q.stale === 'yes') c.push(sql`${assetStatus.staleAfter} < ${bind('now', now)}`);
+	if (q.stale === 'no') c.push(sql`(${assetStatus.staleAfter} is null or ${assetStatus.staleAfter} >= ${bind('now', now)})`);
 	if (q.q) {
 		const pattern = `%${q.q.replace(/[\\%_]/g, (m) => `\\${m}`)}%`;
-		c.push(or(sql`${assetStatus.tag} like ${pattern} escape '\\'`, sql`${assetStatus.name} like ${pattern} escape '\\'`));
+		c.push(or(sql`${assetStatus.tag} like ${bind('pattern', pattern)} escape '\\'`, sql`${assetStatus.name} like ${bind('pattern', pattern)} escape '\\'`));
 	}
 	return c.length ? and(...c) : undefined;
 }
+
+/** The named values of a query, for its prepared statement. */
+function values(q: BoardQuery, now: number, scope: string[] | 'all'): Record<string, unknown> {
+	const v: Record<string, unknown> = { now, limit: q.size, offset: (q.page - 1) * q.size };
+	if (scope !== 'all') scope.forEach((id, i) => (v[`scope${i}`] = id));
+	if (q.site) v.site = q.site;
+	if (q.area) v.area = q.area;
+	if (q.kind) v.kind = q.kind;
+	if (q.verdict) v.verdict = q.verdict;
+	if (q.q) v.pattern = `%${q.q.replace(/[\\%_]/g, (m) => `\\${m}`)}%`;
+	return v;
+}
+
+const shapeOf = (q: BoardQuery, scope: string[] | 'all') =>
+	[scope === 'all' ? 'all' : scope.length, !!q.site, !!q.area, !!q.kind, q.verdict ? 1 : 0, q.stale ?? '', !!q.q, q.sort, q.dir].join('|');
 
 function ordering(q: BoardQuery): SQL[] {
 	const d = q.dir === 'desc' ? desc : asc;
@@ -56,7 +80,7 @@ function ordering(q: BoardQuery): SQL[] {
 }
 
 /** The board columns from asset_status alone: one table, so its indexes serve filter and order. */
-function base(now: number) {
+function base(now: number, bind: Bind = asValue) {
 	return db
 		.select({
 			id: assetStatus.assetId,
@@ -72,7 +96,7 @@ function base(now: number) {
 			worstMarginOverRangePct: assetStatus.worstMarginOverRangePct,
 			worstPair: assetStatus.worstPair,
 			verdict: assetStatus.verdict,
-			stale: staleExpr(now),
+			stale: staleExpr(bind, now),
 			openFollowUps: assetStatus.openFollowUps
 		})
 		.from(assetStatus);
@@ -101,15 +125,41 @@ function complete(rows: BaseRow[]): BoardRow[] {
 	});
 }
 
-export function query(q: BoardQuery, scope: string[] | 'all', now = Date.now()): BoardResponse {
-	const where = conditions(q, now, scope, true);
-	const rows = complete(base(now).where(where).orderBy(...ordering(q)).limit(q.size).offset((q.page - 1) * q.size).all());
-	const grouped = db
-		.select({ verdict: assetStatus.verdict, n: sql<number>`count(*)`, stale: sql<number>`sum(${staleExpr(now)})` })
+function rowsStatement(q: BoardQuery, scope: string[] | 'all', bind: Bind, now: number) {
+	return base(now, bind)
+		.where(conditions(q, now, scope, true, bind))
+		.orderBy(...ordering(q))
+		.limit(bind('limit', q.size) as number)
+		.offset(bind('offset', (q.page - 1) * q.size) as number);
+}
+
+function countsStatement(q: BoardQuery, scope: string[] | 'all', bind: Bind, now: number) {
+	return db
+		.select({ verdict: assetStatus.verdict, n: sql<number>`count(*)`, stale: sql<number>`sum(${staleExpr(bind, now)})` })
 		.from(assetStatus)
-		.where(conditions(q, now, scope, false))
-		.groupBy(assetStatus.verdict)
-		.all();
+		.where(conditions(q, now, scope, false, bind))
+		.groupBy(assetStatus.verdict);
+}
+
+type Prepared = { rows: ReturnType<ReturnType<typeof rowsStatement>['prepare']>; counts: ReturnType<ReturnType<typeof countsStatement>['prepare']> };
+const prepared = new Map<string, Prepared>();
+
+function statementsFor(q: BoardQuery, scope: string[] | 'all'): Prepared {
+	const key = shapeOf(q, scope);
+	let p = prepared.get(key);
+	if (!p) {
+		p = { rows: rowsStatement(q, scope, asPlaceholder, 0).prepare(), counts: countsStatement(q, scope, asPlaceholder, 0).prepare() };
+		if (prepared.size > 500) prepared.clear();
+		prepared.set(key, p);
+	}
+	return p;
+}
+
+export function query(q: BoardQuery, scope: string[] | 'all', now = Date.now()): BoardResponse {
+	const st = statementsFor(q, scope);
+	const v = values(q, now, scope);
+	const rows = complete(st.rows.all(v));
+	const grouped = st.counts.all(v);
 	const counts = { clear: 0, tight: 0, conflict: 0, unchecked: 0 };
 	let staleCount = 0;
 	for (const g of grouped) {
@@ -142,14 +192,5 @@ export function completionSqlOf(rowIds: string[], areaIds: string[]) {
 
 /** The two statements the board runs (rows, counts), for the benchmark's bare-SQL comparison. */
 export function sqlOf(q: BoardQuery, scope: string[] | 'all', now = Date.now()) {
-	return [
-		base(now).where(conditions(q, now, scope, true)).orderBy(...ordering(q)).limit(q.size).offset((q.page - 1) * q.size).toSQL(),
-		db
-			.select({ verdict: assetStatus.verdict, n: sql<number>`count(*)`, stale: sql<number>`sum(${staleExpr(now)})` })
-			.from(assetStatus)
-			.where(conditions(q, now, scope, false))
-			.groupBy(assetStatus.verdict)
-			.toSQL()
-	];
+	return [rowsStatement(q, scope, asValue, now).toSQL(), countsStatement(q, scope, asValue, now).toSQL()];
 }
-
