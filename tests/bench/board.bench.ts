@@ -77,13 +77,14 @@ export async function boardBench(): Promise<Figure[]> {
 		const { sqlOf, completionSqlOf } = await import('../../src/lib/server/db/board.ts');
 		const bare: number[] = [];
 		// statements prepared once, as the API keeps its own prepared per query shape
-		const prepared = new Map<string, { rows: ReturnType<typeof sqlite.prepare>; counts: ReturnType<typeof sqlite.prepare>; rowsParams: unknown[]; countsParams: unknown[] }>();
+		type Statement = { all: (...params: unknown[]) => unknown[] };
+		const prepared = new Map<string, { rows: Statement; counts: Statement; rowsParams: unknown[]; countsParams: unknown[] }>();
 		for (let round = 0; round < 12; round++) {
 			for (const c of COMBOS) {
 				let p = prepared.get(c);
 				if (!p) {
 					const [rowsQ, countsQ] = sqlOf(boardQuery.parse(Object.fromEntries(new URLSearchParams(c))), 'all');
-					p = { rows: sqlite.prepare(rowsQ.sql), counts: sqlite.prepare(countsQ.sql), rowsParams: rowsQ.params as unknown[], countsParams: countsQ.params as unknown[] };
+					p = { rows: sqlite.prepare(rowsQ.sql) as unknown as Statement, counts: sqlite.prepare(countsQ.sql) as unknown as Statement, rowsParams: rowsQ.params as unknown[], countsParams: countsQ.params as unknown[] };
 					prepared.set(c, p);
 				}
 				const t = performance.now();
