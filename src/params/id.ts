@@ -1,4 +1,5 @@
 import type { ParamMatcher } from '@sveltejs/kit';
+import { isUuid } from '$lib/ids';
 
 /** Ids are UUID-shaped: anything else is a 404 before any code runs. */
-export const match: ParamMatcher = (param) => /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(param);
+export const match: ParamMatcher = (param) => isUuid(param);

@@ -6,6 +6,7 @@
 import { error, json, redirect, type RequestEvent } from '@sveltejs/kit';
 import { mayAccess, routeEntry } from '../access.ts';
 import type { Role } from '../roles.ts';
+import { escapeHtml } from './html.ts';
 
 export type Decision = { ok: true } | { ok: false; status: 401 | 403; reason: string };
 
@@ -30,7 +31,6 @@ export function refusal(event: RequestEvent, d: Extract<Decision, { ok: false }>
 	return new Response(forbiddenPage(d.reason), { status: 403, headers: { 'content-type': 'text/html; charset=utf-8' } });
 }
 
-const escapeHtml = (s: string) => s.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
 
 function forbiddenPage(reason: string): string {
 	return `<!doctype html><html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width, initial-scale=1"><title>Not allowed · Detune</title></head>

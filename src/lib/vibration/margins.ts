@@ -335,17 +335,34 @@ export function evaluateCheck(input: CheckInput, options: EvaluateOptions = {}):
 		for (let i = 0; i < n; i++) {
 			const fn = fns[i];
 			const af = afs[i];
-			if (detail) pairs.push(pairOf(line, band, fe, fn, af, i, required));
+			// the figures once per pair: from the pair itself when the table is kept, else inline
+			// (the fleet path builds no object per pair)
 			let sm = 0;
-			let position: Position | 'inside' = 'inside';
-			if (fn < lo) {
-				sm = ((lo - fn) / lo) * 100;
-				position = 'below';
-			} else if (fn > hi && hi > 0) {
-				sm = ((fn - hi) / hi) * 100;
-				position = 'above';
+			let r: number;
+			let smAt: number | null = null;
+			let rAt: number | null = null;
+			if (detail) {
+				const p = pairOf(line, band, fe, fn, af, i, required);
+				pairs.push(p);
+				sm = p.marginOverRangePct;
+				r = p.requiredOverRangePct;
+				smAt = p.marginAtSpeedPct;
+				rAt = p.requiredAtSpeedPct;
+			} else {
+				let position: Position | 'inside' = 'inside';
+				if (fn < lo) {
+					sm = ((lo - fn) / lo) * 100;
+					position = 'below';
+				} else if (fn > hi && hi > 0) {
+					sm = ((fn - hi) / hi) * 100;
+					position = 'above';
+				}
+				r = required(af, position, kind);
+				if (fe !== null && fe > 0) {
+					smAt = (Math.abs(fn - fe) / fe) * 100;
+					rAt = required(af, fn < fe ? 'below' : 'above', kind);
+				}
 			}
-			const r = required(af, position, kind);
 			const k = rankOf(sm, r);
 			if (k > rank) rank = k;
 			if (k > worstRank || (k === worstRank && sm - r < worstGap)) {
@@ -353,9 +370,7 @@ export function evaluateCheck(input: CheckInput, options: EvaluateOptions = {}):
 				worstGap = sm - r;
 				worstRangeAt = [l, i];
 			}
-			if (fe !== null && fe > 0) {
-				const smAt = (Math.abs(fn - fe) / fe) * 100;
-				const rAt = required(af, fn < fe ? 'below' : 'above', kind);
+			if (smAt !== null && rAt !== null) {
 				const kAt = rankOf(smAt, rAt);
 				if (kAt > rankAtSpeed) rankAtSpeed = kAt;
 				if (kAt > worstRankAt || (kAt === worstRankAt && smAt - rAt < worstGapAt)) {

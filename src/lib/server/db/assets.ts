@@ -10,6 +10,9 @@ export function visibleSiteIds(user: { id: string; role: Role }): string[] | 'al
 	return db.select({ siteId: userSites.siteId }).from(userSites).where(eq(userSites.userId, user.id)).all().map((r) => r.siteId);
 }
 
+/** Whether a site is inside a user's scope (from {@link visibleSiteIds}). */
+export const inScope = (scope: string[] | 'all', siteId: string): boolean => scope === 'all' || scope.includes(siteId);
+
 export function listVisible(user: { id: string; role: Role }) {
 	const scope = visibleSiteIds(user);
 	if (scope !== 'all' && scope.length === 0) return [];

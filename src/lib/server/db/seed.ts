@@ -160,7 +160,7 @@ function seedChecks(tx: Parameters<Parameters<Db['transaction']>[0]>[0], now: nu
 			const checkedAt = now - age * DAY - Math.floor(rnd() * 8 * 3_600_000);
 			const rpm = a.minRpm === a.maxRpm ? a.minRpm : Math.round(a.minRpm + (0.35 + 0.6 * rnd()) * (a.maxRpm - a.minRpm));
 			const drift = 1 + (ages.length - 1 - k) * 0.012 * (rnd() - 0.3);
-			const assetForCheck = { ...a, skipBands: 3, sources: sources.map((x) => ({ id: x.id, kind: x.kind, label: x.label, params: x.params })) };
+			const assetForCheck = { ...a, skipBands: 3, sources };
 			const rule = { kind: rs.kind, percent: rs.percent, perKind: rs.perKind };
 			const ms = demoModes(a, index, drift, (list) => computeCheck(assetForCheck, rule, rpm, list));
 			const c = computeCheck(assetForCheck, rule, rpm, ms);
@@ -187,9 +187,8 @@ function seedChecks(tx: Parameters<Parameters<Db['transaction']>[0]>[0], now: nu
 			ms.forEach((m, j) => tx.insert(modes).values({ id: demoId(`mode:${id}:${j}`), checkId: id, ...m, origin: m.dampingRatio ? 'recording' : 'typed' }).run());
 			added++;
 		});
-		refreshAsset(tx, assetId, now);
 	});
-	// assets with no check still get a board row
+	// one board row per asset, once its checks are in (assets never checked included)
 	for (const a of DEMO_ASSETS) refreshAsset(tx, demoId(`asset:${a.tag}`), now);
 	return added;
 }

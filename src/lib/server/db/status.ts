@@ -68,8 +68,8 @@ export function refreshAsset(tx: Tx, assetId: string, now = Date.now()): CheckSu
 	let summary: CheckSummary | null = null;
 	try {
 		summary = computeCheck(
-			{ ...asset, sources: sources.map((x) => ({ id: x.id, kind: x.kind, label: x.label, params: x.params })) },
-			rule ? { kind: rule.kind, percent: rule.percent, perKind: rule.perKind ?? null } : null,
+			{ ...asset, sources },
+			rule,
 			latest.measuredRpm,
 			m.map((x) => ({ frequencyHz: x.frequencyHz, dampingRatio: x.dampingRatio }))
 		).summary;

@@ -1,9 +1,10 @@
 /** The text of follow-up mail (plain text and HTML), with the cautions every report carries. */
 import type { FollowUpRow } from '../db/follow-ups.ts';
 import { setting } from '../config.ts';
+import { escapeHtml } from '../html.ts';
 
 const CAUTION = 'Work near machinery only under the plant’s lock-out/tag-out and site procedures. Detune’s figures support, but never replace, a qualified engineer’s judgement and local codes.';
-const esc = (s: string) => s.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
+const esc = escapeHtml;
 
 export function followUpMail(kind: 'assignment' | 'due-soon' | 'overdue', f: FollowUpRow) {
 	const origin = setting('ORIGIN') ?? 'http://localhost:3000';

@@ -31,8 +31,8 @@ describe('PDF reports', () => {
 		expect(text).toContain('KRW-RWP-103');
 		const sheet = assetQueries.sheet(asset.id)!;
 		const c = computeCheck(
-			{ ...sheet.asset, sources: sheet.sources.map((s) => ({ id: s.id, kind: s.kind, label: s.label, params: s.params })) },
-			sheet.ruleSet ? { kind: sheet.ruleSet.kind, percent: sheet.ruleSet.percent, perKind: sheet.ruleSet.perKind ?? null } : null,
+			{ ...sheet.asset, sources: sheet.sources },
+			sheet.ruleSet,
 			check.measuredRpm,
 			checkQueries.modesOf(check.id).map((m) => ({ frequencyHz: m.frequencyHz, dampingRatio: m.dampingRatio }))
 		);

@@ -120,8 +120,8 @@ function loadCheck(checkId: string) {
 	const by = db.select({ name: users.name }).from(users).where(eq(users.id, check.userId)).get()?.name ?? 'unknown';
 	const reviewer = check.reviewedBy ? (db.select({ name: users.name }).from(users).where(eq(users.id, check.reviewedBy)).get()?.name ?? null) : null;
 	const c = computeCheck(
-		{ ...sheet.asset, sources: sheet.sources.map((s) => ({ id: s.id, kind: s.kind, label: s.label, params: s.params })) },
-		sheet.ruleSet ? { kind: sheet.ruleSet.kind, percent: sheet.ruleSet.percent, perKind: sheet.ruleSet.perKind ?? null } : null,
+		{ ...sheet.asset, sources: sheet.sources },
+		sheet.ruleSet,
 		check.measuredRpm,
 		modes.map((m) => ({ frequencyHz: m.frequencyHz, dampingRatio: m.dampingRatio }))
 	);

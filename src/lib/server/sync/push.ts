@@ -14,7 +14,7 @@ import { assets, checks, excitationSources, modes, recordings, ruleSets } from '
 import { analysesDiffer, type StoredAnalysis } from '../recordings.ts';
 import { afterCheck } from '../db/status.ts';
 import { retestedBy } from '../db/follow-ups.ts';
-import { visibleSiteIds } from '../db/assets.ts';
+import { inScope, visibleSiteIds } from '../db/assets.ts';
 import { computeCheck, sameSummary } from '../../checks/compute.ts';
 import { checkPush, type ItemResult, type PushResponse } from '../../schemas/sync.ts';
 import type { Role } from '../../roles.ts';
@@ -57,7 +57,7 @@ function applyOne(tx: Tx, user: { id: string; name?: string }, scope: string[] |
 	const c = parsed.data;
 	if (tx.select({ id: checks.id }).from(checks).where(eq(checks.id, c.id)).get()) return { id: c.id, status: 'duplicate' };
 	const asset = tx.select().from(assets).where(eq(assets.id, c.assetId)).get();
-	if (!asset || (scope !== 'all' && !scope.includes(asset.siteId))) return { id: c.id, status: 'rejected', reason: 'The asset does not exist or is not on your sites.' };
+	if (!asset || !inScope(scope, asset.siteId)) return { id: c.id, status: 'rejected', reason: 'The asset does not exist or is not on your sites.' };
 	if (c.replacesCheckId && !tx.select({ id: checks.id }).from(checks).where(eq(checks.id, c.replacesCheckId)).get()) {
 		return { id: c.id, status: 'rejected', reason: 'The check it replaces is not on the server.' };
 	}
@@ -69,7 +69,7 @@ function applyOne(tx: Tx, user: { id: string; name?: string }, scope: string[] |
 	const rule = asset.ruleSetId ? (tx.select().from(ruleSets).where(eq(ruleSets.id, asset.ruleSetId)).get() ?? null) : null;
 	let computed;
 	try {
-		computed = computeCheck({ ...asset, sources: sources.map((x) => ({ id: x.id, kind: x.kind, label: x.label, params: x.params })) }, rule ? { kind: rule.kind, percent: rule.percent, perKind: rule.perKind ?? null } : null, c.measuredRpm, c.modes);
+		computed = computeCheck({ ...asset, sources }, rule, c.measuredRpm, c.modes);
 	} catch (e) {
 		return { id: c.id, status: 'rejected', reason: `The check cannot be computed: ${(e as Error).message}` };
 	}

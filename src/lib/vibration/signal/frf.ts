@@ -7,7 +7,7 @@
  * exponential window (its added damping is subtracted from the modes).
  */
 import { positive, VibrationInputError, integerAtLeast } from '../errors.ts';
-import { maxDecimate, nextPow2, realFft } from './spectrum.ts';
+import { bucketMax, nextPow2, realFft } from './spectrum.ts';
 import { findPeaks, halfPowerBins, interpolatePeak } from './peaks.ts';
 
 export interface Hit {
@@ -165,8 +165,7 @@ export function analyzeImpact(force: ArrayLike<number>, response: ArrayLike<numb
 		return { frequencyHz: f, dampingRatio: zeta && zeta > 0 ? zeta : null, qFactor: zeta && zeta > 0 ? 1 / (2 * zeta) : null, amplitude: ip.height, coherence: coh[p.bin], flags };
 	});
 	modes.sort((a, b) => b.amplitude - a.amplitude);
-	const freqs = Array.from({ length: kMax + 1 }, (_, k) => k * df);
-	const dec = maxDecimate(freqs, mag, 2048, 0, kMax + 1);
+	const dec = bucketMax(kMax + 1, 2048, (k) => mag[k], (k) => k * df);
 	const cohDec = dec.x.map((fx) => coh[Math.round(fx / df)]);
 	progress(1);
 	return { hits, averages, resolutionHz: resolution, modes, frf: { frequencyHz: dec.x, magnitude: dec.y, coherence: cohDec } };

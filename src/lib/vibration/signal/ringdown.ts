@@ -16,7 +16,7 @@
  *    machine nearby), reported apart, not as a mode.
  */
 import { finite, integerAtLeast, positive, VibrationInputError } from '../errors.ts';
-import { magnitude, nextPow2, realFft } from './spectrum.ts';
+import { bucketMax, magnitude, nextPow2, realFft } from './spectrum.ts';
 import { findPeaks, halfPowerBins, interpolatePeak } from './peaks.ts';
 
 export type ModeFlag = 'coarse-resolution' | 'short-record' | 'clipping' | 'double-hit' | 'damping-disagreement' | 'poor-envelope-fit';
@@ -406,26 +406,6 @@ export function analyzeRingdown(samples: ArrayLike<number>, sampleRateHz: number
 		spectrum: { frequencyHz: spectrum.x, magnitude: spectrum.y },
 		waveform: { timeS: wave.x, value: wave.y, envelope }
 	};
-}
-
-/** At most `points` (x, y) pairs, each the largest |y| of its bucket, so peaks survive on a chart. */
-function bucketMax(n: number, points: number, y: (i: number) => number, x: (i: number) => number): { x: number[]; y: number[] } {
-	const xs: number[] = [];
-	const ys: number[] = [];
-	const per = Math.max(1, n / points);
-	for (let b = 0; b * per < n; b++) {
-		const s = Math.floor(b * per);
-		const e = Math.min(n, Math.floor((b + 1) * per));
-		let best = s;
-		let bv = Math.abs(y(s));
-		for (let i = s + 1; i < e; i++) {
-			const v = Math.abs(y(i));
-			if (v > bv) [best, bv] = [i, v];
-		}
-		xs.push(x(best));
-		ys.push(y(best));
-	}
-	return { x: xs, y: ys };
 }
 
 /** A finite check of a sample rate given by a person (CSV without a time column, WAV header). */

@@ -68,22 +68,24 @@ export function magnitude(s: OneSided): Float64Array {
 }
 
 /**
- * Reduces a long series to at most `points` for a chart, keeping each bucket's largest value (so
- * peaks survive), with the x of that value.
+ * Reduces a long series to at most `points` (x, y) pairs for a chart, each the largest |y| of its
+ * bucket (so peaks survive). Values are read through functions, so no full-length array is built.
  */
-export function maxDecimate(x: ArrayLike<number>, y: ArrayLike<number>, points: number, from = 0, to = y.length): { x: number[]; y: number[] } {
-	const n = Math.max(0, to - from);
-	if (n <= points) return { x: Array.from({ length: n }, (_, i) => x[from + i]), y: Array.from({ length: n }, (_, i) => y[from + i]) };
-	const bucket = n / points;
+export function bucketMax(n: number, points: number, y: (i: number) => number, x: (i: number) => number): { x: number[]; y: number[] } {
 	const xs: number[] = [];
 	const ys: number[] = [];
-	for (let b = 0; b < points; b++) {
-		const s = from + Math.floor(b * bucket);
-		const e = Math.min(to, from + Math.floor((b + 1) * bucket));
+	const per = Math.max(1, n / points);
+	for (let b = 0; b * per < n; b++) {
+		const s = Math.floor(b * per);
+		const e = Math.min(n, Math.floor((b + 1) * per));
 		let best = s;
-		for (let i = s + 1; i < e; i++) if (Math.abs(y[i]) > Math.abs(y[best])) best = i;
-		xs.push(x[best]);
-		ys.push(y[best]);
+		let bv = Math.abs(y(s));
+		for (let i = s + 1; i < e; i++) {
+			const v = Math.abs(y(i));
+			if (v > bv) [best, bv] = [i, v];
+		}
+		xs.push(x(best));
+		ys.push(y(best));
 	}
 	return { x: xs, y: ys };
 }

@@ -4,6 +4,7 @@ import { requireUser } from '$lib/server/guard';
 import { visibleSiteIds } from '$lib/server/db/assets';
 import * as board from '$lib/server/db/board';
 import { boardQuery, type BoardRow } from '$lib/schemas/board';
+import { csvCell } from '$lib/server/csv';
 
 const CSV_COLUMNS: [string, (r: BoardRow) => unknown][] = [
 	['tag', (r) => r.tag],
@@ -25,12 +26,6 @@ const CSV_COLUMNS: [string, (r: BoardRow) => unknown][] = [
 	['open_follow_ups', (r) => r.openFollowUps]
 ];
 
-const cell = (v: unknown) => {
-	const s = String(v);
-	// quote when needed; a leading =, +, - or @ is neutralised so a spreadsheet never runs it
-	const safe = /^[=+\-@]/.test(s) && !/^-?\d/.test(s) ? `'${s}` : s;
-	return /[",\n]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
-};
 
 /** GET /api/board — the Margin board's rows (JSON), or the whole filtered list as CSV (?format=csv). */
 export const GET: RequestHandler = (event) => {
@@ -41,7 +36,7 @@ export const GET: RequestHandler = (event) => {
 	const scope = visibleSiteIds(user);
 	if (q.format === 'csv') {
 		const rows = board.all(q, scope);
-		const text = [CSV_COLUMNS.map((c) => c[0]).join(','), ...rows.map((r) => CSV_COLUMNS.map(([, f]) => cell(f(r))).join(','))].join('\r\n');
+		const text = [CSV_COLUMNS.map((c) => c[0]).join(','), ...rows.map((r) => CSV_COLUMNS.map(([, f]) => csvCell(f(r))).join(','))].join('\r\n');
 		return new Response(text + '\r\n', { headers: { 'content-type': 'text/csv; charset=utf-8', 'content-disposition': 'attachment; filename="detune-margin-board.csv"', 'cache-control': 'no-store' } });
 	}
 	return json(board.query(q, scope), { headers: { 'cache-control': 'no-store' } });

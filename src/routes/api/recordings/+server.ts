@@ -1,12 +1,12 @@
 import { error, json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
 import { requireUser } from '$lib/server/guard';
-import { visibleSiteIds } from '$lib/server/db/assets';
+import { inScope, visibleSiteIds } from '$lib/server/db/assets';
 import * as assetQueries from '$lib/server/db/assets';
 import { ingest } from '$lib/server/recordings';
 import { MAX_RECORDING_BYTES, RecordingError } from '$lib/recordings/types';
+import { isUuid } from '$lib/ids';
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 /**
  * POST /api/recordings?id=<uuid>&assetId=…&name=…[&sampleRateHz=…] with the file as the body.
@@ -18,7 +18,7 @@ export const POST: RequestHandler = async (event) => {
 	const id = q.get('id') ?? '';
 	const assetId = q.get('assetId') ?? '';
 	const name = (q.get('name') ?? '').replace(/[\\/\0]/g, '_').slice(0, 200);
-	if (!UUID.test(id)) error(400, { message: 'id must be a UUID made on the device.', code: 'bad-id' });
+	if (!isUuid(id)) error(400, { message: 'id must be a UUID made on the device.', code: 'bad-id' });
 	if (!name) error(400, { message: 'name (the file name) is missing.', code: 'bad-name' });
 	const declared = Number(event.request.headers.get('content-length') ?? 'NaN');
 	if (Number.isFinite(declared) && declared > MAX_RECORDING_BYTES) error(413, { message: `Recordings may be at most 50 MB; this one is ${(declared / 1048576).toFixed(1)} MB.`, code: 'too-large' });
@@ -26,7 +26,7 @@ export const POST: RequestHandler = async (event) => {
 	if (!/^(text\/csv|text\/plain|audio\/(x-)?wav|application\/octet-stream)/.test(type)) error(415, { message: 'Send a CSV (text/csv) or WAV (audio/wav) file.', code: 'bad-content-type' });
 	const asset = assetQueries.byId(assetId);
 	const scope = visibleSiteIds(user);
-	if (!asset || (scope !== 'all' && !scope.includes(asset.siteId))) error(404, { message: 'No such asset on your sites.', code: 'no-asset' });
+	if (!asset || !inScope(scope, asset.siteId)) error(404, { message: 'No such asset on your sites.', code: 'no-asset' });
 	const rateText = q.get('sampleRateHz');
 	const sampleRateHz = rateText === null || rateText === '' ? null : Number(rateText);
 	if (sampleRateHz !== null && !(sampleRateHz > 0 && Number.isFinite(sampleRateHz))) error(400, { message: 'sampleRateHz must be a number greater than zero.', code: 'bad-rate' });

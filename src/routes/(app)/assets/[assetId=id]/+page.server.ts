@@ -20,7 +20,7 @@ function loadSheet(event: RequestEvent) {
 	const user = requireUser(event);
 	const sheet = assetQueries.sheet(event.params.assetId);
 	const scope = assetQueries.visibleSiteIds(user);
-	if (!sheet || (scope !== 'all' && !scope.includes(sheet.asset.siteId))) error(404, { message: 'No such asset on your sites.', code: 'not-found' });
+	if (!sheet || !assetQueries.inScope(scope, sheet.asset.siteId)) error(404, { message: 'No such asset on your sites.', code: 'not-found' });
 	return { user, sheet };
 }
 
@@ -32,8 +32,8 @@ export const load: PageServerLoad = (event) => {
 	if (latest) {
 		try {
 			const c = computeCheck(
-				{ ...sheet.asset, sources: sheet.sources.map((s) => ({ id: s.id, kind: s.kind, label: s.label, params: s.params })) },
-				sheet.ruleSet ? { kind: sheet.ruleSet.kind, percent: sheet.ruleSet.percent, perKind: sheet.ruleSet.perKind ?? null } : null,
+				{ ...sheet.asset, sources: sheet.sources },
+				sheet.ruleSet,
 				latest.measuredRpm,
 				latest.modes.map((m) => ({ frequencyHz: m.frequencyHz, dampingRatio: m.dampingRatio }))
 			);
