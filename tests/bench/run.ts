@@ -11,21 +11,32 @@ import { recordingsBench } from './recordings.bench.ts';
 import { boardBench } from './board.bench.ts';
 import { printTable, type Figure } from './harness.ts';
 
+// `npm run bench -- board` runs only the named parts (sync, board, recordings, engine)
+const only = process.argv.slice(2);
+const wanted = (part: string) => only.length === 0 || only.includes(part);
 const figures: Figure[] = [];
 if (!existsSync('build/index.js')) {
 	console.log('[bench] building the app …');
 	const b = spawnSync('npx', ['vite', 'build', '--logLevel', 'warn'], { stdio: 'inherit' });
 	if (b.status !== 0) process.exit(1);
 }
-console.log('[bench] sync over loopback …');
-figures.push(...(await syncBench()));
-console.log('[bench] Margin board on 10,000 assets / 200,000 checks …');
-figures.push(...(await boardBench()));
-globalThis.gc?.();
-console.log('[bench] bump-test analysis and parsing …');
-figures.push(...recordingsBench());
-globalThis.gc?.();
-console.log('[bench] engine …');
-figures.push(...engineBench());
+if (wanted('sync')) {
+	console.log('[bench] sync over loopback …');
+	figures.push(...(await syncBench()));
+}
+if (wanted('board')) {
+	console.log('[bench] Margin board on 10,000 assets / 200,000 checks …');
+	figures.push(...(await boardBench()));
+	globalThis.gc?.();
+}
+if (wanted('recordings')) {
+	console.log('[bench] bump-test analysis and parsing …');
+	figures.push(...recordingsBench());
+	globalThis.gc?.();
+}
+if (wanted('engine')) {
+	console.log('[bench] engine …');
+	figures.push(...engineBench());
+}
 console.log('');
 printTable(figures);

@@ -2,7 +2,7 @@
  * The Margin board: one row per asset from asset_status, filtered, searched, sorted and paged in
  * SQL. Stale = the latest check is older than its site's recheck interval.
  */
-import { and, asc, desc, eq, inArray, or, sql, type AnyColumn, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, or, sql, type AnyColumn, type SQL } from 'drizzle-orm';
 
 import { db } from './index.ts';
 import { areas, assetStatus, assets, sites } from './schema.ts';
@@ -104,25 +104,36 @@ function base(now: number, bind: Bind = asValue) {
 
 type BaseRow = Awaited<ReturnType<ReturnType<typeof base>['all']>>[number];
 
-const siteLookup = () => db.select({ id: sites.id, name: sites.name }).from(sites);
-const areaLookup = (ids: string[]) => db.select({ id: areas.id, name: areas.name }).from(areas).where(inArray(areas.id, ids));
-const speedLookup = (ids: string[]) => db.select({ id: assets.id, minRpm: assets.minRpm, maxRpm: assets.maxRpm, driveType: assets.driveType }).from(assets).where(inArray(assets.id, ids));
+/** The page's ids as one JSON text, so that each lookup is one statement prepared once. */
+const idsIn = (col: AnyColumn) => sql`${col} in (select value from json_each(${sql.placeholder('ids')}))`;
+const siteLookup = () => db.select({ id: sites.id, name: sites.name }).from(sites).where(idsIn(sites.id));
+const areaLookup = () => db.select({ id: areas.id, name: areas.name }).from(areas).where(idsIn(areas.id));
+const speedLookup = () => db.select({ id: assets.id, minRpm: assets.minRpm, maxRpm: assets.maxRpm, driveType: assets.driveType }).from(assets).where(idsIn(assets.id));
+let lookups: { sites: ReturnType<ReturnType<typeof siteLookup>['prepare']>; areas: ReturnType<ReturnType<typeof areaLookup>['prepare']>; speeds: ReturnType<ReturnType<typeof speedLookup>['prepare']> } | null = null;
 
-/** Adds site and area names and the speed range to a page of rows (small lookups). */
+/** Adds site and area names and the speed range to a page of rows (three small lookups by key). */
 function complete(rows: BaseRow[]): BoardRow[] {
 	if (rows.length === 0) return [];
-	const siteNames = new Map(siteLookup().all().map((r) => [r.id, r.name]));
-	const areaIds = [...new Set(rows.map((r) => r.areaId).filter((a): a is string => a !== null))];
-	const areaNames = new Map(areaIds.length ? areaLookup(areaIds).all().map((r) => [r.id, r.name]) : []);
-	const speeds = new Map(
-		speedLookup(rows.map((r) => r.id))
-			.all()
-			.map((r) => [r.id, r])
-	);
+	lookups ??= { sites: siteLookup().prepare(), areas: areaLookup().prepare(), speeds: speedLookup().prepare() };
+	const { sites: siteIds, areas: areaIds, assets: assetIds } = completionIds(rows);
+	const siteNames = new Map(lookups.sites.all({ ids: siteIds }).map((r) => [r.id, r.name]));
+	const areaNames = new Map(lookups.areas.all({ ids: areaIds }).map((r) => [r.id, r.name]));
+	const speeds = new Map(lookups.speeds.all({ ids: assetIds }).map((r) => [r.id, r]));
 	return rows.map(({ siteId, areaId, ...r }) => {
 		const sp = speeds.get(r.id);
 		return { ...r, site: siteNames.get(siteId) ?? '', area: areaId ? (areaNames.get(areaId) ?? null) : null, minRpm: sp?.minRpm ?? 0, maxRpm: sp?.maxRpm ?? 0, driveType: sp?.driveType ?? 'fixed', stale: r.stale === 1 } as BoardRow;
 	});
+}
+
+/** The distinct site, area and asset ids of a page, each as a JSON array. */
+function completionIds(rows: { id: string; siteId: string; areaId: string | null }[]) {
+	const areaIds = new Set<string>();
+	const siteIds = new Set<string>();
+	for (const r of rows) {
+		siteIds.add(r.siteId);
+		if (r.areaId !== null) areaIds.add(r.areaId);
+	}
+	return { sites: JSON.stringify([...siteIds]), areas: JSON.stringify([...areaIds]), assets: JSON.stringify(rows.map((r) => r.id)) };
 }
 
 function rowsStatement(q: BoardQuery, scope: string[] | 'all', bind: Bind, now: number) {
@@ -185,10 +196,9 @@ export function filterOptions() {
 	};
 }
 
-/** The page-completion lookups for given row and area ids, for the benchmark's bare-SQL comparison. */
-export function completionSqlOf(rowIds: string[], areaIds: string[]) {
-	return [siteLookup().toSQL(), ...(areaIds.length ? [areaLookup(areaIds).toSQL()] : []), speedLookup(rowIds).toSQL()];
-}
+/** The page-completion lookups (sites, areas, speeds) and their ids, for the benchmark's bare-SQL comparison. */
+export const completionSql = () => [siteLookup(), areaLookup(), speedLookup()].map((q) => q.toSQL().sql);
+export { completionIds };
 
 /** The two statements the board runs (rows, counts), for the benchmark's bare-SQL comparison. */
 export function sqlOf(q: BoardQuery, scope: string[] | 'all', now = Date.now()) {
