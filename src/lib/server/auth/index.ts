@@ -105,13 +105,15 @@ export async function signIn(email: string, password: string, clientAddress: str
 		const minutes = Math.ceil(wait / 60_000);
 		return { ok: false, message: `Too many sign-in attempts. Wait ${minutes} minute${minutes === 1 ? '' : 's'} and try again.`, retryAfterS: Math.ceil(wait / 1000) };
 	}
+	// Each attempt counts as a failure before the (slow, asynchronous) password check, so that
+	// attempts arriving together cannot all pass the budget check above; a success takes it back.
+	const at = Date.now();
+	accountThrottle.fail(accountKey, at);
+	addressThrottle.fail(clientAddress, at);
 	const user = userQueries.byEmail(accountKey);
 	const valid = user ? await verifyPassword(user.passwordHash, password) : (await burnVerification(password), false);
-	if (!user || !valid || user.disabled) {
-		accountThrottle.fail(accountKey);
-		addressThrottle.fail(clientAddress);
-		return { ok: false, message: SIGN_IN_FAILED };
-	}
+	if (!user || !valid || user.disabled) return { ok: false, message: SIGN_IN_FAILED };
 	accountThrottle.reset(accountKey);
+	addressThrottle.release(clientAddress, at);
 	return { ok: true, userId: user.id, role: user.role };
 }

@@ -10,6 +10,7 @@ let userId: string;
 beforeAll(async () => {
 	await freshDatabase();
 	userId = users.create({ email: 'shift@example.com', name: 'Shift Worker', role: 'technician', passwordHash: await hashPassword('night-shift-pass'), siteIds: [] }, null);
+	users.create({ email: 'tablet@example.com', name: 'Shared Tablet', role: 'technician', passwordHash: await hashPassword('tablet-pass-2026'), siteIds: [] }, null);
 });
 
 afterEach(() => {
@@ -74,5 +75,22 @@ describe('signing in', () => {
 		const r = await signIn('locked@example.com', 'bad', '10.1.0.99');
 		expect(r.ok).toBe(false);
 		expect(r.ok === false && r.message).toMatch(/Too many sign-in attempts. Wait 15 minutes/);
+	});
+
+	it('holds its budget when many attempts arrive at once (none slips through while a password is being checked)', async () => {
+		const results = await Promise.all(Array.from({ length: 40 }, (_, i) => signIn('shift@example.com', `guess-${i}`, `10.2.0.${i}`)));
+		const judged = results.filter((r) => r.ok === false && r.message === SIGN_IN_FAILED);
+		expect(judged).toHaveLength(5);
+		expect(results.filter((r) => r.ok === false && r.retryAfterS !== undefined)).toHaveLength(35);
+		// the right password is refused too until the window has passed
+		expect((await signIn('shift@example.com', 'night-shift-pass', '10.2.1.1')).ok).toBe(false);
+	});
+
+	it('gives back the slot a successful sign-in reserved: a shared tablet signs in all shift long', async () => {
+		// 40 sign-ins, up to 5 at once, from one address whose budget is 30
+		for (let round = 0; round < 8; round++) {
+			const ok = await Promise.all(Array.from({ length: 5 }, () => signIn('tablet@example.com', 'tablet-pass-2026', '10.3.0.1')));
+			expect(ok.every((r) => r.ok)).toBe(true);
+		}
 	});
 });

@@ -38,6 +38,15 @@ export class FailureThrottle {
 		if (this.#failures.size > 50_000) this.#sweep(now);
 	}
 
+	/** Takes back one failure recorded at `at` (a slot reserved for an attempt that succeeded). */
+	release(key: string, at: number): void {
+		const list = this.#failures.get(key);
+		const i = list?.indexOf(at) ?? -1;
+		if (!list || i < 0) return;
+		list.splice(i, 1);
+		if (list.length === 0) this.#failures.delete(key);
+	}
+
 	reset(key: string): void {
 		this.#failures.delete(key);
 	}
