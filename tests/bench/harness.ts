@@ -38,7 +38,7 @@ export function time(fn: () => unknown, runs = 7, warmup = 2): number[] {
 export function printTable(figures: Figure[]): void {
 	const rows = figures.map((f) => {
 		const ok = f.goal === undefined ? '' : (f.goalKind ?? 'max') === 'max' ? f.value <= f.goal : f.value >= f.goal;
-		const ratio = f.goal === undefined ? '' : (f.value / f.goal).toFixed(2);
+		const ratio = f.goal === undefined || f.goal === 0 ? '' : (f.value / f.goal).toFixed(2);
 		return [f.name, fmt(f.value), f.unit, f.goal === undefined ? '' : `${(f.goalKind ?? 'max') === 'max' ? '≤' : '≥'} ${fmt(f.goal)}`, ratio, ok === '' ? '' : ok ? 'met' : 'MISSED', f.note ?? ''];
 	});
 	const head = ['figure', 'value', 'unit', 'goal', 'value/goal', 'status', 'note'];
@@ -50,6 +50,7 @@ export function printTable(figures: Figure[]): void {
 }
 
 function fmt(v: number): string {
+	if (Number.isInteger(v)) return String(v);
 	if (Math.abs(v) >= 100) return v.toFixed(0);
 	if (Math.abs(v) >= 1) return v.toFixed(2);
 	return v.toPrecision(3);

@@ -9,9 +9,10 @@ import { engineBench } from './engine.bench.ts';
 import { syncBench } from './sync.bench.ts';
 import { recordingsBench } from './recordings.bench.ts';
 import { boardBench } from './board.bench.ts';
+import { loadBench } from './load.bench.ts';
 import { printTable, type Figure } from './harness.ts';
 
-// `npm run bench -- board` runs only the named parts (sync, board, recordings, engine)
+// `npm run bench -- board` runs only the named parts (sync, board, load, recordings, engine)
 const only = process.argv.slice(2);
 const wanted = (part: string) => only.length === 0 || only.includes(part);
 const figures: Figure[] = [];
@@ -27,6 +28,11 @@ if (wanted('sync')) {
 if (wanted('board')) {
 	console.log('[bench] Margin board on 10,000 assets / 200,000 checks …');
 	figures.push(...(await boardBench()));
+	globalThis.gc?.();
+}
+if (wanted('load')) {
+	console.log('[bench] load: 50 connections pushing for 20 s, the board meanwhile, a sign-in burst …');
+	figures.push(...(await loadBench()));
 	globalThis.gc?.();
 }
 if (wanted('recordings')) {

@@ -3,6 +3,7 @@ import type { RequestHandler } from './$types';
 import { requireUser } from '$lib/server/guard';
 import { setting } from '$lib/server/config';
 import { push } from '$lib/server/sync/push';
+import { inTurn } from '$lib/server/turns';
 import { MAX_PUSH_BYTES, pushBatch } from '$lib/schemas/sync';
 
 /** POST /api/sync/push — see DEVELOPERS.md, "Sync API". */
@@ -23,6 +24,6 @@ export const POST: RequestHandler = async (event) => {
 	if (!batch.success) error(400, { message: `Bad batch: ${batch.error.issues[0].path.join('.') || 'body'}: ${batch.error.issues[0].message}`, code: 'bad-batch' });
 	const faultHeader = setting('DETUNE_TEST_FAULTS') === '1' ? event.request.headers.get('x-detune-fault') : null;
 	const failAtItem = faultHeader?.startsWith('item=') ? Number(faultHeader.slice(5)) : null;
-	const { response, failed } = push(user, batch.data.items, { failAtItem });
+	const { response, failed } = await inTurn(() => push(user, batch.data.items, { failAtItem }));
 	return json(response, { status: failed ? 500 : 200, headers: { 'cache-control': 'no-store' } });
 };
