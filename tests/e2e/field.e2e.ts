@@ -1,42 +1,6 @@
-import { chromium, expect, test, type Page } from '@playwright/test';
+import { chromium, expect, test } from '@playwright/test';
 import { signIn, signInApi, ORIGIN } from './helpers.ts';
-
-/** Waits until the service worker controls the page (domain of ../shared/toolchain.md, pitfall 4). */
-async function swReady(page: Page) {
-	await page.evaluate(async () => {
-		await navigator.serviceWorker.ready;
-		if (!navigator.serviceWorker.controller) await new Promise((r) => navigator.serviceWorker.addEventListener('controllerchange', r, { once: true }));
-	});
-	await expect.poll(() => page.evaluate(async () => `${(await navigator.serviceWorker.getRegistration())?.active?.state} ${!!navigator.serviceWorker.controller}`)).toBe('activated true');
-}
-
-async function openFieldOnline(page: Page) {
-	await signIn(page, 'technician');
-	await page.goto('/field');
-	await swReady(page);
-	// the first pull fills the tablet's asset list
-	await expect(page.getByTestId('asset-list').getByRole('button').first()).toBeVisible();
-	await expect(page.getByTestId('last-pull')).not.toHaveText('never');
-	// load the page once more under the service worker so its cache holds Floor check
-	await page.reload();
-	await expect(page.getByTestId('asset-list').getByRole('button').first()).toBeVisible();
-}
-
-async function pickAsset(page: Page, tag: string) {
-	await page.getByLabel('Search by tag or name').fill(tag);
-	await page.getByTestId('asset-list').getByRole('button', { name: new RegExp(tag) }).click();
-	await expect(page.getByTestId('asset-heading')).toContainText(tag);
-}
-
-async function typeMode(page: Page, hz: string, zeta = '') {
-	await page.getByLabel(/^Natural frequency/).fill(hz);
-	await page.getByLabel(/^Damping ratio/).fill(zeta);
-	await page.getByRole('button', { name: 'Add natural frequency' }).click();
-}
-
-async function outboxCount(page: Page) {
-	return Number(await page.getByTestId('outbox-count').innerText());
-}
+import { openFieldOnline, outboxCount, pickAsset, saveChecks, typeMode } from './floor.ts';
 
 test.describe('Floor check offline', () => {
 	test('three checks saved offline survive a reload and a closed tab, then sync once with the server’s verdicts', async ({ page, context, browser }) => {
@@ -154,17 +118,6 @@ test.describe('Floor check offline', () => {
 		await expect.poll(() => outboxCount(p2), { timeout: 20_000 }).toBe(0);
 		await second.close();
 	});
-
-	/** Saves `n` typed checks on the open Floor check page. */
-	async function saveChecks(page: Page, tags: string[]) {
-		for (const tag of tags) {
-			await pickAsset(page, tag);
-			await page.getByLabel(/^Measured running speed/).fill('1185');
-			await typeMode(page, '33.3', '0.02');
-			await page.getByRole('button', { name: 'Save check' }).click();
-			await expect(page.getByTestId('saved-message')).toContainText(tag);
-		}
-	}
 
 	test('a server fault on the second item: the first is acknowledged and gone, the others stay and go through on retry', async ({ page, context }) => {
 		await openFieldOnline(page);

@@ -22,6 +22,12 @@ import type { Role } from '../../roles.ts';
 export interface PushOptions {
 	/** test hook (only with DETUNE_TEST_FAULTS=1): throw at this 1-based item */
 	failAtItem?: number | null;
+	/**
+	 * test hook (only with DETUNE_TEST_FAULTS=1): at this 1-based item, with the items before it
+	 * written but not committed, say so on stdout and block, so that a test can kill the server
+	 * mid-batch
+	 */
+	holdAtItem?: number | null;
 	now?: number;
 }
 
@@ -34,6 +40,7 @@ export function push(user: { id: string; role: Role; name?: string }, items: unk
 		for (let index = 0; index < items.length; index++) {
 			try {
 				if (options.failAtItem === index + 1) throw new Error(`fault injected at item ${index + 1}`);
+				if (options.holdAtItem === index + 1) holdForKill(index + 1);
 				results.push(applyOne(tx, user, scope, items[index], now));
 			} catch (e) {
 				error = `The server failed on item ${index + 1}; it and the items after it were not stored. Retry later.`;
@@ -43,6 +50,11 @@ export function push(user: { id: string; role: Role; name?: string }, items: unk
 		}
 	});
 	return { response: error ? { results, error } : { results }, failed: error !== undefined };
+}
+
+function holdForKill(item: number): void {
+	console.log(`[detune] test fault: batch held open at item ${item}`);
+	Atomics.wait(new Int32Array(new SharedArrayBuffer(4)), 0, 0, 60_000);
 }
 
 type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];

@@ -24,6 +24,7 @@ export const POST: RequestHandler = async (event) => {
 	if (!batch.success) error(400, { message: `Bad batch: ${batch.error.issues[0].path.join('.') || 'body'}: ${batch.error.issues[0].message}`, code: 'bad-batch' });
 	const faultHeader = setting('DETUNE_TEST_FAULTS') === '1' ? event.request.headers.get('x-detune-fault') : null;
 	const failAtItem = faultHeader?.startsWith('item=') ? Number(faultHeader.slice(5)) : null;
-	const { response, failed } = await inTurn(() => push(user, batch.data.items, { failAtItem }));
+	const holdAtItem = faultHeader?.startsWith('hold=') ? Number(faultHeader.slice(5)) : null;
+	const { response, failed } = await inTurn(() => push(user, batch.data.items, { failAtItem, holdAtItem }));
 	return json(response, { status: failed ? 500 : 200, headers: { 'cache-control': 'no-store' } });
 };

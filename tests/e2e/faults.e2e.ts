@@ -1,0 +1,77 @@
+/**
+ * The server dies mid-batch (SIGKILL while a push transaction is open) and is started again on the
+ * same database: the file is intact, no part of the batch is stored, and the tablet's outbox sends
+ * it again — every check arrives exactly once.
+ */
+import { expect, test } from '@playwright/test';
+import Database from 'better-sqlite3';
+import { cleanDir, startOwnServer } from './own-server.ts';
+import { openFieldOnline, outboxCount, saveChecks } from './floor.ts';
+
+const PORT = 4181;
+const DIR = '.e2e/killed';
+
+test.afterAll(() => cleanDir(DIR));
+
+function inspect(file: string, ids: string[]) {
+	const db = new Database(file);
+	try {
+		const integrity = db.pragma('integrity_check', { simple: true });
+		const stored = (db.prepare('select count(*) as n from checks where id in (select value from json_each(?))').get(JSON.stringify(ids)) as { n: number }).n;
+		const modes = (db.prepare('select count(*) as n from modes where check_id in (select value from json_each(?))').get(JSON.stringify(ids)) as { n: number }).n;
+		const total = (db.prepare('select count(*) as n from checks').get() as { n: number }).n;
+		return { integrity, stored, modes, total };
+	} finally {
+		db.close();
+	}
+}
+
+test('SIGKILL mid-batch: the database is intact, no half batch is stored, the tablet retries and nothing is lost or doubled', async ({ browser }) => {
+	test.setTimeout(150_000);
+	cleanDir(DIR);
+	let server = await startOwnServer(PORT, DIR);
+	const context = await browser.newContext({ baseURL: server.origin });
+	const page = await context.newPage();
+	try {
+		await openFieldOnline(page);
+		await context.setOffline(true);
+		await saveChecks(page, ['KRW-HLP-202', 'KRW-HLP-203', 'KRW-BWP-301']);
+		await expect.poll(() => outboxCount(page)).toBe(3);
+		const before = inspect(server.dbFile, []);
+
+		const ids: string[] = [];
+		let held = false;
+		await page.route('**/api/sync/push', async (route) => {
+			ids.push(...(route.request().postDataJSON() as { items: { id: string }[] }).items.map((i) => i.id));
+			if (held) return route.continue();
+			held = true;
+			// the server's test hook writes item 1, then stops inside the open transaction at item 2
+			await route.continue({ headers: { ...route.request().headers(), 'x-detune-fault': 'hold=2' } });
+		});
+		await context.setOffline(false);
+		await server.waitForLine(/batch held open at item 2/);
+		await server.kill('SIGKILL');
+
+		const afterKill = inspect(server.dbFile, ids);
+		expect(afterKill.integrity).toBe('ok');
+		expect(afterKill.stored, 'no item of the killed batch is stored').toBe(0);
+		expect(afterKill.modes).toBe(0);
+		expect(afterKill.total).toBe(before.total);
+		await expect(page.getByTestId('sync-state')).toHaveText('Sync failed');
+		expect(await outboxCount(page)).toBe(3);
+
+		server = await startOwnServer(PORT, DIR);
+		await page.getByRole('button', { name: 'Sync now' }).click();
+		await expect.poll(() => outboxCount(page), { timeout: 20_000 }).toBe(0);
+		const unique = [...new Set(ids)];
+		expect(unique).toHaveLength(3);
+		const afterRetry = inspect(server.dbFile, unique);
+		expect(afterRetry.integrity).toBe('ok');
+		expect(afterRetry.stored).toBe(3);
+		expect(afterRetry.modes).toBe(3);
+		expect(afterRetry.total).toBe(before.total + 3);
+	} finally {
+		await context.close();
+		await server.kill('SIGTERM');
+	}
+});
