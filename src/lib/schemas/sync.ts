@@ -24,18 +24,26 @@ export const modeInput = z
 
 export type ModeInput = z.infer<typeof modeInput>;
 
+/** 2000-01-01: no check is older; a tablet whose clock is off by more than a day is refused */
+const EARLIEST_CHECK = Date.UTC(2000, 0, 1);
+const CLOCK_SKEW_MS = 86_400_000;
+
 export const VERDICT_LIST = ['clear', 'tight', 'conflict', 'unchecked'] as const;
 
 export const checkPush = z
 	.object({
 		id: uuid,
 		assetId: z.string().min(1).max(64),
-		checkedAt: z.number().int().positive(),
-		measuredRpm: finiteNumber('measured speed').positive('measured speed must be greater than zero').max(100_000).nullable(),
+		checkedAt: z
+			.number({ error: 'checkedAt must be a time in milliseconds' })
+			.int('checkedAt must be whole milliseconds')
+			.min(EARLIEST_CHECK, 'checkedAt is before the year 2000')
+			.refine((t) => t <= Date.now() + CLOCK_SKEW_MS, 'checkedAt is more than a day in the future: check the tablet’s clock'),
+		measuredRpm: finiteNumber('measured speed').positive('measured speed must be greater than zero').max(100_000),
 		driveSetpointHz: finiteNumber('drive setpoint').positive().max(1000).nullable(),
 		notes: z.string().max(4000, 'notes are at most 4000 characters'),
 		replacesCheckId: uuid.nullable(),
-		modes: z.array(modeInput).max(50, 'at most 50 natural frequencies per check'),
+		modes: z.array(modeInput).min(1, 'a check needs at least one natural frequency').max(50, 'at most 50 natural frequencies per check'),
 		/** bump-test files uploaded before this check (POST /api/recordings), with the peaks the device found */
 		recordings: z
 			.array(z.object({ id: uuid, deviceFrequenciesHz: z.array(z.number().finite().positive()).max(50) }).strict())

@@ -5,7 +5,7 @@
  */
 import { and, eq } from 'drizzle-orm';
 import { db } from './index.ts';
-import { assets, checks, excitationSources } from './schema.ts';
+import { assets, checks, excitationSources, ruleSets } from './schema.ts';
 import { nextVersion } from './versions.ts';
 import { refreshAsset } from './status.ts';
 import * as audit from './audit.ts';
@@ -23,10 +23,17 @@ function changed<T extends Record<string, unknown>>(before: T, after: Partial<T>
 	return { before: b, after: a, any: Object.keys(a).length > 0 };
 }
 
+export class UnknownRuleSetError extends Error {
+	constructor() {
+		super('Rule set: choose one from the list (that one does not exist, or was just removed).');
+	}
+}
+
 export function updateAsset(id: string, form: AssetForm, actorId: string, now = Date.now()): boolean {
 	return db.transaction((tx) => {
 		const before = tx.select().from(assets).where(eq(assets.id, id)).get();
 		if (!before) throw new Error('No such asset.');
+		if (form.ruleSetId && !tx.select({ id: ruleSets.id }).from(ruleSets).where(eq(ruleSets.id, form.ruleSetId)).get()) throw new UnknownRuleSetError();
 		const diff = changed(before as unknown as Record<string, unknown>, form as unknown as Record<string, unknown>);
 		if (!diff.any) return false;
 		tx.update(assets).set({ ...form, version: nextVersion(tx), updatedAt: now }).where(eq(assets.id, id)).run();

@@ -1,5 +1,5 @@
 /** Users and their site assignments. */
-import { and, asc, eq, ne, sql } from 'drizzle-orm';
+import { and, asc, eq, inArray, ne, sql } from 'drizzle-orm';
 import { db } from './index.ts';
 import { sites, userSites, users, type User } from './schema.ts';
 import * as audit from './audit.ts';
@@ -10,6 +10,28 @@ export class LastAdminError extends Error {
 		super('This is the last active admin: make another user admin first.');
 		this.name = 'LastAdminError';
 	}
+}
+
+export class UnknownUserError extends Error {
+	constructor() {
+		super('That account does not exist (any more): reload the list.');
+		this.name = 'UnknownUserError';
+	}
+}
+
+export class UnknownSiteError extends Error {
+	constructor() {
+		super('Sites: choose from the list (one of those given does not exist).');
+		this.name = 'UnknownSiteError';
+	}
+}
+
+type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];
+
+function checkSites(tx: Tx, siteIds: string[]): void {
+	if (siteIds.length === 0) return;
+	const found = tx.select({ id: sites.id }).from(sites).where(inArray(sites.id, siteIds)).all().length;
+	if (found !== new Set(siteIds).size) throw new UnknownSiteError();
 }
 
 export class DuplicateEmailError extends Error {
@@ -77,6 +99,7 @@ export function create(input: NewUser, actorId: string | null, now = Date.now())
 	const email = input.email.trim().toLowerCase();
 	db.transaction((tx) => {
 		if (tx.select({ id: users.id }).from(users).where(eq(users.email, email)).get()) throw new DuplicateEmailError(email);
+		checkSites(tx, input.siteIds);
 		tx.insert(users).values({ id, email, name: input.name, role: input.role, passwordHash: input.passwordHash, createdAt: now, updatedAt: now }).run();
 		for (const siteId of input.siteIds) tx.insert(userSites).values({ userId: id, siteId }).run();
 		audit.record(tx, { userId: actorId, entity: 'user', entityId: id, action: 'create', after: { email, name: input.name, role: input.role, siteIds: input.siteIds } }, now);
@@ -87,7 +110,8 @@ export function create(input: NewUser, actorId: string | null, now = Date.now())
 export function update(id: string, changes: { role?: Role; name?: string; siteIds?: string[] }, actorId: string, now = Date.now()): void {
 	db.transaction((tx) => {
 		const before = tx.select().from(users).where(eq(users.id, id)).get();
-		if (!before) throw new Error('No such user.');
+		if (!before) throw new UnknownUserError();
+		if (changes.siteIds) checkSites(tx, changes.siteIds);
 		if (changes.role && changes.role !== 'admin' && before.role === 'admin' && !before.disabled && activeAdminsOtherThan(id) === 0) throw new LastAdminError();
 		const beforeSites = tx.select().from(userSites).where(eq(userSites.userId, id)).all().map((r) => r.siteId);
 		tx.update(users)
@@ -116,7 +140,7 @@ export function update(id: string, changes: { role?: Role; name?: string; siteId
 export function setDisabled(id: string, disabled: boolean, actorId: string, now = Date.now()): void {
 	db.transaction((tx) => {
 		const before = tx.select().from(users).where(eq(users.id, id)).get();
-		if (!before) throw new Error('No such user.');
+		if (!before) throw new UnknownUserError();
 		if (disabled && before.role === 'admin' && !before.disabled && activeAdminsOtherThan(id) === 0) throw new LastAdminError();
 		tx.update(users).set({ disabled, updatedAt: now }).where(eq(users.id, id)).run();
 		audit.record(tx, { userId: actorId, entity: 'user', entityId: id, action: disabled ? 'disable' : 'enable', before: { disabled: before.disabled }, after: { disabled } }, now);
@@ -126,7 +150,7 @@ export function setDisabled(id: string, disabled: boolean, actorId: string, now 
 export function setPasswordHash(id: string, passwordHash: string, actorId: string, now = Date.now()): void {
 	db.transaction((tx) => {
 		const result = tx.update(users).set({ passwordHash, updatedAt: now }).where(eq(users.id, id)).run();
-		if (result.changes === 0) throw new Error('No such user.');
+		if (result.changes === 0) throw new UnknownUserError();
 		audit.record(tx, { userId: actorId, entity: 'user', entityId: id, action: 'reset-password' }, now);
 	});
 }

@@ -14,6 +14,8 @@ export const load: PageServerLoad = (event) => {
 function domainFailure(action: string, id: string | null, e: unknown) {
 	if (e instanceof users.LastAdminError) return fail(409, { action, id, errors: { form: e.message } });
 	if (e instanceof users.DuplicateEmailError) return fail(409, { action, id, errors: { email: e.message } });
+	if (e instanceof users.UnknownUserError) return fail(404, { action, id, errors: { form: e.message } });
+	if (e instanceof users.UnknownSiteError) return fail(400, { action, id, errors: { siteIds: e.message } });
 	throw e;
 }
 
@@ -58,7 +60,11 @@ export const actions: Actions = {
 		const actor = requireUser(event);
 		const parsed = userIdForm.safeParse(formToObject(await event.request.formData()));
 		if (!parsed.success) return fail(400, { action: 'enable', id: null, errors: fieldErrors(parsed.error) });
-		users.setDisabled(parsed.data.id, false, actor.id);
+		try {
+			users.setDisabled(parsed.data.id, false, actor.id);
+		} catch (e) {
+			return domainFailure('enable', parsed.data.id, e);
+		}
 		return { action: 'enable', id: parsed.data.id, done: 'Account enabled.' };
 	},
 	reset: async (event) => {
@@ -66,7 +72,11 @@ export const actions: Actions = {
 		const raw = formToObject(await event.request.formData());
 		const parsed = resetPasswordForm.safeParse(raw);
 		if (!parsed.success) return fail(400, { action: 'reset', id: String(raw.id ?? ''), errors: fieldErrors(parsed.error) });
-		users.setPasswordHash(parsed.data.id, await hashPassword(parsed.data.password), actor.id);
+		try {
+			users.setPasswordHash(parsed.data.id, await hashPassword(parsed.data.password), actor.id);
+		} catch (e) {
+			return domainFailure('reset', parsed.data.id, e);
+		}
 		await endAllSessions(parsed.data.id);
 		return { action: 'reset', id: parsed.data.id, done: 'Password reset; the user signs in again with the new one.' };
 	}

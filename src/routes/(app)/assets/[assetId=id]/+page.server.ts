@@ -15,6 +15,8 @@ import { formFromParams, paramsFromForm } from '$lib/schemas/source-form';
 import { canEditAssets, canPlan } from '$lib/roles';
 
 const EDITORS = ['supervisor', 'admin'] as const;
+const MAX_LABEL = 80;
+const labelError = (label: string): Record<string, string> => (label.length > MAX_LABEL ? { label: `Label: at most ${MAX_LABEL} characters.` } : {});
 
 function loadSheet(event: RequestEvent) {
 	const user = requireUser(event);
@@ -62,7 +64,13 @@ export const actions: Actions = {
 		const raw = formToObject(await event.request.formData());
 		const parsed = assetForm.safeParse(raw);
 		if (!parsed.success) return fail(400, { action: 'updateAsset', id: sheet.asset.id, errors: fieldErrors(parsed.error) });
-		const changed = edits.updateAsset(sheet.asset.id, parsed.data, actor.id);
+		let changed: boolean;
+		try {
+			changed = edits.updateAsset(sheet.asset.id, parsed.data, actor.id);
+		} catch (e) {
+			if (e instanceof edits.UnknownRuleSetError) return fail(400, { action: 'updateAsset', id: sheet.asset.id, errors: { ruleSetId: e.message } });
+			throw e;
+		}
 		return { action: 'updateAsset', id: sheet.asset.id, done: changed ? 'Asset saved; margins recomputed.' : 'Nothing changed.' };
 	},
 	updateSource: async (event) => {
@@ -72,8 +80,8 @@ export const actions: Actions = {
 		const source = sheet.sources.find((s) => s.id === raw.sourceId);
 		if (!source) return fail(404, { action: 'updateSource', id: String(raw.sourceId ?? ''), errors: { form: 'That excitation source is no longer on this asset.' } });
 		const p = paramsFromForm(source.kind as SourceKind, raw);
-		if (!p.ok) return fail(400, { action: 'updateSource', id: source.id, errors: p.errors });
-		const label = String(raw.label ?? '').trim().slice(0, 80);
+		const label = String(raw.label ?? '').trim();
+		if (!p.ok || label.length > MAX_LABEL) return fail(400, { action: 'updateSource', id: source.id, errors: { ...(p.ok ? {} : p.errors), ...labelError(label) } });
 		const changed = edits.updateSource(sheet.asset.id, source.id, label, p.params, actor.id);
 		return { action: 'updateSource', id: source.id, done: changed ? 'Saved; margins recomputed.' : 'Nothing changed.' };
 	},
@@ -84,8 +92,9 @@ export const actions: Actions = {
 		const kind = String(raw.kind ?? '') as SourceKind;
 		if (!SOURCE_KINDS.includes(kind)) return fail(400, { action: 'addSource', id: 'new', errors: { kind: 'Choose the kind of source.' } });
 		const p = paramsFromForm(kind, raw);
-		if (!p.ok) return fail(400, { action: 'addSource', id: 'new', errors: p.errors, kind });
-		edits.addSource(sheet.asset.id, kind, String(raw.label ?? '').trim().slice(0, 80), p.params, actor.id);
+		const label = String(raw.label ?? '').trim();
+		if (!p.ok || label.length > MAX_LABEL) return fail(400, { action: 'addSource', id: 'new', errors: { ...(p.ok ? {} : p.errors), ...labelError(label) }, kind });
+		edits.addSource(sheet.asset.id, kind, label, p.params, actor.id);
 		return { action: 'addSource', id: 'new', done: 'Source added; margins recomputed.' };
 	},
 	deleteSource: async (event) => {
