@@ -1,6 +1,7 @@
 import { expect, test } from '@playwright/test';
 import AxeBuilder from '@axe-core/playwright';
-import { signIn } from './helpers.ts';
+import { demoUser, signIn } from './helpers.ts';
+import { cleanDir, startOwnServer, type OwnServer } from './own-server.ts';
 
 test.describe('security headers', () => {
 	test('pages carry a CSP that forbids framing, and every answer says nosniff and a referrer policy', async ({ page }) => {
@@ -59,3 +60,50 @@ test.describe('accessibility (axe-core)', () => {
 	});
 });
 
+
+/** A server of its own, with Secure cookies forced as behind a TLS proxy, to try sign-in hard. */
+test.describe('sign-in on a server behind TLS', () => {
+	const PORT = 4183;
+	const DIR = '.e2e/secure';
+	let server: OwnServer;
+	test.beforeAll(async () => {
+		cleanDir(DIR);
+		server = await startOwnServer(PORT, DIR, { COOKIE_SECURE: 'true' });
+	});
+	test.afterAll(async () => {
+		await server?.kill('SIGTERM');
+		cleanDir(DIR);
+	});
+	const attempt = (email: string, password: string) =>
+		fetch(`${server.origin}/login`, { method: 'POST', headers: { 'content-type': 'application/x-www-form-urlencoded', origin: server.origin, accept: 'text/html' }, body: new URLSearchParams({ email, password }), redirect: 'manual' });
+
+	test('the session cookie is HttpOnly, Secure and SameSite=Lax', async () => {
+		const u = demoUser('planner');
+		const res = await attempt(u.email, u.password);
+		expect(res.status).toBe(303);
+		const cookie = res.headers.get('set-cookie')!;
+		expect(cookie).toMatch(/^detune_session=/);
+		expect(cookie).toMatch(/;\s*HttpOnly/i);
+		expect(cookie).toMatch(/;\s*Secure/i);
+		expect(cookie).toMatch(/;\s*SameSite=Lax/i);
+	});
+
+	test('an unknown address and a wrong password get the same answer', async () => {
+		const unknown = await attempt('nobody-here@example.com', 'whatever-it-is');
+		const wrong = await attempt('tech2@example.com', 'whatever-it-is');
+		expect(unknown.status).toBe(wrong.status);
+		const text = (html: string) => /That e-mail and password do not match an active account\./.test(html);
+		expect(text(await unknown.text())).toBe(true);
+		expect(text(await wrong.text())).toBe(true);
+	});
+
+	test('throttling holds when 40 wrong passwords for one account arrive at once', async () => {
+		const u = demoUser('admin');
+		const answers = await Promise.all(Array.from({ length: 40 }, (_, i) => attempt(u.email, `guess-number-${i}`)));
+		const statuses = answers.map((r) => r.status);
+		expect(statuses.filter((s) => s === 400)).toHaveLength(5);
+		expect(statuses.filter((s) => s === 429)).toHaveLength(35);
+		// and the right password is refused too, for now
+		expect((await attempt(u.email, u.password)).status).toBe(429);
+	});
+});

@@ -73,6 +73,7 @@ test('a technician loads a WAV and a CSV on Floor check, drops a peak, saves, sy
 	expect(bodies.some((b) => b.equals(csv))).toBe(true);
 	const res = await page.request.get(hrefs[0]!);
 	expect(res.headers()['content-disposition']).toMatch(/^attachment/);
+	expect(res.headers()['content-type']).toMatch(/^(text\/csv|audio\/wav)/); // never a type a browser would run
 	expect(res.headers()['x-content-type-options']).toBe('nosniff');
 });
 

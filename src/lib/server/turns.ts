@@ -3,6 +3,7 @@
  * runs nothing else in this process can; queued one after another and started from a fresh
  * event-loop turn (setImmediate), they leave room between them for the requests that arrived
  * meanwhile — a supervisor's board stays quick while fifty tablets sync at the end of a shift.
+ * Used by the push, the asset import and the rule-set save (which recomputes its assets).
  */
 let tail: Promise<unknown> = Promise.resolve();
 let waiting = 0;

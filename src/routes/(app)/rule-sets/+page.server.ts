@@ -2,6 +2,7 @@ import { fail } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
 import { requireRole, requireUser } from '$lib/server/guard';
 import * as rules from '$lib/server/db/rule-sets';
+import { inTurn } from '$lib/server/turns';
 import { ruleSetForm } from '$lib/schemas/rule-set';
 import { fieldErrors } from '$lib/schemas/user';
 import { SOURCE_KINDS } from '$lib/schemas/excitation';
@@ -35,7 +36,7 @@ export const actions: Actions = {
 		const parsed = parse(form);
 		if (!parsed.success) return fail(400, { id: id ?? 'new', errors: fieldErrors(parsed.error) });
 		try {
-			const r = rules.save(id, parsed.data, actor.id);
+			const r = await inTurn(() => rules.save(id, parsed.data, actor.id));
 			return { id: id ?? 'new', done: id ? `Saved; ${r.recomputed} asset verdict${r.recomputed === 1 ? '' : 's'} recomputed.` : 'Rule set created.' };
 		} catch (e) {
 			return fail(404, { id: id ?? 'new', errors: { form: (e as Error).message } });

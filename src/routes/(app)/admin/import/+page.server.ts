@@ -2,6 +2,7 @@ import { fail } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
 import { requireRole, requireUser } from '$lib/server/guard';
 import * as importer from '$lib/server/db/import';
+import { inTurn } from '$lib/server/turns';
 
 const MAX = 2 * 1024 * 1024;
 
@@ -42,7 +43,7 @@ export const actions: Actions = {
 		const actor = requireRole(event, ['admin']);
 		const t = await textOf(event.request);
 		if ('error' in t) return fail(t.status ?? 400, { stage: 'import', error: t.error });
-		const r = importer.run(t.text, actor.id);
+		const r = await inTurn(() => importer.run(t.text, actor.id));
 		if (r.errors.length) return fail(400, { stage: 'preview', text: t.text, total: 0, errors: r.errors, rows: [] });
 		return { stage: 'done', added: r.added, updated: r.updated };
 	}
