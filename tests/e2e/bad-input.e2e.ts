@@ -15,7 +15,8 @@ import type { Role } from '../../src/lib/roles.ts';
 
 const PORT = 4182;
 const DIR = '.e2e/bad-input';
-const RUNS = 25;
+/** runs per property; FUZZ_RUNS=500 for a long hunt */
+const RUNS = Number(process.env.FUZZ_RUNS ?? 25);
 const HUGE = 'x'.repeat(100_000);
 
 let server: OwnServer;
@@ -174,7 +175,7 @@ test.describe('bad input is refused with a message and changes nothing', () => {
 	];
 
 	test('form actions', async () => {
-		test.setTimeout(240_000);
+		test.setTimeout(60_000 + RUNS * 10_000);
 		const before = snapshot();
 		for (const c of cases()) {
 			await fc.assert(

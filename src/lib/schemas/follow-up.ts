@@ -8,7 +8,11 @@ const day = z
 	.string()
 	.trim()
 	.regex(/^\d{4}-\d{2}-\d{2}$/, 'Due date: a date (YYYY-MM-DD).')
-	.refine((d) => !Number.isNaN(Date.parse(`${d}T00:00:00Z`)), 'Due date: a real calendar day.');
+	.refine((d) => {
+		// Date.parse rolls 2026-02-30 over into March: a real day reads back as itself
+		const t = Date.parse(`${d}T00:00:00Z`);
+		return !Number.isNaN(t) && new Date(t).toISOString().slice(0, 10) === d;
+	}, 'Due date: a real calendar day.');
 
 export const followUpCreate = z
 	.object({

@@ -1,5 +1,5 @@
 import { fail } from '@sveltejs/kit';
-import type { Actions, PageServerLoad } from './$types';
+import type { Actions, PageServerLoad, RequestEvent } from './$types';
 import * as users from '$lib/server/db/users';
 import { endAllSessions, hashPassword } from '$lib/server/auth';
 import { requireUser } from '$lib/server/guard';
@@ -17,6 +17,21 @@ function domainFailure(action: string, id: string | null, e: unknown) {
 	if (e instanceof users.UnknownUserError) return fail(404, { action, id, errors: { form: e.message } });
 	if (e instanceof users.UnknownSiteError) return fail(400, { action, id, errors: { siteIds: e.message } });
 	throw e;
+}
+
+/** Disables (ending its sessions) or enables an account. */
+async function setDisabled(event: RequestEvent, disabled: boolean) {
+	const action = disabled ? 'disable' : 'enable';
+	const actor = requireUser(event);
+	const parsed = userIdForm.safeParse(formToObject(await event.request.formData()));
+	if (!parsed.success) return fail(400, { action, id: null, errors: fieldErrors(parsed.error) });
+	try {
+		users.setDisabled(parsed.data.id, disabled, actor.id);
+		if (disabled) await endAllSessions(parsed.data.id);
+	} catch (e) {
+		return domainFailure(action, parsed.data.id, e);
+	}
+	return { action, id: parsed.data.id, done: disabled ? 'Account disabled; its sessions are ended.' : 'Account enabled.' };
 }
 
 export const actions: Actions = {
@@ -44,29 +59,8 @@ export const actions: Actions = {
 		}
 		return { action: 'update', id: parsed.data.id, done: 'Saved.' };
 	},
-	disable: async (event) => {
-		const actor = requireUser(event);
-		const parsed = userIdForm.safeParse(formToObject(await event.request.formData()));
-		if (!parsed.success) return fail(400, { action: 'disable', id: null, errors: fieldErrors(parsed.error) });
-		try {
-			users.setDisabled(parsed.data.id, true, actor.id);
-			await endAllSessions(parsed.data.id);
-		} catch (e) {
-			return domainFailure('disable', parsed.data.id, e);
-		}
-		return { action: 'disable', id: parsed.data.id, done: 'Account disabled; its sessions are ended.' };
-	},
-	enable: async (event) => {
-		const actor = requireUser(event);
-		const parsed = userIdForm.safeParse(formToObject(await event.request.formData()));
-		if (!parsed.success) return fail(400, { action: 'enable', id: null, errors: fieldErrors(parsed.error) });
-		try {
-			users.setDisabled(parsed.data.id, false, actor.id);
-		} catch (e) {
-			return domainFailure('enable', parsed.data.id, e);
-		}
-		return { action: 'enable', id: parsed.data.id, done: 'Account enabled.' };
-	},
+	disable: (event) => setDisabled(event, true),
+	enable: (event) => setDisabled(event, false),
 	reset: async (event) => {
 		const actor = requireUser(event);
 		const raw = formToObject(await event.request.formData());

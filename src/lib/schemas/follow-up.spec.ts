@@ -1,0 +1,20 @@
+import { describe, expect, it } from 'vitest';
+import { followUpMove, followUpUpdate } from './follow-up.ts';
+
+const base = { id: 'f-1', assigneeId: '', dueDate: '', priority: 'normal', notes: '' };
+
+describe('follow-up forms', () => {
+	it('take a due date only when it is a real calendar day', () => {
+		expect(followUpUpdate.safeParse({ ...base, dueDate: '2028-02-29' }).success).toBe(true); // a leap day
+		for (const bad of ['2026-02-30', '2027-02-29', '2026-04-31', '2026-13-01', '2026-00-10', '2026-1-5']) {
+			const r = followUpUpdate.safeParse({ ...base, dueDate: bad });
+			expect(r.success, bad).toBe(false);
+		}
+		expect(followUpUpdate.parse(base).dueDate).toBeNull();
+	});
+
+	it('never move a follow-up to retested by hand', () => {
+		expect(followUpMove.safeParse({ id: 'f-1', status: 'retested' }).success).toBe(false);
+		expect(followUpMove.safeParse({ id: 'f-1', status: 'done' }).success).toBe(true);
+	});
+});
