@@ -33,6 +33,7 @@ export const ROUTE_ACCESS: Record<string, RouteEntry> = {
 	// sample: the demo's KRW-RWP-101 (a Kettle River asset, so the demo technician may read it)
 	'/(app)/assets/[assetId=id]': { access: ALL, sample: '/assets/ee690482-2661-40f0-a1ba-59140aa07f60' },
 	'/(app)/admin/users': { access: ADMIN },
+	'/(app)/admin/sites': { access: ADMIN },
 	'/(app)/rule-sets': { access: EDITORS },
 	'/(app)/admin/import': { access: ADMIN },
 	'/(app)/admin/import/template.csv': { access: ADMIN },
@@ -66,7 +67,7 @@ export interface NavItem {
 	href: string;
 	label: string;
 	routeId: string;
-	icon: 'field' | 'board' | 'follow-ups' | 'users' | 'rules' | 'import' | 'audit' | 'mail';
+	icon: 'field' | 'board' | 'follow-ups' | 'users' | 'sites' | 'rules' | 'import' | 'audit' | 'mail';
 }
 
 export const NAV: readonly NavItem[] = [
@@ -75,6 +76,7 @@ export const NAV: readonly NavItem[] = [
 	{ href: '/follow-ups', label: 'Follow-ups', routeId: '/(app)/follow-ups', icon: 'follow-ups' },
 	{ href: '/rule-sets', label: 'Rule sets', routeId: '/(app)/rule-sets', icon: 'rules' },
 	{ href: '/admin/users', label: 'Users', routeId: '/(app)/admin/users', icon: 'users' },
+	{ href: '/admin/sites', label: 'Sites', routeId: '/(app)/admin/sites', icon: 'sites' },
 	{ href: '/admin/import', label: 'Import', routeId: '/(app)/admin/import', icon: 'import' },
 	{ href: '/admin/audit', label: 'Audit', routeId: '/(app)/admin/audit', icon: 'audit' },
 	{ href: '/admin/mailbox', label: 'Mailbox', routeId: '/(app)/admin/mailbox', icon: 'mail' }

@@ -72,7 +72,8 @@ const BAD: Record<string, string[]> = {
 	date: ['2026-13-45', 'tomorrow', '2026-02-30', HUGE],
 	email: ['', 'no-at-sign', `${HUGE}@example.com`],
 	password: ['', 'short', HUGE],
-	list: ['a, b', '-1', 'NaN', HUGE]
+	list: ['a, b', '-1', 'NaN', HUGE],
+	code: ['', 'x', '-AB', 'A B', 'ÄÖ', HUGE]
 };
 
 interface FormCase {
@@ -117,7 +118,7 @@ async function postForm(c: FormCase, form: URLSearchParams) {
 const showsMessage = (html: string) => /aria-invalid="true"|role="alert"/.test(html);
 
 test.describe('bad input is refused with a message and changes nothing', () => {
-	let ids: { asset: string; check: string; source: string; followUp: string; user: string; ruleSet: string; site: string };
+	let ids: { asset: string; check: string; source: string; followUp: string; user: string; ruleSet: string; site: string; area: string };
 	test.beforeAll(async () => {
 		// one open follow-up to aim at (the demo has none open)
 		const asset0 = one<{ id: string }>("select id from assets where tag = 'KRW-RWP-101'");
@@ -131,7 +132,8 @@ test.describe('bad input is refused with a message and changes nothing', () => {
 			source: one<{ id: string }>(`select id from excitation_sources where asset_id = '${asset.id}' and kind = 'vane'`).id,
 			followUp: one<{ id: string }>("select id from follow_ups where status = 'open' order by created_at").id,
 			user: one<{ id: string }>("select id from users where email = 'tech2@example.com'").id,
-			ruleSet: one<{ id: string }>('select id from rule_sets order by name').id
+			ruleSet: one<{ id: string }>('select id from rule_sets order by name').id,
+			area: one<{ id: string }>('select id from areas order by name').id
 		};
 	});
 
@@ -171,6 +173,10 @@ test.describe('bad input is refused with a message and changes nothing', () => {
 		{ name: 'user: update', role: 'admin', path: '/admin/users', action: 'update', base: { id: ids.user, role: 'planner', siteIds: [ids.site] }, fields: { id: 'id', role: 'enum', siteIds: 'optId' } },
 		{ name: 'user: disable', role: 'admin', path: '/admin/users', action: 'disable', base: { id: ids.user }, fields: { id: 'id' } },
 		{ name: 'user: enable', role: 'admin', path: '/admin/users', action: 'enable', base: { id: ids.user }, fields: { id: 'id' } },
+		{ name: 'site: create', role: 'admin', path: '/admin/sites', action: 'createSite', base: { code: 'NEW-1', name: 'New works', recheckDays: '90' }, fields: { code: 'code', name: 'text', recheckDays: 'int' } },
+		{ name: 'site: save', role: 'admin', path: '/admin/sites', action: 'updateSite', base: { id: ids.site, name: 'Kettle River Water Works', recheckDays: '30' }, fields: { id: 'id', name: 'text', recheckDays: 'int' } },
+		{ name: 'site: add area', role: 'admin', path: '/admin/sites', action: 'addArea', base: { siteId: ids.site, name: 'Sludge press hall' }, fields: { siteId: 'id', name: 'text' } },
+		{ name: 'site: rename area', role: 'admin', path: '/admin/sites', action: 'renameArea', base: { id: ids.area, name: 'Renamed hall' }, fields: { id: 'id', name: 'text' } },
 		{ name: 'user: reset password', role: 'admin', path: '/admin/users', action: 'reset', base: { id: ids.user, password: 'another-long-pass-2026' }, fields: { id: 'id', password: 'password' } }
 	];
 

@@ -49,7 +49,8 @@ export function pull(user: { id: string; role: Role }, since: number): PullRespo
 			.from(assets)
 			.innerJoin(sites, eq(sites.id, assets.siteId))
 			.leftJoin(areas, eq(areas.id, assets.areaId))
-			.where(and(siteFilter, full ? undefined : or(gt(assets.version, since), changedSourceAssets.length ? inArray(assets.id, changedSourceAssets) : undefined)))
+			// an asset is sent again when it, one of its sources, its site or its area changed (a rename)
+			.where(and(siteFilter, full ? undefined : or(gt(assets.version, since), gt(sites.version, since), gt(areas.version, since), changedSourceAssets.length ? inArray(assets.id, changedSourceAssets) : undefined)))
 			.orderBy(asc(assets.tag))
 			.all();
 		const ids = rows.map((r) => r.id);
