@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { createUserForm, fieldErrors, formToObject, resetPasswordForm, signInForm } from './user.ts';
+import { createUserForm, resetPasswordForm, signInForm } from './user.ts';
+import { fieldErrors, formToObject } from './form.ts';
 
 describe('user forms', () => {
 	it('give a message per bad field', () => {

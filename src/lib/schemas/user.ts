@@ -39,24 +39,3 @@ export const updateUserForm = z.object({
 export const userIdForm = z.object({ id: z.string().min(1, 'Missing user.').max(64) });
 
 export const resetPasswordForm = z.object({ id: z.string().min(1).max(64), password: newPassword });
-
-/** Field messages from a failed parse: `{ field: 'first message' }`. */
-export function fieldErrors(error: z.ZodError): Record<string, string> {
-	const out: Record<string, string> = {};
-	for (const issue of error.issues) {
-		const key = issue.path.length ? String(issue.path[0]) : 'form';
-		out[key] ??= issue.message;
-	}
-	return out;
-}
-
-/** FormData → plain object, with the listed keys gathered as arrays (multi-selects, checkboxes). */
-export function formToObject(form: FormData, arrays: string[] = []): Record<string, unknown> {
-	const out: Record<string, unknown> = {};
-	for (const key of new Set(form.keys())) {
-		const values = form.getAll(key).filter((v): v is string => typeof v === 'string');
-		out[key] = arrays.includes(key) ? values : values[0];
-	}
-	for (const key of arrays) out[key] ??= [];
-	return out;
-}

@@ -3,7 +3,8 @@ import type { Actions, PageServerLoad } from './$types';
 import { homeFor } from '$lib/access';
 import { createSession, signIn } from '$lib/server/auth';
 import { authorize } from '$lib/server/guard';
-import { fieldErrors, signInForm } from '$lib/schemas/user';
+import { signInForm } from '$lib/schemas/user';
+import { fieldErrors } from '$lib/schemas/form';
 
 /** Only same-site paths may follow sign-in: never an absolute or protocol-relative URL. */
 function safeNext(next: string | null): string | null {

@@ -5,7 +5,7 @@ import * as followUps from '$lib/server/db/follow-ups';
 import * as users from '$lib/server/db/users';
 import * as assetQueries from '$lib/server/db/assets';
 import { followUpCreate, followUpMove, followUpUpdate } from '$lib/schemas/follow-up';
-import { fieldErrors, formToObject } from '$lib/schemas/user';
+import { fieldErrors, formToObject } from '$lib/schemas/form';
 import { send } from '$lib/server/mail';
 import { followUpMail } from '$lib/server/mail/messages';
 import { runReminders } from '$lib/server/mail/reminders';

@@ -4,7 +4,7 @@ import { requireRole, requireUser } from '$lib/server/guard';
 import * as rules from '$lib/server/db/rule-sets';
 import { inTurn } from '$lib/server/turns';
 import { ruleSetForm } from '$lib/schemas/rule-set';
-import { fieldErrors } from '$lib/schemas/user';
+import { fieldErrors } from '$lib/schemas/form';
 import { SOURCE_KINDS } from '$lib/schemas/excitation';
 
 export const load: PageServerLoad = (event) => {

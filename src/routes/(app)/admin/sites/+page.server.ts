@@ -3,7 +3,7 @@ import type { Actions, PageServerLoad } from './$types';
 import { requireRole, requireUser } from '$lib/server/guard';
 import * as siteQueries from '$lib/server/db/sites';
 import { areaCreate, areaRename, siteForm, siteUpdate } from '$lib/schemas/site';
-import { fieldErrors, formToObject } from '$lib/schemas/user';
+import { fieldErrors, formToObject } from '$lib/schemas/form';
 
 export const load: PageServerLoad = (event) => {
 	requireUser(event);

@@ -3,7 +3,8 @@ import type { Actions, PageServerLoad, RequestEvent } from './$types';
 import * as users from '$lib/server/db/users';
 import { endAllSessions, hashPassword } from '$lib/server/auth';
 import { requireUser } from '$lib/server/guard';
-import { createUserForm, fieldErrors, formToObject, resetPasswordForm, updateUserForm, userIdForm } from '$lib/schemas/user';
+import { createUserForm, resetPasswordForm, updateUserForm, userIdForm } from '$lib/schemas/user';
+import { fieldErrors, formToObject } from '$lib/schemas/form';
 
 export const load: PageServerLoad = (event) => {
 	requireUser(event);

@@ -9,7 +9,7 @@ import * as audit from '$lib/server/db/audit';
 import * as rules from '$lib/server/db/rule-sets';
 import { computeCheck } from '$lib/checks/compute';
 import { assetForm } from '$lib/schemas/asset';
-import { fieldErrors, formToObject } from '$lib/schemas/user';
+import { fieldErrors, formToObject } from '$lib/schemas/form';
 import { SOURCE_KINDS, type SourceKind } from '$lib/schemas/excitation';
 import { formFromParams, paramsFromForm } from '$lib/schemas/source-form';
 import { canEditAssets, canPlan } from '$lib/roles';
