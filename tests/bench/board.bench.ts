@@ -11,7 +11,7 @@ import { startServer, signInCookie } from './server.ts';
 import { percentile, type Figure } from './harness.ts';
 
 const ROUNDS = 20;
-const COMBOS = ['', 'verdict=conflict', 'stale=yes', 'q=BENCH-004', 'sort=checked&dir=desc', 'sort=overRange', 'kind=fan&sort=tag', 'page=40', 'verdict=tight&sort=atSpeed&dir=desc'];
+const COMBOS = ['', 'verdict=conflict', 'stale=yes', 'q=BENCH-004', 'sort=checked&dir=desc', 'sort=overRange', 'kind=fan&sort=tag', 'page=40', 'verdict=tight&sort=atSpeed&dir=desc', 'sort=site'];
 
 export async function buildDatabase(file: string): Promise<void> {
 	const { db, sqlite } = openDatabase(file);

@@ -3,6 +3,10 @@ import { freshDatabase } from '../test-db.ts';
 import { query, all } from './board.ts';
 import { boardQuery } from '../../schemas/board.ts';
 import { demoId } from './seed.ts';
+import { eq } from 'drizzle-orm';
+import { db } from './index.ts';
+import { sites, users } from './schema.ts';
+import { updateSite } from './sites.ts';
 
 beforeAll(async () => {
 	await freshDatabase({ demo: true });
@@ -33,6 +37,24 @@ describe('the Margin board query', () => {
 		expect(p1.rows).toHaveLength(10);
 		expect(p2.rows[0].id).not.toBe(p1.rows[0].id);
 		expect(all(q({ site }), 'all').length).toBe(query(q({ site }), 'all').total);
+	});
+
+	it('sorts by site name, not by the order of the sites’ ids', () => {
+		const [a, b] = [demoId('site:KRW'), demoId('site:LBM')].sort();
+		// name the site whose id sorts last so that its name sorts first
+		const admin = db.select().from(users).where(eq(users.email, 'admin@example.com')).get()!.id;
+		const original = db.select().from(sites).where(eq(sites.id, b)).get()!;
+		updateSite(b, { name: 'Aardvark Works', recheckDays: original.recheckDays }, admin);
+		try {
+			const up = query(q({ sort: 'site', size: '500' }), 'all').rows;
+			expect(up[0].site).toBe('Aardvark Works');
+			expect(up.at(-1)!.site).toBe(db.select().from(sites).where(eq(sites.id, a)).get()!.name);
+			const sameSite = up.filter((r) => r.site === 'Aardvark Works').map((r) => r.tag);
+			expect([...sameSite].sort()).toEqual(sameSite);
+			expect(query(q({ sort: 'site', dir: 'desc' }), 'all').rows[0].site).not.toBe('Aardvark Works');
+		} finally {
+			updateSite(b, { name: original.name, recheckDays: original.recheckDays }, admin);
+		}
 	});
 
 	it('flags checks older than the site interval as stale, and filters on it', () => {

@@ -61,7 +61,8 @@ function ordering(q: BoardQuery): SQL[] {
 		case 'name':
 			return [d(assetStatus.name), asc(assetStatus.tag)];
 		case 'site':
-			return [d(assetStatus.siteId), asc(assetStatus.tag)]; // sites are few: grouped, in a stable order
+			// by the site's name (a lookup by key per row; sites are few), then the tag
+			return [d(sql`(select ${sites.name} from ${sites} where ${sites.id} = ${assetStatus.siteId})`), asc(assetStatus.tag)];
 		case 'checked':
 			return [...nullable(assetStatus.checkedAt), asc(assetStatus.tag)];
 		case 'atSpeed':
