@@ -26,6 +26,7 @@ export const ROUTE_ACCESS: Record<string, RouteEntry> = {
 	'/login': { access: 'public' },
 	'/logout': { access: 'signed-in', method: 'POST' },
 	'/(app)/field': { access: FIELD },
+	'/(app)/settings': { access: ALL },
 	'/(app)/board': { access: FLEET },
 	'/(app)/follow-ups': { access: ALL },
 	'/(app)/follow-ups/export.csv': { access: ALL },

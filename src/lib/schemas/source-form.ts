@@ -1,8 +1,9 @@
 /**
- * The fields of each excitation-source kind as forms show them (lengths in mm on screen, metres
- * stored), and the conversion between a form and the stored params.
+ * The fields of each excitation-source kind as forms show them (lengths in mm, or in inches for
+ * US customary users; metres stored), and the conversion between a form and the stored params.
  */
 import { sourceParams, type SourceKind } from './excitation.ts';
+import { METRES_PER_INCH, type UnitSystem } from '../vibration/units.ts';
 
 export interface FieldSpec {
 	key: string;
@@ -58,17 +59,24 @@ export const SOURCE_FIELDS: Record<SourceKind, FieldSpec[]> = {
 	fixed: [{ key: 'frequencyHz', label: 'Frequency', unit: 'Hz', type: 'number' }]
 };
 
+/** The fields of a kind in a unit system: lengths in mm (metric) or inches (US customary). */
+export function fieldsFor(kind: SourceKind, units: UnitSystem = 'metric'): FieldSpec[] {
+	if (units === 'metric') return SOURCE_FIELDS[kind];
+	return SOURCE_FIELDS[kind].map((f) => (f.unit === 'mm' ? { ...f, unit: 'in', scale: METRES_PER_INCH } : f));
+}
+
 const num = (s: string) => Number(s.replace(',', '.').trim());
 
 /**
  * Form values (`p.<key>`) → validated params. Returns field errors keyed `p.<key>` on failure, so
  * the form shows them beside the right input.
  */
-export function paramsFromForm(kind: SourceKind, form: Record<string, unknown>): { ok: true; params: Record<string, unknown> } | { ok: false; errors: Record<string, string> } {
+export function paramsFromForm(kind: SourceKind, form: Record<string, unknown>, units: UnitSystem = 'metric'): { ok: true; params: Record<string, unknown> } | { ok: false; errors: Record<string, string> } {
 	const errors: Record<string, string> = {};
 	const params: Record<string, unknown> = {};
 	const drive: Record<string, unknown> = {};
-	for (const f of SOURCE_FIELDS[kind]) {
+	const fields = fieldsFor(kind, units);
+	for (const f of fields) {
 		const raw = String(form[`p.${f.key}`] ?? '').trim();
 		if (raw === '') {
 			if (!f.optional) errors[`p.${f.key}`] = `${f.label}: fill it in.`;
@@ -102,7 +110,7 @@ export function paramsFromForm(kind: SourceKind, form: Record<string, unknown>):
 	const parsed = sourceParams[kind].safeParse(params);
 	if (!parsed.success) {
 		for (const issue of parsed.error.issues) {
-			const key = `p.${String(issue.path[issue.path.length - 1] ?? SOURCE_FIELDS[kind][0].key)}`;
+			const key = `p.${String(issue.path[issue.path.length - 1] ?? fields[0].key)}`;
 			errors[key === 'p.drive' ? 'p.poles' : key] ??= issue.message;
 		}
 		return { ok: false, errors };
@@ -111,9 +119,9 @@ export function paramsFromForm(kind: SourceKind, form: Record<string, unknown>):
 }
 
 /** Stored params → the strings a form shows. */
-export function formFromParams(kind: SourceKind, params: Record<string, unknown>): Record<string, string> {
+export function formFromParams(kind: SourceKind, params: Record<string, unknown>, units: UnitSystem = 'metric'): Record<string, string> {
 	const out: Record<string, string> = {};
-	for (const f of SOURCE_FIELDS[kind]) {
+	for (const f of fieldsFor(kind, units)) {
 		const v = f.group === 'drive' ? (params.drive as Record<string, unknown> | null | undefined)?.[f.key] : params[f.key];
 		if (v === undefined || v === null) out[f.key] = '';
 		else if (Array.isArray(v)) out[f.key] = v.join(', ');

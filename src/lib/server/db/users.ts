@@ -147,6 +147,12 @@ export function setDisabled(id: string, disabled: boolean, actorId: string, now 
 	});
 }
 
+/** A user's own choice of units (metric or US customary). */
+export function setUnitSystem(id: string, unitSystem: 'metric' | 'us', now = Date.now()): void {
+	const r = db.update(users).set({ unitSystem, updatedAt: now }).where(eq(users.id, id)).run();
+	if (r.changes === 0) throw new UnknownUserError();
+}
+
 export function setPasswordHash(id: string, passwordHash: string, actorId: string, now = Date.now()): void {
 	db.transaction((tx) => {
 		const result = tx.update(users).set({ passwordHash, updatedAt: now }).where(eq(users.id, id)).run();

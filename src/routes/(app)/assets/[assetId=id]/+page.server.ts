@@ -46,13 +46,14 @@ export const load: PageServerLoad = (event) => {
 	}
 	return {
 		...sheet,
+		units: user.unitSystem,
 		canEdit: canEditAssets(user.role),
 		canPlan: canPlan(user.role),
 		history,
 		current,
 		recordings: recordingQueries.forAsset(sheet.asset.id),
 		ruleSets: rules.list().map((r) => ({ id: r.id, name: r.name })),
-		sourceForms: sheet.sources.map((s) => ({ id: s.id, kind: s.kind, label: s.label, values: SOURCE_KINDS.includes(s.kind as SourceKind) ? formFromParams(s.kind as SourceKind, s.params) : {} })),
+		sourceForms: sheet.sources.map((s) => ({ id: s.id, kind: s.kind, label: s.label, values: SOURCE_KINDS.includes(s.kind as SourceKind) ? formFromParams(s.kind as SourceKind, s.params, user.unitSystem) : {} })),
 		audit: audit.forAsset(sheet.asset.id)
 	};
 };
@@ -79,7 +80,7 @@ export const actions: Actions = {
 		const raw = formToObject(await event.request.formData());
 		const source = sheet.sources.find((s) => s.id === raw.sourceId);
 		if (!source) return fail(404, { action: 'updateSource', id: String(raw.sourceId ?? ''), errors: { form: 'That excitation source is no longer on this asset.' } });
-		const p = paramsFromForm(source.kind as SourceKind, raw);
+		const p = paramsFromForm(source.kind as SourceKind, raw, actor.unitSystem);
 		const label = String(raw.label ?? '').trim();
 		if (!p.ok || label.length > MAX_LABEL) return fail(400, { action: 'updateSource', id: source.id, errors: { ...(p.ok ? {} : p.errors), ...labelError(label) } });
 		const changed = edits.updateSource(sheet.asset.id, source.id, label, p.params, actor.id);
@@ -91,7 +92,7 @@ export const actions: Actions = {
 		const raw = formToObject(await event.request.formData());
 		const kind = String(raw.kind ?? '') as SourceKind;
 		if (!SOURCE_KINDS.includes(kind)) return fail(400, { action: 'addSource', id: 'new', errors: { kind: 'Choose the kind of source.' } });
-		const p = paramsFromForm(kind, raw);
+		const p = paramsFromForm(kind, raw, actor.unitSystem);
 		const label = String(raw.label ?? '').trim();
 		if (!p.ok || label.length > MAX_LABEL) return fail(400, { action: 'addSource', id: 'new', errors: { ...(p.ok ? {} : p.errors), ...labelError(label) }, kind });
 		edits.addSource(sheet.asset.id, kind, label, p.params, actor.id);
