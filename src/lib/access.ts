@@ -80,7 +80,7 @@ export const NAV: readonly NavItem[] = [
 	{ href: '/admin/sites', label: 'Sites', routeId: '/(app)/admin/sites', icon: 'sites' },
 	{ href: '/admin/import', label: 'Import', routeId: '/(app)/admin/import', icon: 'import' },
 	{ href: '/admin/audit', label: 'Audit', routeId: '/(app)/admin/audit', icon: 'audit' },
-	{ href: '/admin/mailbox', label: 'Mailbox', routeId: '/(app)/admin/mailbox', icon: 'mail' }
+	{ href: '/admin/mailbox', label: 'Mail', routeId: '/(app)/admin/mailbox', icon: 'mail' }
 ];
 
 /** The navigation a role may use, in the table's order. */

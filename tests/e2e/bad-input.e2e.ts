@@ -173,6 +173,7 @@ test.describe('bad input is refused with a message and changes nothing', () => {
 		{ name: 'user: update', role: 'admin', path: '/admin/users', action: 'update', base: { id: ids.user, role: 'planner', siteIds: [ids.site] }, fields: { id: 'id', role: 'enum', siteIds: 'optId' } },
 		{ name: 'user: disable', role: 'admin', path: '/admin/users', action: 'disable', base: { id: ids.user }, fields: { id: 'id' } },
 		{ name: 'user: enable', role: 'admin', path: '/admin/users', action: 'enable', base: { id: ids.user }, fields: { id: 'id' } },
+		{ name: 'mail: test message', role: 'admin', path: '/admin/mailbox', action: 'test', base: { to: 'someone@example.com' }, fields: { to: 'email' } },
 		{ name: 'settings: units', role: 'technician', path: '/settings', action: 'units', base: { unitSystem: 'us' }, fields: { unitSystem: 'enum' } },
 		{ name: 'site: create', role: 'admin', path: '/admin/sites', action: 'createSite', base: { code: 'NEW-1', name: 'New works', recheckDays: '90' }, fields: { code: 'code', name: 'text', recheckDays: 'int' } },
 		{ name: 'site: save', role: 'admin', path: '/admin/sites', action: 'updateSite', base: { id: ids.site, name: 'Kettle River Water Works', recheckDays: '30' }, fields: { id: 'id', name: 'text', recheckDays: 'int' } },

@@ -23,7 +23,7 @@ describe('role guard', () => {
 		expect(decide('/(app)/board', 'technician')).toMatchObject({ ok: false, status: 403 });
 		expect(decide('/(app)/field', 'technician')).toEqual({ ok: true });
 		expect(navFor('technician').map((n) => n.label)).toEqual(['Floor check', 'Follow-ups']);
-		expect(navFor('admin').map((n) => n.label)).toEqual(['Floor check', 'Margin board', 'Follow-ups', 'Rule sets', 'Users', 'Sites', 'Import', 'Audit', 'Mailbox']);
+		expect(navFor('admin').map((n) => n.label)).toEqual(['Floor check', 'Margin board', 'Follow-ups', 'Rule sets', 'Users', 'Sites', 'Import', 'Audit', 'Mail']);
 		expect(navFor('supervisor').map((n) => n.label)).toEqual(['Floor check', 'Margin board', 'Follow-ups', 'Rule sets']);
 		expect(homeFor('technician')).toBe('/field');
 	});

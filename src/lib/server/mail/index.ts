@@ -2,7 +2,7 @@
  * E-mail through nodemailer over SMTP. Every message is recorded in the mail table first, under a
  * de-duplication key, so a job that runs twice never sends the same mail twice. Without an
  * SMTP_HOST (development, the demo, the tests) a local catcher (smtp-server) receives the mail and
- * stores it in the same table, readable at Admin → Mailbox.
+ * stores it in the same table, readable at Admin → Mail.
  */
 import nodemailer, { type Transporter } from 'nodemailer';
 import { SMTPServer } from 'smtp-server';
@@ -12,7 +12,7 @@ import { mail } from '../db/schema.ts';
 import { setting } from '../config.ts';
 
 export interface Outgoing {
-	kind: 'assignment' | 'due-soon' | 'overdue';
+	kind: 'assignment' | 'due-soon' | 'overdue' | 'test';
 	to: string;
 	subject: string;
 	text: string;
@@ -37,6 +37,20 @@ function transport(): Transporter {
 			: { host: '127.0.0.1', port: localPort(), secure: false, ignoreTLS: true }
 	);
 	return transporter;
+}
+
+/** What the mail settings are, for Admin → Mail (never the password). */
+export function mailSettings() {
+	const host = setting('SMTP_HOST');
+	return {
+		transport: host ? ('relay' as const) : usesCatcher() ? ('catcher' as const) : ('none' as const),
+		host: host ?? '127.0.0.1',
+		port: host ? Number(setting('SMTP_PORT') ?? 587) : localPort(),
+		secure: setting('SMTP_SECURE') === 'true',
+		user: setting('SMTP_USER') ?? null,
+		from: fromAddress(),
+		reminders: setting('MAIL_JOBS') !== 'false'
+	};
 }
 
 export const fromAddress = () => setting('MAIL_FROM') ?? 'Detune <detune@example.com>';
@@ -122,7 +136,7 @@ export function startCatcher(): Promise<void> {
 			resolve();
 		});
 		catcher!.listen(localPort(), '127.0.0.1', () => {
-			console.log(`[detune] local mail catcher on 127.0.0.1:${localPort()} (Admin → Mailbox)`);
+			console.log(`[detune] local mail catcher on 127.0.0.1:${localPort()} (Admin → Mail)`);
 			resolve();
 		});
 	});
