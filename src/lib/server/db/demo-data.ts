@@ -84,41 +84,30 @@ const shaft = (orders = [0.5, 1, 2, 3], speedRatio?: number, label?: string): De
 const line = (hz = 60, poles?: number, ratio = 1): DemoSource => ({ kind: 'line', params: { lineFrequencyHz: hz, drive: poles ? { poles, motorRpmPerShaftRpm: ratio } : null } });
 
 function pump(tag: string, name: string, site: string, area: string, vfd: boolean, min: number, max: number, vanes: number, poles: number, modes: DemoAsset['modes'], ruleSet = 'pumps'): DemoAsset {
-	return {
-		tag,
-		name,
-		site,
-		area,
-		machineKind: 'pump',
-		driveType: vfd ? 'vfd' : 'fixed',
-		minRpm: min,
-		maxRpm: max,
-		nominalRpm: max,
-		motorPoles: poles,
-		driveRatio: 1,
-		ruleSet,
-		sources: [shaft([1, 2]), { kind: 'vane', params: { count: vanes } }, ...(tag.endsWith('1') ? [bearing('DE', 9, 0.0254, 0.115)] : []), line(60, vfd ? poles : undefined)],
-		modes
-	};
+	const sources = [shaft([1, 2]), { kind: 'vane' as const, params: { count: vanes } }, ...(tag.endsWith('1') ? [bearing('DE', 9, 0.0254, 0.115)] : []), line(60, vfd ? poles : undefined)];
+	return machine({ tag, name, site, area, kind: 'pump', speed: vfd ? [min, max] : max, poles, ruleSet, sources, modes });
 }
 
 function fan(tag: string, name: string, site: string, area: string, vfd: boolean, min: number, max: number, blades: number, poles: number, modes: DemoAsset['modes'], ruleSet = 'fixed10'): DemoAsset {
-	return {
-		tag,
-		name,
-		site,
-		area,
-		machineKind: 'fan',
-		driveType: vfd ? 'vfd' : 'fixed',
-		minRpm: min,
-		maxRpm: max,
-		nominalRpm: max,
-		motorPoles: poles,
-		driveRatio: 1,
-		ruleSet,
-		sources: [shaft([1, 2]), { kind: 'blade', params: { count: blades } }, line(60, vfd ? poles : undefined)],
-		modes
-	};
+	const sources = [shaft([1, 2]), { kind: 'blade' as const, params: { count: blades } }, line(60, vfd ? poles : undefined)];
+	return machine({ tag, name, site, area, kind: 'fan', speed: vfd ? [min, max] : max, poles, ruleSet, sources, modes });
+}
+
+type MachineSpec = Pick<DemoAsset, 'tag' | 'name' | 'site' | 'area' | 'sources' | 'modes'> & {
+	kind: DemoAsset['machineKind'];
+	/** a fixed speed, or the [min, max] range of a variable-frequency drive, rpm */
+	speed: number | [number, number];
+	/** when it is not the top of the range */
+	nominal?: number;
+	poles: number;
+	driveRatio?: number;
+	ruleSet?: string;
+};
+
+/** One demo machine, with the defaults most of them share. */
+function machine({ kind, speed, nominal, poles, driveRatio = 1, ruleSet = 'fixed10', ...rest }: MachineSpec): DemoAsset {
+	const [minRpm, maxRpm] = typeof speed === 'number' ? [speed, speed] : speed;
+	return { ...rest, machineKind: kind, driveType: typeof speed === 'number' ? 'fixed' : 'vfd', minRpm, maxRpm, nominalRpm: nominal ?? maxRpm, motorPoles: poles, driveRatio, ruleSet };
 }
 
 const H = 'horizontal' as const;
@@ -138,92 +127,70 @@ export const DEMO_ASSETS: DemoAsset[] = [
 	pump('KRW-BWP-302', 'Backwash pump 2', 'KRW', 'Filter Gallery', true, 1200, 1780, 7, 4, [{ hz: 26.2, zeta: 0.028, direction: H, location: 'Inboard bearing' }]),
 	pump('KRW-SWP-305', 'Surface wash pump', 'KRW', 'Filter Gallery', false, 3560, 3560, 5, 2, [{ hz: 71.5, direction: H, location: 'Motor NDE' }], 'fixed10'),
 	...[1, 2, 3, 4].map(
-		(i): DemoAsset => ({
+		(i) => machine({
 			tag: `KRW-AB-40${i}`,
 			name: `Aeration blower ${i}`,
 			site: 'KRW',
 			area: 'Aeration',
-			machineKind: 'blower',
-			driveType: 'vfd',
-			minRpm: 2400,
-			maxRpm: 3560,
-			nominalRpm: 3560,
-			motorPoles: 2,
-			driveRatio: 1,
+			kind: 'blower',
+			speed: [2400, 3560],
+			poles: 2,
 			ruleSet: i <= 2 ? 'af' : 'fixed10',
 			sources: [shaft([1, 2]), { kind: 'blade', label: 'Impeller', params: { count: 13 } }, bearing('DE', 10, 0.019, 0.085, 25), line(60, 2)],
 			modes: [[44.8, 0.05], [58.3, 0.012], [52.5, 0.03], [66.0, 0.09]].slice(i - 1, i).map(([hz, zeta]) => ({ hz, zeta, direction: H, location: 'Blower casing, drive end' }))
 		})
 	),
 	...[1, 2].map(
-		(i): DemoAsset => ({
+		(i) => machine({
 			tag: `KRW-CLD-50${i}`,
 			name: `Clarifier drive ${i}`,
 			site: 'KRW',
 			area: 'Clarifiers',
-			machineKind: 'gearbox',
-			driveType: 'fixed',
-			minRpm: 1750,
-			maxRpm: 1750,
-			nominalRpm: 1750,
-			motorPoles: 4,
-			driveRatio: 1,
-			ruleSet: 'fixed10',
+			kind: 'gearbox',
+			speed: 1750,
+			poles: 4,
 			sources: [shaft([1, 2]), { kind: 'gear', label: 'First stage', params: { teeth: 19, matingTeeth: 83 } }, bearing('Input', 11, 0.0159, 0.075), line(60)],
 			modes: [{ hz: i === 1 ? 31.4 : 119.0, direction: V, location: 'Gearbox input housing' }]
 		})
 	),
-	{
+	machine({
 		tag: 'KRW-SLP-601',
 		name: 'Sludge transfer pump',
 		site: 'KRW',
 		area: 'Solids Handling',
-		machineKind: 'pump',
-		driveType: 'fixed',
-		minRpm: 620,
-		maxRpm: 620,
-		nominalRpm: 620,
-		motorPoles: 4,
+		kind: 'pump',
+		speed: 620,
+		poles: 4,
 		driveRatio: 2.85,
 		ruleSet: 'pumps',
 		sources: [shaft([1, 2, 3]), { kind: 'vane', params: { count: 3 } }, { kind: 'belt', params: { sheaveDiameter: 0.14, beltLength: 2.2, speedRatio: 2.85 } }, shaft([1], 2.85, 'Motor'), line(60)],
 		modes: [{ hz: 29.0, zeta: 0.06, direction: H, location: 'Motor base' }]
-	},
-	{
+	}),
+	machine({
 		tag: 'KRW-CMP-610',
 		name: 'Plant air compressor',
 		site: 'KRW',
 		area: 'Solids Handling',
-		machineKind: 'compressor',
-		driveType: 'fixed',
-		minRpm: 1780,
-		maxRpm: 1780,
-		nominalRpm: 1780,
-		motorPoles: 4,
-		driveRatio: 1,
-		ruleSet: 'fixed10',
+		kind: 'compressor',
+		speed: 1780,
+		poles: 4,
 		sources: [shaft([1, 2, 4]), { kind: 'gear', label: 'Bull gear', params: { teeth: 67, matingTeeth: 17 } }, line(60)],
 		modes: [{ hz: 88.5, direction: H, location: 'Cooler bracket' }]
-	},
+	}),
 	// Larkspur Board Mill
 	fan('LBM-IDF-110', 'Boiler induced-draft fan', 'LBM', 'Dryer Section', true, 500, 1190, 10, 6, [{ hz: 16.1, zeta: 0.015, direction: H, location: 'Fan bearing pedestal' }, { hz: 41.0, direction: V, location: 'Fan bearing pedestal' }]),
 	fan('LBM-FDF-111', 'Boiler forced-draft fan', 'LBM', 'Dryer Section', true, 600, 1190, 12, 6, [{ hz: 26.7, zeta: 0.022, direction: H, location: 'Motor NDE' }]),
 	fan('LBM-HXF-120', 'Hood exhaust fan 1', 'LBM', 'Dryer Section', true, 700, 1780, 8, 4, [{ hz: 22.0, direction: H, location: 'Fan inboard bearing' }]),
 	fan('LBM-HXF-121', 'Hood exhaust fan 2', 'LBM', 'Dryer Section', true, 700, 1780, 8, 4, [{ hz: 33.5, zeta: 0.02, direction: V, location: 'Fan inboard bearing' }]),
 	fan('LBM-SAF-125', 'Supply air fan', 'LBM', 'Dryer Section', false, 1180, 1180, 9, 6, [{ hz: 25.9, direction: H, location: 'Structural frame' }]),
-	{
+	machine({
 		tag: 'LBM-CTF-210',
 		name: 'Cooling tower fan (gearbox)',
 		site: 'LBM',
 		area: 'Cooling Tower',
-		machineKind: 'fan',
-		driveType: 'vfd',
-		minRpm: 600,
-		maxRpm: 1780,
-		nominalRpm: 1780,
-		motorPoles: 4,
-		driveRatio: 1,
-		ruleSet: 'fixed10',
+		kind: 'fan',
+		speed: [600, 1780],
+		poles: 4,
 		sources: [
 			shaft([1, 2], undefined, 'Motor'),
 			{ kind: 'gear', label: 'Right-angle set', params: { teeth: 14, matingTeeth: 161 } },
@@ -233,155 +200,115 @@ export const DEMO_ASSETS: DemoAsset[] = [
 			line(60, 4)
 		],
 		modes: [{ hz: 8.9, zeta: 0.02, direction: H, location: 'Motor, on torque tube' }, { hz: 3.1, direction: H, location: 'Fan deck' }]
-	},
-	{
+	}),
+	machine({
 		tag: 'LBM-CTF-211',
 		name: 'Cooling tower fan 2 (gearbox)',
 		site: 'LBM',
 		area: 'Cooling Tower',
-		machineKind: 'fan',
-		driveType: 'fixed',
-		minRpm: 1780,
-		maxRpm: 1780,
-		nominalRpm: 1780,
-		motorPoles: 4,
-		driveRatio: 1,
-		ruleSet: 'fixed10',
+		kind: 'fan',
+		speed: 1780,
+		poles: 4,
 		sources: [shaft([1, 2], undefined, 'Motor'), { kind: 'gear', params: { teeth: 14, matingTeeth: 161 } }, { kind: 'blade', label: 'Fan', params: { count: 6, speedRatio: 14 / 161 } }, line(60)],
 		modes: [{ hz: 12.4, direction: H, location: 'Motor, on torque tube' }]
-	},
+	}),
 	...[1, 2, 3, 4].map(
-		(i): DemoAsset => ({
+		(i) => machine({
 			tag: `LBM-VP-31${i}`,
 			name: `Vacuum pump ${i}`,
 			site: 'LBM',
 			area: 'Vacuum System',
-			machineKind: 'pump',
-			driveType: 'fixed',
-			minRpm: 505,
-			maxRpm: 505,
-			nominalRpm: 505,
-			motorPoles: 6,
+			kind: 'pump',
+			speed: 505,
+			poles: 6,
 			driveRatio: 2.34,
-			ruleSet: 'fixed10',
 			sources: [shaft([1, 2, 3]), { kind: 'vane', label: 'Rotor', params: { count: 24 } }, { kind: 'belt', params: { sheaveDiameter: 0.25, beltLength: 3.6, speedRatio: 2.34 } }, shaft([1], 2.34, 'Motor'), line(60)],
 			modes: [{ hz: [8.1, 17.3, 19.7, 25.2][i - 1], zeta: 0.03, direction: H, location: 'Pump base, drive end' }]
 		})
 	),
-	{
+	machine({
 		tag: 'LBM-RF-410',
 		name: 'Double-disc refiner 1',
 		site: 'LBM',
 		area: 'Refining',
-		machineKind: 'refiner',
-		driveType: 'fixed',
-		minRpm: 1200,
-		maxRpm: 1200,
-		nominalRpm: 1200,
-		motorPoles: 6,
-		driveRatio: 1,
-		ruleSet: 'fixed10',
+		kind: 'refiner',
+		speed: 1200,
+		poles: 6,
 		sources: [shaft([1, 2, 3]), bearing('Rotor', 16, 0.032, 0.2, 15), line(60)],
 		modes: [{ hz: 21.7, zeta: 0.04, direction: A, location: 'Refiner housing' }]
-	},
-	{
+	}),
+	machine({
 		tag: 'LBM-RF-411',
 		name: 'Double-disc refiner 2',
 		site: 'LBM',
 		area: 'Refining',
-		machineKind: 'refiner',
-		driveType: 'vfd',
-		minRpm: 900,
-		maxRpm: 1200,
-		nominalRpm: 1200,
-		motorPoles: 6,
-		driveRatio: 1,
-		ruleSet: 'fixed10',
+		kind: 'refiner',
+		speed: [900, 1200],
+		poles: 6,
 		sources: [shaft([1, 2, 3]), bearing('Rotor', 16, 0.032, 0.2, 15), line(60, 6)],
 		modes: [{ hz: 42.0, zeta: 0.05, direction: A, location: 'Refiner housing' }]
-	},
+	}),
 	pump('LBM-STP-501', 'Machine chest stock pump', 'LBM', 'Stock Preparation', true, 900, 1780, 6, 4, [{ hz: 36.6, zeta: 0.03, direction: H, location: 'Pump bearing frame' }], 'fixed10'),
 	pump('LBM-STP-502', 'Blend chest stock pump', 'LBM', 'Stock Preparation', true, 900, 1780, 6, 4, [{ hz: 13.0, zeta: 0.02, direction: H, location: 'Baseplate' }], 'fixed10'),
 	pump('LBM-FPP-505', 'Fan pump', 'LBM', 'Stock Preparation', true, 600, 1190, 7, 6, [{ hz: 23.5, zeta: 0.025, direction: H, location: 'Discharge pipe support' }, { hz: 81.0, direction: V, location: 'Casing' }], 'fixed10'),
 	pump('LBM-WWP-507', 'White water pump', 'LBM', 'Stock Preparation', false, 1780, 1780, 6, 4, [{ hz: 44.2, direction: H, location: 'Motor NDE' }], 'fixed10'),
-	{
+	machine({
 		tag: 'LBM-AG-520',
 		name: 'Pulper agitator',
 		site: 'LBM',
 		area: 'Stock Preparation',
-		machineKind: 'agitator',
-		driveType: 'fixed',
-		minRpm: 1780,
-		maxRpm: 1780,
-		nominalRpm: 1780,
-		motorPoles: 4,
-		driveRatio: 1,
-		ruleSet: 'fixed10',
+		kind: 'agitator',
+		speed: 1780,
+		poles: 4,
 		sources: [shaft([1, 2], undefined, 'Motor'), { kind: 'gear', params: { teeth: 21, matingTeeth: 97 } }, shaft([1], 21 / 97, 'Rotor'), { kind: 'blade', label: 'Rotor', params: { count: 4, speedRatio: 21 / 97 } }, line(60)],
 		modes: [{ hz: 6.8, direction: H, location: 'Gearbox top' }]
-	},
-	{
+	}),
+	machine({
 		tag: 'LBM-HPU-530',
 		name: 'Press hydraulic unit',
 		site: 'LBM',
 		area: 'Dryer Section',
-		machineKind: 'pump',
-		driveType: 'fixed',
-		minRpm: 1780,
-		maxRpm: 1780,
-		nominalRpm: 1780,
-		motorPoles: 4,
-		driveRatio: 1,
-		ruleSet: 'fixed10',
+		kind: 'pump',
+		speed: 1780,
+		poles: 4,
 		sources: [shaft([1, 2]), { kind: 'vane', label: 'Piston', params: { count: 9 } }, line(60), { kind: 'fixed', label: 'Accumulator charge valve', params: { frequencyHz: 118 } }],
 		modes: [{ hz: 119.5, direction: V, location: 'Tank lid' }]
-	},
-	{
+	}),
+	machine({
 		tag: 'LBM-MOT-540',
 		name: 'Dryer drive motor',
 		site: 'LBM',
 		area: 'Dryer Section',
-		machineKind: 'motor',
-		driveType: 'vfd',
-		minRpm: 300,
-		maxRpm: 1780,
-		nominalRpm: 1200,
-		motorPoles: 4,
-		driveRatio: 1,
+		kind: 'motor',
+		speed: [300, 1780],
+		nominal: 1200,
+		poles: 4,
 		ruleSet: 'af',
 		sources: [shaft([1, 2]), bearing('DE', 9, 0.0238, 0.11), line(60, 4)],
 		modes: [{ hz: 24.8, zeta: 0.08, direction: H, location: 'Motor frame' }]
-	},
-	{
+	}),
+	machine({
 		tag: 'LBM-CMP-550',
 		name: 'Instrument air compressor',
 		site: 'LBM',
 		area: 'Vacuum System',
-		machineKind: 'compressor',
-		driveType: 'fixed',
-		minRpm: 3570,
-		maxRpm: 3570,
-		nominalRpm: 3570,
-		motorPoles: 2,
-		driveRatio: 1,
-		ruleSet: 'fixed10',
+		kind: 'compressor',
+		speed: 3570,
+		poles: 2,
 		sources: [shaft([1, 2]), { kind: 'gear', params: { teeth: 88, matingTeeth: 21 } }, line(60)],
 		modes: [{ hz: 68.0, direction: H, location: 'Skid frame' }]
-	},
-	{
+	}),
+	machine({
 		tag: 'LBM-BLW-560',
 		name: 'Felt-run vacuum blower',
 		site: 'LBM',
 		area: 'Vacuum System',
-		machineKind: 'blower',
-		driveType: 'vfd',
-		minRpm: 2000,
-		maxRpm: 3580,
-		nominalRpm: 3000,
-		motorPoles: 2,
-		driveRatio: 1,
+		kind: 'blower',
+		speed: [2000, 3580],
+		nominal: 3000,
+		poles: 2,
 		ruleSet: 'af',
 		sources: [shaft([1, 2]), { kind: 'blade', params: { count: 11 } }, line(60, 2)],
 		modes: [{ hz: 51.0, zeta: 0.03, direction: H, location: 'Blower bearing housing' }]
-	}
+	})
 ];
