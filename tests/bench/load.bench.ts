@@ -5,9 +5,8 @@
  * hold exactly the unique checks sent.
  */
 import autocannon from 'autocannon';
-import Database from 'better-sqlite3';
-import { join } from 'node:path';
-import { startServer, signInCookie } from './server.ts';
+import { startServer, signInCookie, withDatabase } from './server.ts';
+import { checkItem } from '../support/check-item.ts';
 import { percentile, type Figure } from './harness.ts';
 
 const CONNECTIONS = 50;
@@ -33,30 +32,12 @@ export async function loadBench(): Promise<Figure[]> {
 		const supervisor = await signInCookie(server.origin, 'super@example.com', 'super-demo-2026');
 		const pull = await (await fetch(`${server.origin}/api/sync/pull?since=0`, { headers: { cookie: tech } })).json();
 		const assets = pull.assets as { id: string; minRpm: number; maxRpm: number }[];
-		const dbFile = join(server.dir, 'bench.db');
-		const countChecks = () => {
-			const db = new Database(dbFile, { readonly: true });
-			try {
-				return (db.prepare('select count(*) as n from checks').get() as { n: number }).n;
-			} finally {
-				db.close();
-			}
-		};
+		const countChecks = () => withDatabase(server.dbFile, (db) => (db.prepare('select count(*) as n from checks').get() as { n: number }).n);
 		const before = countChecks();
 
 		const item = (id: string, i: number) => {
 			const a = assets[i % assets.length];
-			return {
-				id,
-				assetId: a.id,
-				checkedAt: Date.now() - (i % 86_400) * 1000,
-				measuredRpm: (a.minRpm + a.maxRpm) / 2,
-				driveSetpointHz: null,
-				notes: 'load test',
-				replacesCheckId: null,
-				modes: [{ frequencyHz: 12 + (i % 80), dampingRatio: 0.03, direction: 'horizontal', location: null, origin: 'typed' }],
-				device: { verdict: 'clear', verdictAtSpeed: 'clear', worstMarginAtSpeedPct: null, worstMarginOverRangePct: null }
-			};
+			return checkItem(a.id, (a.minRpm + a.maxRpm) / 2, { id, checkedAt: Date.now() - (i % 86_400) * 1000, notes: 'load test', modes: [{ hz: 12 + (i % 80), zeta: 0.03 }] });
 		};
 		const unanswered = new Map<number, string>(); // batches sent whose answer has not come
 		const stored: string[] = []; // ids the server has answered "applied" for
@@ -140,15 +121,7 @@ export async function loadBench(): Promise<Figure[]> {
 			const answer = (await r.json()) as { results: { status: string }[] };
 			if (r.status !== 200 || answer.results.some((x) => x.status !== 'applied' && x.status !== 'duplicate')) unexpected++;
 		}
-		const missing = (() => {
-			const db = new Database(dbFile, { readonly: true });
-			try {
-				const found = db.prepare('select count(*) as n from checks where id in (select value from json_each(?))').get(JSON.stringify([...unique])) as { n: number };
-				return unique.size - found.n;
-			} finally {
-				db.close();
-			}
-		})();
+		const missing = unique.size - withDatabase(server.dbFile, (db) => (db.prepare('select count(*) as n from checks where id in (select value from json_each(?))').get(JSON.stringify([...unique])) as { n: number }).n);
 		const after = countChecks();
 		const gained = after - before;
 

@@ -5,6 +5,7 @@
 import { gzipSync } from 'node:zlib';
 import { chromium } from '@playwright/test';
 import { startServer, signInCookie } from './server.ts';
+import { checkItem } from '../support/check-item.ts';
 import type { Figure } from './harness.ts';
 
 export async function syncBench(): Promise<Figure[]> {
@@ -15,20 +16,13 @@ export async function syncBench(): Promise<Figure[]> {
 		const assets = pull.assets as { id: string; minRpm: number; maxRpm: number }[];
 		const items = Array.from({ length: 500 }, (_, i) => {
 			const a = assets[i % assets.length];
-			return {
-				id: crypto.randomUUID(),
-				assetId: a.id,
+			return checkItem(a.id, (a.minRpm + a.maxRpm) / 2, {
 				checkedAt: Date.now() - i * 1000,
-				measuredRpm: (a.minRpm + a.maxRpm) / 2,
-				driveSetpointHz: null,
-				notes: '',
-				replacesCheckId: null,
 				modes: [
-					{ frequencyHz: 10 + (i % 50), dampingRatio: 0.02, direction: 'horizontal', location: null, origin: 'typed' },
-					{ frequencyHz: 60 + (i % 30), dampingRatio: null, direction: 'vertical', location: null, origin: 'typed' }
-				],
-				device: { verdict: 'clear', verdictAtSpeed: 'clear', worstMarginAtSpeedPct: null, worstMarginOverRangePct: null }
-			};
+					{ hz: 10 + (i % 50), zeta: 0.02 },
+					{ hz: 60 + (i % 30), zeta: null, direction: 'vertical' }
+				]
+			});
 		});
 		const t0 = performance.now();
 		let applied = 0;

@@ -6,11 +6,11 @@
  * gain, lose or change a row. Oversized uploads must be refused before their body is read.
  */
 import { expect, test } from '@playwright/test';
-import Database from 'better-sqlite3';
 import fc from 'fast-check';
 import { connect } from 'node:net';
-import { cleanDir, startOwnServer, type OwnServer } from './own-server.ts';
+import { cleanDir, signInCookie, startBuiltServer, withDatabase, type BuiltServer } from '../support/built-server.ts';
 import { demoUser } from './helpers.ts';
+import { checkItem } from '../support/check-item.ts';
 import type { Role } from '../../src/lib/roles.ts';
 
 const PORT = 4182;
@@ -19,17 +19,15 @@ const DIR = '.e2e/bad-input';
 const RUNS = Number(process.env.FUZZ_RUNS ?? 25);
 const HUGE = 'x'.repeat(100_000);
 
-let server: OwnServer;
+let server: BuiltServer;
 const cookies = {} as Record<Role, string>;
 
 test.beforeAll(async () => {
 	cleanDir(DIR);
-	server = await startOwnServer(PORT, DIR);
+	server = await startBuiltServer(PORT, { dir: DIR, env: { DETUNE_TEST_FAULTS: '1' } });
 	for (const role of ['technician', 'supervisor', 'planner', 'admin'] as Role[]) {
 		const u = demoUser(role);
-		const res = await fetch(`${server.origin}/login`, { method: 'POST', headers: { 'content-type': 'application/x-www-form-urlencoded', origin: server.origin, accept: 'text/html' }, body: new URLSearchParams({ email: u.email, password: u.password }), redirect: 'manual' });
-		expect(res.status).toBe(303);
-		cookies[role] = res.headers.get('set-cookie')!.split(';')[0];
+		cookies[role] = await signInCookie(server.origin, u.email, u.password);
 	}
 });
 
@@ -40,23 +38,13 @@ test.afterAll(async () => {
 
 /** Every table's rows, hashed, except the sessions that signing in itself makes. */
 function snapshot(): Record<string, string> {
-	const db = new Database(server.dbFile, { readonly: true });
-	try {
+	return withDatabase(server.dbFile, (db) => {
 		const tables = (db.prepare("select name from sqlite_master where type = 'table' and name not in ('sessions', 'sqlite_sequence')").all() as { name: string }[]).map((t) => t.name);
 		return Object.fromEntries(tables.map((t) => [t, JSON.stringify(db.prepare(`select * from "${t}" order by rowid`).raw().all())]));
-	} finally {
-		db.close();
-	}
+	});
 }
 
-function one<T>(sql: string): T {
-	const db = new Database(server.dbFile, { readonly: true });
-	try {
-		return db.prepare(sql).get() as T;
-	} finally {
-		db.close();
-	}
-}
+const one = <T>(sql: string): T => withDatabase(server.dbFile, (db) => db.prepare(sql).get() as T);
 
 /** What kind of value a field takes, and values that are always wrong for it. */
 const BAD: Record<string, string[]> = {
@@ -230,17 +218,7 @@ test.describe('bad input is refused with a message and changes nothing', () => {
 		expect(snapshot()).toEqual(before);
 	});
 
-	const validItem = () => ({
-		id: crypto.randomUUID(),
-		assetId: ids.asset,
-		checkedAt: Date.now(),
-		measuredRpm: 1185,
-		driveSetpointHz: null,
-		notes: '',
-		replacesCheckId: null,
-		modes: [{ frequencyHz: 30, dampingRatio: 0.03, direction: 'horizontal', location: null, origin: 'typed' }],
-		device: { verdict: 'clear', verdictAtSpeed: 'clear', worstMarginAtSpeedPct: null, worstMarginOverRangePct: null }
-	});
+	const validItem = () => checkItem(ids.asset, 1185);
 
 	/** JSON values that are wrong wherever a check's field wants something else. */
 	const junk = fc.oneof(

@@ -4,8 +4,7 @@
  * it again — every check arrives exactly once.
  */
 import { expect, test } from '@playwright/test';
-import Database from 'better-sqlite3';
-import { cleanDir, startOwnServer } from './own-server.ts';
+import { cleanDir, startBuiltServer, withDatabase } from '../support/built-server.ts';
 import { openFieldOnline, outboxCount, saveChecks } from './floor.ts';
 
 const PORT = 4181;
@@ -13,23 +12,21 @@ const DIR = '.e2e/killed';
 
 test.afterAll(() => cleanDir(DIR));
 
+/** Opened read-write: after a SIGKILL the first opener rolls back the write-ahead log. */
 function inspect(file: string, ids: string[]) {
-	const db = new Database(file);
-	try {
+	return withDatabase(file, (db) => {
 		const integrity = db.pragma('integrity_check', { simple: true });
 		const stored = (db.prepare('select count(*) as n from checks where id in (select value from json_each(?))').get(JSON.stringify(ids)) as { n: number }).n;
 		const modes = (db.prepare('select count(*) as n from modes where check_id in (select value from json_each(?))').get(JSON.stringify(ids)) as { n: number }).n;
 		const total = (db.prepare('select count(*) as n from checks').get() as { n: number }).n;
 		return { integrity, stored, modes, total };
-	} finally {
-		db.close();
-	}
+	}, {});
 }
 
 test('SIGKILL mid-batch: the database is intact, no half batch is stored, the tablet retries and nothing is lost or doubled', async ({ browser }) => {
 	test.setTimeout(150_000);
 	cleanDir(DIR);
-	let server = await startOwnServer(PORT, DIR);
+	let server = await startBuiltServer(PORT, { dir: DIR, env: { DETUNE_TEST_FAULTS: '1' } });
 	const context = await browser.newContext({ baseURL: server.origin });
 	const page = await context.newPage();
 	try {
@@ -60,7 +57,7 @@ test('SIGKILL mid-batch: the database is intact, no half batch is stored, the ta
 		await expect(page.getByTestId('sync-state')).toHaveText('Sync failed');
 		expect(await outboxCount(page)).toBe(3);
 
-		server = await startOwnServer(PORT, DIR);
+		server = await startBuiltServer(PORT, { dir: DIR, env: { DETUNE_TEST_FAULTS: '1' } });
 		await page.getByRole('button', { name: 'Sync now' }).click();
 		await expect.poll(() => outboxCount(page), { timeout: 20_000 }).toBe(0);
 		const unique = [...new Set(ids)];

@@ -1,7 +1,7 @@
 import { expect, test } from '@playwright/test';
 import AxeBuilder from '@axe-core/playwright';
 import { demoUser, signIn } from './helpers.ts';
-import { cleanDir, startOwnServer, type OwnServer } from './own-server.ts';
+import { cleanDir, postSignIn, startBuiltServer, type BuiltServer } from '../support/built-server.ts';
 
 test.describe('security headers', () => {
 	test('pages carry a CSP that forbids framing, and every answer says nosniff and a referrer policy', async ({ page }) => {
@@ -65,17 +65,16 @@ test.describe('accessibility (axe-core)', () => {
 test.describe('sign-in on a server behind TLS', () => {
 	const PORT = 4183;
 	const DIR = '.e2e/secure';
-	let server: OwnServer;
+	let server: BuiltServer;
 	test.beforeAll(async () => {
 		cleanDir(DIR);
-		server = await startOwnServer(PORT, DIR, { COOKIE_SECURE: 'true' });
+		server = await startBuiltServer(PORT, { dir: DIR, env: { COOKIE_SECURE: 'true' } });
 	});
 	test.afterAll(async () => {
 		await server?.kill('SIGTERM');
 		cleanDir(DIR);
 	});
-	const attempt = (email: string, password: string) =>
-		fetch(`${server.origin}/login`, { method: 'POST', headers: { 'content-type': 'application/x-www-form-urlencoded', origin: server.origin, accept: 'text/html' }, body: new URLSearchParams({ email, password }), redirect: 'manual' });
+	const attempt = (email: string, password: string) => postSignIn(server.origin, email, password);
 
 	test('the session cookie is HttpOnly, Secure and SameSite=Lax', async () => {
 		const u = demoUser('planner');

@@ -18,5 +18,5 @@ export function inTurn<T>(work: () => T): Promise<T> {
 	return run;
 }
 
-/** How many writes wait for their turn (for the health route and the tests). */
+/** How many writes wait for their turn. */
 export const queued = () => waiting;

@@ -10,6 +10,7 @@ import { nextVersion } from './versions.ts';
 import { refreshAsset } from './status.ts';
 import * as audit from './audit.ts';
 import type { AssetForm } from '../../schemas/asset.ts';
+import type { Tx } from './client.ts';
 
 function changed<T extends Record<string, unknown>>(before: T, after: Partial<T>) {
 	const b: Record<string, unknown> = {};
@@ -43,7 +44,7 @@ export function updateAsset(id: string, form: AssetForm, actorId: string, now = 
 	});
 }
 
-function touchAsset(tx: Parameters<Parameters<typeof db.transaction>[0]>[0], assetId: string, now: number) {
+function touchAsset(tx: Tx, assetId: string, now: number) {
 	tx.update(assets).set({ version: nextVersion(tx), updatedAt: now }).where(eq(assets.id, assetId)).run();
 }
 

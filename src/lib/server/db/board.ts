@@ -20,6 +20,9 @@ function staleExpr(bind: Bind, now: number): SQL<number> {
 	return sql<number>`(${assetStatus.staleAfter} is not null and ${assetStatus.staleAfter} < ${bind('now', now)})`;
 }
 
+/** `contains` as a LIKE pattern: `%`, `_` and the escape character are searched as themselves. */
+const searchPattern = (text: string) => `%${text.replace(/[\\%_]/g, (m) => `\\${m}`)}%`;
+
 function conditions(q: BoardQuery, now: number, scope: string[] | 'all', withVerdict: boolean, bind: Bind = asValue): SQL | undefined {
 	const c: (SQL | undefined)[] = [];
 	if (scope !== 'all') c.push(scope.length ? sql`${assetStatus.siteId} in (${sql.join(scope.map((id, i) => sql`${bind(`scope${i}`, id)}`), sql`, `)})` : sql`0`);
@@ -30,7 +33,7 @@ function conditions(q: BoardQuery, now: number, scope: string[] | 'all', withVer
 	if (q.stale === 'yes') c.push(sql`${assetStatus.staleAfter} < ${bind('now', now)}`);
 	if (q.stale === 'no') c.push(sql`(${assetStatus.staleAfter} is null or ${assetStatus.staleAfter} >= ${bind('now', now)})`);
 	if (q.q) {
-		const pattern = `%${q.q.replace(/[\\%_]/g, (m) => `\\${m}`)}%`;
+		const pattern = searchPattern(q.q);
 		c.push(or(sql`${assetStatus.tag} like ${bind('pattern', pattern)} escape '\\'`, sql`${assetStatus.name} like ${bind('pattern', pattern)} escape '\\'`));
 	}
 	return c.length ? and(...c) : undefined;
@@ -44,7 +47,7 @@ function values(q: BoardQuery, now: number, scope: string[] | 'all'): Record<str
 	if (q.area) v.area = q.area;
 	if (q.kind) v.kind = q.kind;
 	if (q.verdict) v.verdict = q.verdict;
-	if (q.q) v.pattern = `%${q.q.replace(/[\\%_]/g, (m) => `\\${m}`)}%`;
+	if (q.q) v.pattern = searchPattern(q.q);
 	return v;
 }
 

@@ -10,6 +10,8 @@ import { migrate } from 'drizzle-orm/better-sqlite3/migrator';
 import * as schema from './schema.ts';
 
 export type Db = BetterSQLite3Database<typeof schema>;
+/** What a query module needs of a transaction (or of the database itself, outside one). */
+export type Tx = Pick<Db, 'select' | 'insert' | 'update' | 'delete'>;
 
 /** The embedded default: a file under data/ (git-ignored) beside the project. */
 export const DEFAULT_DATABASE_URL = 'data/detune.db';

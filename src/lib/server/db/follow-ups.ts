@@ -9,9 +9,8 @@ import { assets, checks, followUps, sites, users } from './schema.ts';
 import { refreshAsset } from './status.ts';
 import * as audit from './audit.ts';
 import type { FollowUpCreate, FollowUpUpdate } from '../../schemas/follow-up.ts';
-import type { Db } from './client.ts';
+import type { Tx } from './client.ts';
 
-type Tx = Pick<Db, 'select' | 'insert' | 'update' | 'delete'>;
 
 export class FollowUpError extends Error {}
 

@@ -8,6 +8,7 @@ import { areas, assets, assetStatus, sites } from './schema.ts';
 import { nextVersion } from './versions.ts';
 import * as audit from './audit.ts';
 import type { SiteForm } from '../../schemas/site.ts';
+import type { Tx } from './client.ts';
 
 const DAY = 86_400_000;
 
@@ -70,7 +71,7 @@ export function updateSite(id: string, form: Omit<SiteForm, 'code'>, actorId: st
 	});
 }
 
-function nameTaken(tx: Parameters<Parameters<typeof db.transaction>[0]>[0], siteId: string, name: string, exceptId: string | null): boolean {
+function nameTaken(tx: Tx, siteId: string, name: string, exceptId: string | null): boolean {
 	const rows = tx
 		.select({ id: areas.id })
 		.from(areas)

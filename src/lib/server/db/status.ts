@@ -4,12 +4,11 @@
  * synchronous, so the status changes with the write that causes it, or not at all.
  */
 import { and, asc, desc, eq, ne, sql } from 'drizzle-orm';
-import type { Db } from './client.ts';
+import type { Tx } from './client.ts';
 import { assetStatus, assets, checks, excitationSources, followUps, modes, ruleSets, sites, users } from './schema.ts';
 import { computeCheck, type CheckSummary } from '../../checks/compute.ts';
 import { VERDICT_RANK } from '../../vibration/index.ts';
 
-type Tx = Pick<Db, 'select' | 'insert' | 'update' | 'delete'>;
 
 export interface StatusRow {
 	latestCheckId: string | null;

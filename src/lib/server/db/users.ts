@@ -4,6 +4,7 @@ import { db } from './index.ts';
 import { sites, userSites, users, type User } from './schema.ts';
 import * as audit from './audit.ts';
 import type { Role } from '../../roles.ts';
+import type { Tx } from './client.ts';
 
 export class LastAdminError extends Error {
 	constructor() {
@@ -26,7 +27,6 @@ export class UnknownSiteError extends Error {
 	}
 }
 
-type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];
 
 function checkSites(tx: Tx, siteIds: string[]): void {
 	if (siteIds.length === 0) return;

@@ -18,6 +18,7 @@ import { inScope, visibleSiteIds } from '../db/assets.ts';
 import { computeCheck, sameSummary } from '../../checks/compute.ts';
 import { checkPush, type ItemResult, type PushResponse } from '../../schemas/sync.ts';
 import type { Role } from '../../roles.ts';
+import type { Tx } from '../db/client.ts';
 
 export interface PushOptions {
 	/** test hook (only with DETUNE_TEST_FAULTS=1): throw at this 1-based item */
@@ -57,7 +58,6 @@ function holdForKill(item: number): void {
 	Atomics.wait(new Int32Array(new SharedArrayBuffer(4)), 0, 0, 60_000);
 }
 
-type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];
 
 function applyOne(tx: Tx, user: { id: string; name?: string }, scope: string[] | 'all', raw: unknown, now: number): ItemResult {
 	const parsed = checkPush.safeParse(raw);

@@ -7,9 +7,9 @@ import { fieldErrors, formToObject } from '$lib/schemas/form';
 
 const unitsForm = z.object({ unitSystem: z.enum(['metric', 'us'], { error: 'Units: metric or US customary.' }) }).strict();
 
+// the current choice comes with the layout's user
 export const load: PageServerLoad = (event) => {
-	const user = requireUser(event);
-	return { unitSystem: user.unitSystem };
+	requireUser(event);
 };
 
 export const actions: Actions = {

@@ -6,6 +6,7 @@ import * as assetQueries from '$lib/server/db/assets';
 import { ingest } from '$lib/server/recordings';
 import { MAX_RECORDING_BYTES, RecordingError } from '$lib/recordings/types';
 import { isUuid } from '$lib/ids';
+import { declaredLength } from '$lib/server/body';
 
 
 /**
@@ -20,8 +21,8 @@ export const POST: RequestHandler = async (event) => {
 	const name = (q.get('name') ?? '').replace(/[\\/\0]/g, '_').slice(0, 200);
 	if (!isUuid(id)) error(400, { message: 'id must be a UUID made on the device.', code: 'bad-id' });
 	if (!name) error(400, { message: 'name (the file name) is missing.', code: 'bad-name' });
-	const declared = Number(event.request.headers.get('content-length') ?? 'NaN');
-	if (Number.isFinite(declared) && declared > MAX_RECORDING_BYTES) error(413, { message: `Recordings may be at most 50 MB; this one is ${(declared / 1048576).toFixed(1)} MB.`, code: 'too-large' });
+	const declared = declaredLength(event.request);
+	if (declared !== null && declared > MAX_RECORDING_BYTES) error(413, { message: `Recordings may be at most 50 MB; this one is ${(declared / 1048576).toFixed(1)} MB.`, code: 'too-large' });
 	const type = event.request.headers.get('content-type') ?? '';
 	if (!/^(text\/csv|text\/plain|audio\/(x-)?wav|application\/octet-stream)/.test(type)) error(415, { message: 'Send a CSV (text/csv) or WAV (audio/wav) file.', code: 'bad-content-type' });
 	const asset = assetQueries.byId(assetId);

@@ -3,6 +3,7 @@ import type { Actions, PageServerLoad } from './$types';
 import { requireRole, requireUser } from '$lib/server/guard';
 import * as importer from '$lib/server/db/import';
 import { inTurn } from '$lib/server/turns';
+import { declaredLength } from '$lib/server/body';
 
 const MAX = 2 * 1024 * 1024;
 
@@ -13,8 +14,8 @@ export const load: PageServerLoad = (event) => {
 
 async function textOf(request: Request): Promise<{ text: string } | { error: string; status?: number }> {
 	// refuse from the declared length, before reading a body that cannot be an asset list
-	const declared = Number(request.headers.get('content-length') ?? 'NaN');
-	if (Number.isFinite(declared) && declared > MAX + 64 * 1024) return { error: `The upload is ${(declared / 1048576).toFixed(1)} MB; an asset list may be at most 2 MB.`, status: 413 };
+	const declared = declaredLength(request);
+	if (declared !== null && declared > MAX + 64 * 1024) return { error: `The upload is ${(declared / 1048576).toFixed(1)} MB; an asset list may be at most 2 MB.`, status: 413 };
 	let form: FormData;
 	try {
 		form = await request.formData();

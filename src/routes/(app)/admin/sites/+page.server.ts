@@ -1,5 +1,6 @@
 import { fail } from '@sveltejs/kit';
-import type { Actions, PageServerLoad } from './$types';
+import type { z } from 'zod';
+import type { Actions, PageServerLoad, RequestEvent } from './$types';
 import { requireRole, requireUser } from '$lib/server/guard';
 import * as siteQueries from '$lib/server/db/sites';
 import { areaCreate, areaRename, siteForm, siteUpdate } from '$lib/schemas/site';
@@ -10,61 +11,40 @@ export const load: PageServerLoad = (event) => {
 	return { sites: siteQueries.list() };
 };
 
-function siteFailure(action: string, id: string, e: unknown) {
-	if (e instanceof siteQueries.SiteError) return fail(e.status, { action, id, errors: { [e.field]: e.message } });
-	throw e;
+/**
+ * Every action here: an admin's form, parsed; on success `run` answers the message; a bad form or
+ * a SiteError comes back as field messages under the row it belongs to (`idKey` names that row).
+ */
+async function act<S extends z.ZodType<Record<string, unknown>>>(event: RequestEvent, action: string, schema: S, idKey: string, run: (data: z.infer<S>, actorId: string) => string) {
+	const actor = requireRole(event, ['admin']);
+	const raw = formToObject(await event.request.formData());
+	const id = idKey === 'new' ? 'new' : String(raw[idKey] ?? '');
+	const parsed = schema.safeParse(raw);
+	if (!parsed.success) return fail(400, { action, id, values: raw, errors: fieldErrors(parsed.error) });
+	try {
+		return { action, id, done: run(parsed.data, actor.id) };
+	} catch (e) {
+		if (e instanceof siteQueries.SiteError) return fail(e.status, { action, id, values: raw, errors: { [e.field]: e.message } });
+		throw e;
+	}
 }
 
 export const actions: Actions = {
-	createSite: async (event) => {
-		const actor = requireRole(event, ['admin']);
-		const raw = formToObject(await event.request.formData());
-		const parsed = siteForm.safeParse(raw);
-		const values = { code: String(raw.code ?? ''), name: String(raw.name ?? ''), recheckDays: String(raw.recheckDays ?? '') };
-		if (!parsed.success) return fail(400, { action: 'createSite', id: 'new', values, errors: fieldErrors(parsed.error) });
-		try {
-			siteQueries.createSite(parsed.data, actor.id);
-		} catch (e) {
-			return siteFailure('createSite', 'new', e);
-		}
-		return { action: 'createSite', id: 'new', done: `Site ${parsed.data.code} added.` };
-	},
-	updateSite: async (event) => {
-		const actor = requireRole(event, ['admin']);
-		const raw = formToObject(await event.request.formData());
-		const parsed = siteUpdate.safeParse(raw);
-		if (!parsed.success) return fail(400, { action: 'updateSite', id: String(raw.id ?? ''), errors: fieldErrors(parsed.error) });
-		try {
-			const { id, ...form } = parsed.data;
-			const r = siteQueries.updateSite(id, form, actor.id);
-			const done = !r.changed ? 'Nothing changed.' : r.restaled ? `Saved; the stale date of ${r.restaled} asset${r.restaled === 1 ? '' : 's'} moved with the new interval.` : 'Saved.';
-			return { action: 'updateSite', id, done };
-		} catch (e) {
-			return siteFailure('updateSite', parsed.data.id, e);
-		}
-	},
-	addArea: async (event) => {
-		const actor = requireRole(event, ['admin']);
-		const raw = formToObject(await event.request.formData());
-		const parsed = areaCreate.safeParse(raw);
-		if (!parsed.success) return fail(400, { action: 'addArea', id: String(raw.siteId ?? ''), errors: fieldErrors(parsed.error) });
-		try {
-			siteQueries.createArea(parsed.data.siteId, parsed.data.name, actor.id);
-		} catch (e) {
-			return siteFailure('addArea', parsed.data.siteId, e);
-		}
-		return { action: 'addArea', id: parsed.data.siteId, done: `Area ${parsed.data.name} added.` };
-	},
-	renameArea: async (event) => {
-		const actor = requireRole(event, ['admin']);
-		const raw = formToObject(await event.request.formData());
-		const parsed = areaRename.safeParse(raw);
-		if (!parsed.success) return fail(400, { action: 'renameArea', id: String(raw.id ?? ''), errors: fieldErrors(parsed.error) });
-		try {
-			const changed = siteQueries.renameArea(parsed.data.id, parsed.data.name, actor.id);
-			return { action: 'renameArea', id: parsed.data.id, done: changed ? 'Area renamed.' : 'Nothing changed.' };
-		} catch (e) {
-			return siteFailure('renameArea', parsed.data.id, e);
-		}
-	}
+	createSite: (event) =>
+		act(event, 'createSite', siteForm, 'new', (form, actorId) => {
+			siteQueries.createSite(form, actorId);
+			return `Site ${form.code} added.`;
+		}),
+	updateSite: (event) =>
+		act(event, 'updateSite', siteUpdate, 'id', ({ id, ...form }, actorId) => {
+			const r = siteQueries.updateSite(id, form, actorId);
+			if (!r.changed) return 'Nothing changed.';
+			return r.restaled ? `Saved; the stale date of ${r.restaled} asset${r.restaled === 1 ? '' : 's'} moved with the new interval.` : 'Saved.';
+		}),
+	addArea: (event) =>
+		act(event, 'addArea', areaCreate, 'siteId', ({ siteId, name }, actorId) => {
+			siteQueries.createArea(siteId, name, actorId);
+			return `Area ${name} added.`;
+		}),
+	renameArea: (event) => act(event, 'renameArea', areaRename, 'id', ({ id, name }, actorId) => (siteQueries.renameArea(id, name, actorId) ? 'Area renamed.' : 'Nothing changed.'))
 };

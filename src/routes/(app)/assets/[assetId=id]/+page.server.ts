@@ -46,7 +46,6 @@ export const load: PageServerLoad = (event) => {
 	}
 	return {
 		...sheet,
-		units: user.unitSystem,
 		canEdit: canEditAssets(user.role),
 		canPlan: canPlan(user.role),
 		history,

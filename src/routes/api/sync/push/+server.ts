@@ -4,14 +4,14 @@ import { requireUser } from '$lib/server/guard';
 import { setting } from '$lib/server/config';
 import { push } from '$lib/server/sync/push';
 import { inTurn } from '$lib/server/turns';
+import { declaredLength } from '$lib/server/body';
 import { MAX_PUSH_BYTES, pushBatch } from '$lib/schemas/sync';
 
 /** POST /api/sync/push — see DEVELOPERS.md, "Sync API". */
 export const POST: RequestHandler = async (event) => {
 	const user = requireUser(event);
 	if (!(event.request.headers.get('content-type') ?? '').startsWith('application/json')) error(415, { message: 'Send the batch as application/json.', code: 'bad-content-type' });
-	const declared = Number(event.request.headers.get('content-length') ?? '0');
-	if (declared > MAX_PUSH_BYTES) error(413, { message: `A push may be at most ${MAX_PUSH_BYTES} bytes; send fewer items per batch.`, code: 'too-large' });
+	if ((declaredLength(event.request) ?? 0) > MAX_PUSH_BYTES) error(413, { message: `A push may be at most ${MAX_PUSH_BYTES} bytes; send fewer items per batch.`, code: 'too-large' });
 	const text = await event.request.text();
 	if (text.length > MAX_PUSH_BYTES) error(413, { message: `A push may be at most ${MAX_PUSH_BYTES} bytes; send fewer items per batch.`, code: 'too-large' });
 	let body: unknown;
