@@ -106,3 +106,16 @@ test.describe('sign-in on a server behind TLS', () => {
 		expect((await attempt(u.email, u.password)).status).toBe(429);
 	});
 });
+
+test('started as the README says (npm run serve, no settings), the app takes a sign-in at http://localhost', async () => {
+	const server = await startBuiltServer(4184, { dir: '.e2e/serve', asServeScript: true });
+	try {
+		const u = demoUser('technician');
+		const res = await postSignIn(server.origin, u.email, u.password);
+		expect(res.status, 'sign-in through the origin check').toBe(303);
+		expect(res.headers.get('location')).toBe('/field');
+	} finally {
+		await server.stop();
+		cleanDir('.e2e/serve');
+	}
+});

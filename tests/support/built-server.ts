@@ -26,6 +26,11 @@ export interface StartOptions {
 	env?: Record<string, string>;
 	/** each line the server writes to stderr; dropped when left out */
 	onStderrLine?: (line: string) => void;
+	/**
+	 * start it as `npm run serve` does, with that script's defaults (ORIGIN, BODY_SIZE_LIMIT), on
+	 * localhost, instead of `node build` with an ORIGIN on 127.0.0.1
+	 */
+	asServeScript?: boolean;
 }
 
 /** Splits a stream's chunks into lines. */
@@ -43,9 +48,15 @@ export async function startBuiltServer(port: number, options: StartOptions = {})
 	const ownDir = options.dir === undefined;
 	const dir = options.dir ?? mkdtempSync(join(tmpdir(), 'detune-server-'));
 	mkdirSync(dir, { recursive: true });
-	const origin = `http://127.0.0.1:${port}`;
-	const env = { PORT: String(port), HOST: '127.0.0.1', ORIGIN: origin, DATABASE_URL: join(dir, 'detune.db'), DATA_DIR: join(dir, 'data'), MAIL_CATCHER: 'false', MAIL_JOBS: 'false', ...options.env };
-	const child = spawn(process.execPath, ['build'], { env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'] });
+	const serve = options.asServeScript === true;
+	const origin = serve ? `http://localhost:${port}` : `http://127.0.0.1:${port}`;
+	const env: Record<string, string> = { PORT: String(port), DATABASE_URL: join(dir, 'detune.db'), DATA_DIR: join(dir, 'data'), MAIL_CATCHER: 'false', MAIL_JOBS: 'false', ...(serve ? {} : { HOST: '127.0.0.1', ORIGIN: origin }), ...options.env };
+	const base = { ...process.env, ...env };
+	if (serve) for (const k of ['ORIGIN', 'HOST', 'BODY_SIZE_LIMIT']) if (!(k in env)) delete base[k];
+	// the script runs under npm and a shell: its own process group, so that a signal reaches node
+	const child = serve
+		? spawn('npm', ['run', '--silent', 'serve'], { env: base, stdio: ['ignore', 'pipe', 'pipe'], detached: true })
+		: spawn(process.execPath, ['build'], { env: base, stdio: ['ignore', 'pipe', 'pipe'] });
 	const seen: string[] = [];
 	const waiters: { pattern: RegExp; resolve: (l: string) => void }[] = [];
 	child.stdout!.on(
@@ -68,7 +79,10 @@ export async function startBuiltServer(port: number, options: StartOptions = {})
 		await new Promise((r) => setTimeout(r, 200));
 	}
 	const kill = async (signal: NodeJS.Signals) => {
-		if (child.exitCode === null && child.signalCode === null) child.kill(signal);
+		if (child.exitCode === null && child.signalCode === null) {
+			if (serve) process.kill(-child.pid!, signal);
+			else child.kill(signal);
+		}
 		await exited;
 	};
 	return {
@@ -85,7 +99,7 @@ export async function startBuiltServer(port: number, options: StartOptions = {})
 		},
 		kill,
 		async stop() {
-			const timer = setTimeout(() => child.kill('SIGKILL'), 5000);
+			const timer = setTimeout(() => void kill('SIGKILL'), 5000);
 			await kill('SIGTERM');
 			clearTimeout(timer);
 			if (ownDir) rmSync(dir, { recursive: true, force: true });
