@@ -19,7 +19,16 @@ export default defineConfig({
 	webServer: {
 		command: 'rm -rf .e2e && mkdir -p .e2e && node build',
 		url: `${ORIGIN}/api/health`,
-		env: { PORT: String(PORT), HOST: '127.0.0.1', DATABASE_URL: '.e2e/e2e.db', ORIGIN, DATA_DIR: '.e2e/data', DETUNE_TEST_FAULTS: '1', BODY_SIZE_LIMIT: '52M', SMTP_PORT: '2626' },
+		env: {
+			PORT: String(PORT),
+			HOST: '127.0.0.1',
+			DATABASE_URL: '.e2e/e2e.db',
+			ORIGIN,
+			DATA_DIR: '.e2e/data',
+			DETUNE_TEST_FAULTS: '1',
+			BODY_SIZE_LIMIT: '52M',
+			SMTP_PORT: '2626'
+		},
 		reuseExistingServer: false,
 		timeout: 60_000,
 		stdout: 'pipe'
@@ -31,7 +40,16 @@ export default defineConfig({
 		serviceWorkers: 'allow',
 		launchOptions: {
 			executablePath: '/usr/bin/chromium',
-			args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync']
+			args: [
+				'--headless',
+				'--no-sandbox',
+				'--disable-gpu',
+				'--disable-quic',
+				'--no-first-run',
+				'--disable-background-networking',
+				'--disable-component-update',
+				'--disable-sync'
+			]
 		}
 	}
 });

@@ -12,7 +12,10 @@ const config = {
 		typescript: {
 			// odex ships its TypeScript source beside the JS; point the checker at our declaration
 			config: (tsconfig) => {
-				tsconfig.compilerOptions.paths = { ...tsconfig.compilerOptions.paths, odex: ['../src/types/odex.d.ts'] };
+				tsconfig.compilerOptions.paths = {
+					...tsconfig.compilerOptions.paths,
+					odex: ['../src/types/odex.d.ts']
+				};
 				return tsconfig;
 			}
 		},

@@ -18,7 +18,8 @@ export default defineConfig({
 				id: '/field',
 				name: 'Detune — resonance checks',
 				short_name: 'Detune',
-				description: 'Separation margins between natural frequencies and forcing frequencies, on the plant floor.',
+				description:
+					'Separation margins between natural frequencies and forcing frequencies, on the plant floor.',
 				start_url: '/field',
 				scope: '/',
 				display: 'standalone',
@@ -28,7 +29,12 @@ export default defineConfig({
 				icons: [
 					{ src: '/icons/detune-192.png', sizes: '192x192', type: 'image/png' },
 					{ src: '/icons/detune-512.png', sizes: '512x512', type: 'image/png' },
-					{ src: '/icons/detune-maskable-512.png', sizes: '512x512', type: 'image/png', purpose: 'maskable' }
+					{
+						src: '/icons/detune-maskable-512.png',
+						sizes: '512x512',
+						type: 'image/png',
+						purpose: 'maskable'
+					}
 				]
 			},
 			workbox: {
@@ -41,14 +47,24 @@ export default defineConfig({
 				runtimeCaching: [
 					{
 						// Floor check's page (server-rendered once online), then served from the cache offline
-						urlPattern: ({ request, url }) => request.mode === 'navigate' && url.pathname === '/field',
+						urlPattern: ({ request, url }) =>
+							request.mode === 'navigate' && url.pathname === '/field',
 						handler: 'NetworkFirst',
-						options: { cacheName: 'detune-pages', networkTimeoutSeconds: 4, cacheableResponse: { statuses: [200] } }
+						options: {
+							cacheName: 'detune-pages',
+							networkTimeoutSeconds: 4,
+							cacheableResponse: { statuses: [200] }
+						}
 					},
 					{
-						urlPattern: ({ url }) => url.pathname === '/field/__data.json' || url.pathname === '/__data.json',
+						urlPattern: ({ url }) =>
+							url.pathname === '/field/__data.json' || url.pathname === '/__data.json',
 						handler: 'NetworkFirst',
-						options: { cacheName: 'detune-data', networkTimeoutSeconds: 4, cacheableResponse: { statuses: [200] } }
+						options: {
+							cacheName: 'detune-data',
+							networkTimeoutSeconds: 4,
+							cacheableResponse: { statuses: [200] }
+						}
 					}
 				]
 			}

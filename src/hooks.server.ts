@@ -14,7 +14,9 @@ export const init: ServerInit = async () => {
 	runMigrations(db);
 	if (setting('SEED_DEMO') !== 'false' && isEmpty(db)) {
 		const r = await seed(db);
-		console.log(`[detune] empty database: demo data added (${r.sites} sites, ${r.assets} assets, ${r.users} users)`);
+		console.log(
+			`[detune] empty database: demo data added (${r.sites} sites, ${r.assets} assets, ${r.users} users)`
+		);
 	}
 	await startCatcher();
 	if (setting('MAIL_JOBS') !== 'false') startReminderJob();

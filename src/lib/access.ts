@@ -32,7 +32,10 @@ export const ROUTE_ACCESS: Record<string, RouteEntry> = {
 	'/(app)/follow-ups/export.csv': { access: ALL },
 	'/(app)/admin/mailbox': { access: ADMIN },
 	// sample: the demo's KRW-RWP-101 (a Kettle River asset, so the demo technician may read it)
-	'/(app)/assets/[assetId=id]': { access: ALL, sample: '/assets/ee690482-2661-40f0-a1ba-59140aa07f60' },
+	'/(app)/assets/[assetId=id]': {
+		access: ALL,
+		sample: '/assets/ee690482-2661-40f0-a1ba-59140aa07f60'
+	},
 	'/(app)/admin/users': { access: ADMIN },
 	'/(app)/admin/sites': { access: ADMIN },
 	'/(app)/rule-sets': { access: EDITORS },
@@ -43,10 +46,19 @@ export const ROUTE_ACCESS: Record<string, RouteEntry> = {
 	'/api/sync/pull': { access: ALL },
 	'/api/checks/latest': { access: FLEET },
 	'/api/board': { access: FLEET },
-	'/api/reports/checks/[checkId=id]': { access: ALL, sample: '/api/reports/checks/00000000-0000-4000-a000-000000000000' },
-	'/api/reports/assets/[assetId=id]': { access: ALL, sample: '/api/reports/assets/ee690482-2661-40f0-a1ba-59140aa07f60' },
+	'/api/reports/checks/[checkId=id]': {
+		access: ALL,
+		sample: '/api/reports/checks/00000000-0000-4000-a000-000000000000'
+	},
+	'/api/reports/assets/[assetId=id]': {
+		access: ALL,
+		sample: '/api/reports/assets/ee690482-2661-40f0-a1ba-59140aa07f60'
+	},
 	'/api/recordings': { access: FIELD, method: 'POST' },
-	'/api/recordings/[recordingId=id]': { access: ALL, sample: '/api/recordings/00000000-0000-4000-a000-000000000000' },
+	'/api/recordings/[recordingId=id]': {
+		access: ALL,
+		sample: '/api/recordings/00000000-0000-4000-a000-000000000000'
+	},
 	'/api/sync/push': { access: FIELD, method: 'POST' }
 };
 
@@ -68,7 +80,8 @@ export interface NavItem {
 	href: string;
 	label: string;
 	routeId: string;
-	icon: 'field' | 'board' | 'follow-ups' | 'users' | 'sites' | 'rules' | 'import' | 'audit' | 'mail';
+	icon:
+		'field' | 'board' | 'follow-ups' | 'users' | 'sites' | 'rules' | 'import' | 'audit' | 'mail';
 }
 
 export const NAV: readonly NavItem[] = [
@@ -90,5 +103,11 @@ export function navFor(role: Role): NavItem[] {
 
 /** Where a role lands after sign-in. */
 export function homeFor(role: Role): string {
-	return role === 'technician' ? '/field' : role === 'planner' ? '/follow-ups' : role === 'admin' ? '/board' : '/board';
+	return role === 'technician'
+		? '/field'
+		: role === 'planner'
+			? '/follow-ups'
+			: role === 'admin'
+				? '/board'
+				: '/board';
 }

@@ -4,5 +4,10 @@ export class Solver {
 	absoluteTolerance: number;
 	relativeTolerance: number;
 	maxSteps: number;
-	solve(f: (x: number, y: number[]) => number[], x0: number, y0: number[], xEnd: number): { y: number[]; outcome: number };
+	solve(
+		f: (x: number, y: number[]) => number[],
+		x0: number,
+		y0: number[],
+		xEnd: number
+	): { y: number[]; outcome: number };
 }

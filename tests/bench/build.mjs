@@ -17,5 +17,9 @@ await build({
 	alias: { '$env/dynamic/private': `${root}tests/bench/env-shim.ts` },
 	logLevel: 'warning'
 });
-const r = spawnSync(process.execPath, ['--expose-gc', `${root}.bench/run.mjs`, ...process.argv.slice(2)], { stdio: 'inherit', cwd: root });
+const r = spawnSync(
+	process.execPath,
+	['--expose-gc', `${root}.bench/run.mjs`, ...process.argv.slice(2)],
+	{ stdio: 'inherit', cwd: root }
+);
 process.exit(r.status ?? 1);

@@ -37,9 +37,22 @@ export function time(fn: () => unknown, runs = 7, warmup = 2): number[] {
 
 export function printTable(figures: Figure[]): void {
 	const rows = figures.map((f) => {
-		const ok = f.goal === undefined ? '' : (f.goalKind ?? 'max') === 'max' ? f.value <= f.goal : f.value >= f.goal;
+		const ok =
+			f.goal === undefined
+				? ''
+				: (f.goalKind ?? 'max') === 'max'
+					? f.value <= f.goal
+					: f.value >= f.goal;
 		const ratio = f.goal === undefined || f.goal === 0 ? '' : (f.value / f.goal).toFixed(2);
-		return [f.name, fmt(f.value), f.unit, f.goal === undefined ? '' : `${(f.goalKind ?? 'max') === 'max' ? '≤' : '≥'} ${fmt(f.goal)}`, ratio, ok === '' ? '' : ok ? 'met' : 'MISSED', f.note ?? ''];
+		return [
+			f.name,
+			fmt(f.value),
+			f.unit,
+			f.goal === undefined ? '' : `${(f.goalKind ?? 'max') === 'max' ? '≤' : '≥'} ${fmt(f.goal)}`,
+			ratio,
+			ok === '' ? '' : ok ? 'met' : 'MISSED',
+			f.note ?? ''
+		];
 	});
 	const head = ['figure', 'value', 'unit', 'goal', 'value/goal', 'status', 'note'];
 	const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => String(r[i]).length)));

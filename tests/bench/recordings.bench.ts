@@ -18,7 +18,8 @@ function signal(n: number, fs: number): Float64Array {
 	for (let i = 0; i < n; i++) {
 		const t = i / fs;
 		let v = 0;
-		for (const m of modes) v += m.a * Math.exp(-m.z * 2 * Math.PI * m.f * t) * Math.sin(2 * Math.PI * m.f * t);
+		for (const m of modes)
+			v += m.a * Math.exp(-m.z * 2 * Math.PI * m.f * t) * Math.sin(2 * Math.PI * m.f * t);
 		s = (s * 16807) % 2147483647;
 		x[i] = v + 0.01 * (s / 2147483647 - 0.5);
 	}
@@ -33,9 +34,13 @@ export function recordingsBench(): Figure[] {
 	const raw = median(time(() => fft.realTransform(out, x), 21, 5));
 	let modes = 0;
 	const analysis = median(
-		time(() => {
-			modes = analyzeRingdown(x, 8192).modes.length;
-		}, 11, 3)
+		time(
+			() => {
+				modes = analyzeRingdown(x, 8192).modes.length;
+			},
+			11,
+			3
+		)
 	);
 
 	// a 50 MB CSV: time and two channels
@@ -60,8 +65,27 @@ export function recordingsBench(): Figure[] {
 	const parseMs = performance.now() - t0;
 	const growth = peak - (before.heapUsed + before.external + before.arrayBuffers);
 	return [
-		{ name: 'analysis: 65,536-sample ring-down', value: analysis, unit: 'ms (median of 11)', goal: 50, goalKind: 'max', note: `${modes} modes found; at this length no zero padding (×2 below 65,536); damping two ways` },
-		{ name: 'analysis ÷ one raw fft.js transform (65,536)', value: analysis / raw, unit: '×', goal: 10, goalKind: 'max', note: `raw transform ${raw.toFixed(2)} ms` },
-		{ name: 'parse 50 MB CSV: peak memory above the text', value: growth / 1048576, unit: 'MB', note: `${rec.channels[0].samples.length.toLocaleString('en')} rows × ${rec.channels.length} channels in ${(parseMs / 1000).toFixed(1)} s; the text itself ${(text.length / 1048576).toFixed(0)} MB` }
+		{
+			name: 'analysis: 65,536-sample ring-down',
+			value: analysis,
+			unit: 'ms (median of 11)',
+			goal: 50,
+			goalKind: 'max',
+			note: `${modes} modes found; at this length no zero padding (×2 below 65,536); damping two ways`
+		},
+		{
+			name: 'analysis ÷ one raw fft.js transform (65,536)',
+			value: analysis / raw,
+			unit: '×',
+			goal: 10,
+			goalKind: 'max',
+			note: `raw transform ${raw.toFixed(2)} ms`
+		},
+		{
+			name: 'parse 50 MB CSV: peak memory above the text',
+			value: growth / 1048576,
+			unit: 'MB',
+			note: `${rec.channels[0].samples.length.toLocaleString('en')} rows × ${rec.channels.length} channels in ${(parseMs / 1000).toFixed(1)} s; the text itself ${(text.length / 1048576).toFixed(0)} MB`
+		}
 	];
 }

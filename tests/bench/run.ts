@@ -31,7 +31,9 @@ if (wanted('board')) {
 	globalThis.gc?.();
 }
 if (wanted('load')) {
-	console.log('[bench] load: 50 connections pushing for 20 s, the board meanwhile, a sign-in burst …');
+	console.log(
+		'[bench] load: 50 connections pushing for 20 s, the board meanwhile, a sign-in burst …'
+	);
 	figures.push(...(await loadBench()));
 	globalThis.gc?.();
 }

@@ -7,7 +7,10 @@ export { signInCookie, withDatabase } from '../support/built-server.ts';
  * The benchmarks send made-up device summaries, so the server logs a difference for most checks
  * it recomputes: those lines are counted and reported once, everything else on stderr is passed on.
  */
-export async function startServer(port: number, env: Record<string, string> = {}): Promise<BuiltServer> {
+export async function startServer(
+	port: number,
+	env: Record<string, string> = {}
+): Promise<BuiltServer> {
 	let differences = 0;
 	const server = await startBuiltServer(port, {
 		env,
@@ -20,7 +23,10 @@ export async function startServer(port: number, env: Record<string, string> = {}
 		...server,
 		async stop() {
 			await server.stop();
-			if (differences) console.log(`[bench] (the server logged ${differences} device/server differences of the made-up checks)`);
+			if (differences)
+				console.log(
+					`[bench] (the server logged ${differences} device/server differences of the made-up checks)`
+				);
 		}
 	};
 }

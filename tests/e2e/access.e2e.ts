@@ -1,6 +1,11 @@
 import { readdirSync, statSync } from 'node:fs';
 import { join, relative } from 'node:path';
-import { expect, request as playwrightRequest, test, type APIRequestContext } from '@playwright/test';
+import {
+	expect,
+	request as playwrightRequest,
+	test,
+	type APIRequestContext
+} from '@playwright/test';
 import { ROUTE_ACCESS, mayAccess, type RouteEntry } from '../../src/lib/access.ts';
 import { ROLES, type Role } from '../../src/lib/roles.ts';
 import { ORIGIN, signInApi } from './helpers.ts';
@@ -15,7 +20,8 @@ function routeIds(dir = ROUTES_DIR): string[] {
 		const rel = relative(ROUTES_DIR, dir).split('\\').join('/');
 		out.push(rel === '' ? '/' : `/${rel}`);
 	}
-	for (const f of files) if (statSync(join(dir, f)).isDirectory()) out.push(...routeIds(join(dir, f)));
+	for (const f of files)
+		if (statSync(join(dir, f)).isDirectory()) out.push(...routeIds(join(dir, f)));
 	return out;
 }
 
@@ -31,7 +37,9 @@ async function probe(ctx: APIRequestContext, id: string, entry: RouteEntry) {
 	const url = pathOf(id, entry);
 	const options = { maxRedirects: 0, headers: { origin: ORIGIN, accept: 'text/html' } };
 	if (entry.method !== 'POST') return ctx.get(url, options);
-	return id.startsWith('/api/') ? ctx.post(url, { ...options, data: {} }) : ctx.post(url, { ...options, form: {} });
+	return id.startsWith('/api/')
+		? ctx.post(url, { ...options, data: {} })
+		: ctx.post(url, { ...options, form: {} });
 }
 
 test('every route under src/routes has an entry in the role × route table, and no entry is stale', () => {
@@ -43,7 +51,9 @@ for (const who of [null, ...ROLES] as (Role | null)[]) {
 		const ctx = await playwrightRequest.newContext({ baseURL: ORIGIN });
 		if (who) await signInApi(ctx, who);
 		// probe sign-out last: it ends the session
-		const entries = Object.entries(ROUTE_ACCESS).sort(([a], [b]) => Number(a === '/logout') - Number(b === '/logout'));
+		const entries = Object.entries(ROUTE_ACCESS).sort(
+			([a], [b]) => Number(a === '/logout') - Number(b === '/logout')
+		);
 		for (const [id, entry] of entries) {
 			const res = await probe(ctx, id, entry);
 			const status = res.status();
@@ -53,7 +63,8 @@ for (const who of [null, ...ROLES] as (Role | null)[]) {
 				// allowed: anything but a refusal (an empty probe may still be a 4xx for bad input)
 				expect([401, 403].includes(status), what).toBe(false);
 				expect(status < 500, what).toBe(true);
-				if (status >= 300 && status < 400 && entry.method !== 'POST') expect(location.startsWith('/login'), what).toBe(false);
+				if (status >= 300 && status < 400 && entry.method !== 'POST')
+					expect(location.startsWith('/login'), what).toBe(false);
 			} else if (who === null) {
 				if (id.startsWith('/api/')) expect(status, what).toBe(401);
 				else {

@@ -2,7 +2,10 @@ import { expect, test } from '@playwright/test';
 import { signIn } from './helpers.ts';
 
 test.describe('Admin → Users', () => {
-	test('an admin creates a user with field messages for bad input, changes the role, resets the password and disables the account', async ({ page, browser }) => {
+	test('an admin creates a user with field messages for bad input, changes the role, resets the password and disables the account', async ({
+		page,
+		browser
+	}) => {
 		await signIn(page, 'admin');
 		await page.goto('/admin/users');
 		const form = page.locator('form[action="?/create"]');
@@ -56,6 +59,8 @@ test.describe('Admin → Users', () => {
 		await page.goto('/admin/users');
 		const row = page.locator('[data-testid="user-row"][data-email="admin@example.com"]');
 		await row.getByRole('button', { name: 'Disable account' }).click();
-		await expect(row.getByRole('alert')).toHaveText('This is the last active admin: make another user admin first.');
+		await expect(row.getByRole('alert')).toHaveText(
+			'This is the last active admin: make another user admin first.'
+		);
 	});
 });

@@ -32,7 +32,9 @@ test.describe('signing in', () => {
 		await expect(page).toHaveURL(/\/login/);
 		for (const path of ['/board', '/field', '/follow-ups', '/admin/users']) {
 			await page.goto(path);
-			await expect(page, path).toHaveURL(new RegExp(`/login\\?next=${encodeURIComponent(path).replace(/[/]/g, '\\/')}`));
+			await expect(page, path).toHaveURL(
+				new RegExp(`/login\\?next=${encodeURIComponent(path).replace(/[/]/g, '\\/')}`)
+			);
 		}
 	});
 
@@ -45,7 +47,9 @@ test.describe('signing in', () => {
 });
 
 test.describe('the look', () => {
-	test('uses Inter, shipped with the app, and touch targets of at least 44 px', async ({ page }) => {
+	test('uses Inter, shipped with the app, and touch targets of at least 44 px', async ({
+		page
+	}) => {
 		const fontRequests: string[] = [];
 		page.on('request', (r) => {
 			if (/\.woff2?$/.test(r.url())) fontRequests.push(r.url());
@@ -57,8 +61,15 @@ test.describe('the look', () => {
 		expect(await page.evaluate(() => document.fonts.check('16px Inter'))).toBe(true);
 		for (const url of fontRequests) expect(url.startsWith('http://127.0.0.1:4173/')).toBe(true);
 		const small = await page.evaluate(() =>
-			[...document.querySelectorAll('header a, header button, main button, main input, main select')]
-				.map((el) => ({ el: (el as HTMLElement).innerText || el.getAttribute('name') || el.tagName, h: el.getBoundingClientRect().height }))
+			[
+				...document.querySelectorAll(
+					'header a, header button, main button, main input, main select'
+				)
+			]
+				.map((el) => ({
+					el: (el as HTMLElement).innerText || el.getAttribute('name') || el.tagName,
+					h: el.getBoundingClientRect().height
+				}))
 				.filter((x) => x.h > 0 && x.h < 44)
 		);
 		expect(small).toEqual([]);

@@ -14,16 +14,32 @@ test.afterAll(() => cleanDir(DIR));
 
 /** Opened read-write: after a SIGKILL the first opener rolls back the write-ahead log. */
 function inspect(file: string, ids: string[]) {
-	return withDatabase(file, (db) => {
-		const integrity = db.pragma('integrity_check', { simple: true });
-		const stored = (db.prepare('select count(*) as n from checks where id in (select value from json_each(?))').get(JSON.stringify(ids)) as { n: number }).n;
-		const modes = (db.prepare('select count(*) as n from modes where check_id in (select value from json_each(?))').get(JSON.stringify(ids)) as { n: number }).n;
-		const total = (db.prepare('select count(*) as n from checks').get() as { n: number }).n;
-		return { integrity, stored, modes, total };
-	}, {});
+	return withDatabase(
+		file,
+		(db) => {
+			const integrity = db.pragma('integrity_check', { simple: true });
+			const stored = (
+				db
+					.prepare('select count(*) as n from checks where id in (select value from json_each(?))')
+					.get(JSON.stringify(ids)) as { n: number }
+			).n;
+			const modes = (
+				db
+					.prepare(
+						'select count(*) as n from modes where check_id in (select value from json_each(?))'
+					)
+					.get(JSON.stringify(ids)) as { n: number }
+			).n;
+			const total = (db.prepare('select count(*) as n from checks').get() as { n: number }).n;
+			return { integrity, stored, modes, total };
+		},
+		{}
+	);
 }
 
-test('SIGKILL mid-batch: the database is intact, no half batch is stored, the tablet retries and nothing is lost or doubled', async ({ browser }) => {
+test('SIGKILL mid-batch: the database is intact, no half batch is stored, the tablet retries and nothing is lost or doubled', async ({
+	browser
+}) => {
 	test.setTimeout(150_000);
 	cleanDir(DIR);
 	let server = await startBuiltServer(PORT, { dir: DIR, env: { DETUNE_TEST_FAULTS: '1' } });
@@ -39,11 +55,15 @@ test('SIGKILL mid-batch: the database is intact, no half batch is stored, the ta
 		const ids: string[] = [];
 		let held = false;
 		await page.route('**/api/sync/push', async (route) => {
-			ids.push(...(route.request().postDataJSON() as { items: { id: string }[] }).items.map((i) => i.id));
+			ids.push(
+				...(route.request().postDataJSON() as { items: { id: string }[] }).items.map((i) => i.id)
+			);
 			if (held) return route.continue();
 			held = true;
 			// the server's test hook writes item 1, then stops inside the open transaction at item 2
-			await route.continue({ headers: { ...route.request().headers(), 'x-detune-fault': 'hold=2' } });
+			await route.continue({
+				headers: { ...route.request().headers(), 'x-detune-fault': 'hold=2' }
+			});
 		});
 		await context.setOffline(false);
 		await server.waitForLine(/batch held open at item 2/);

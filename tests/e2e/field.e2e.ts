@@ -3,7 +3,11 @@ import { signIn, signInApi, ORIGIN } from './helpers.ts';
 import { openFieldOnline, outboxCount, pickAsset, saveChecks, typeMode } from './floor.ts';
 
 test.describe('Floor check offline', () => {
-	test('three checks saved offline survive a reload and a closed tab, then sync once with the server’s verdicts', async ({ page, context, browser }) => {
+	test('three checks saved offline survive a reload and a closed tab, then sync once with the server’s verdicts', async ({
+		page,
+		context,
+		browser
+	}) => {
 		await openFieldOnline(page);
 		await context.setOffline(true);
 		await page.reload();
@@ -15,7 +19,11 @@ test.describe('Floor check offline', () => {
 		await page.getByLabel(/^Measured running speed/).fill('1185');
 		await typeMode(page, '27.4', '0.04');
 		await typeMode(page, '58', '');
-		verdicts['KRW-HLP-201'] = (await page.getByTestId('verdict').locator('[data-verdict]').first().getAttribute('data-verdict'))!;
+		verdicts['KRW-HLP-201'] = (await page
+			.getByTestId('verdict')
+			.locator('[data-verdict]')
+			.first()
+			.getAttribute('data-verdict'))!;
 		await expect(page.getByTestId('interference-diagram')).toBeVisible();
 		await expect(page.getByTestId('cautions')).toBeVisible();
 		await page.getByRole('button', { name: 'Save check' }).click();
@@ -30,14 +38,21 @@ test.describe('Floor check offline', () => {
 		await expect(page.getByTestId('estimate-result')).toContainText('6.43 Hz');
 		await page.getByRole('button', { name: 'Add 6.43 Hz' }).click();
 		await expect(page.getByTestId('modes-list')).toContainText('6.43 Hz');
-		verdicts['KRW-SLP-601'] = (await page.getByTestId('verdict').locator('[data-verdict]').first().getAttribute('data-verdict'))!;
+		verdicts['KRW-SLP-601'] = (await page
+			.getByTestId('verdict')
+			.locator('[data-verdict]')
+			.first()
+			.getAttribute('data-verdict'))!;
 		await page.getByRole('button', { name: 'Save check' }).click();
 
 		// 3: in conflict — a mode right on running speed
 		await pickAsset(page, 'KRW-RWP-101');
 		await page.getByLabel(/^Measured running speed/).fill('1032');
 		await typeMode(page, '17.2', '0.021');
-		await expect(page.getByTestId('verdict').locator('[data-verdict]').first()).toHaveAttribute('data-verdict', 'conflict');
+		await expect(page.getByTestId('verdict').locator('[data-verdict]').first()).toHaveAttribute(
+			'data-verdict',
+			'conflict'
+		);
 		verdicts['KRW-RWP-101'] = 'conflict';
 		await expect(page.getByTestId('bands')).toContainText('Drive Hz');
 		await page.getByRole('button', { name: 'Save check' }).click();
@@ -52,7 +67,8 @@ test.describe('Floor check offline', () => {
 		// back online: sync (and keep what the tablet sent, to replay it)
 		const sent: unknown[] = [];
 		again.on('request', (r) => {
-			if (r.url().endsWith('/api/sync/push')) sent.push(...(r.postDataJSON() as { items: unknown[] }).items);
+			if (r.url().endsWith('/api/sync/push'))
+				sent.push(...(r.postDataJSON() as { items: unknown[] }).items);
 		});
 		await context.setOffline(false);
 		await again.getByRole('button', { name: 'Sync now' }).click();
@@ -62,7 +78,9 @@ test.describe('Floor check offline', () => {
 		const api = await browser.newContext({ baseURL: ORIGIN });
 		await signInApi(api.request, 'supervisor');
 		const latest = await (await api.request.get('/api/checks/latest')).json();
-		const mine = latest.checks.filter((c: { tag: string }) => Object.keys(verdicts).includes(c.tag));
+		const mine = latest.checks.filter((c: { tag: string }) =>
+			Object.keys(verdicts).includes(c.tag)
+		);
 		expect(mine).toHaveLength(3);
 		for (const c of mine) expect(c.verdict, c.tag).toBe(verdicts[c.tag]);
 		expect(mine.every((c: { resultDiffers: boolean }) => c.resultDiffers === false)).toBe(true);
@@ -72,10 +90,19 @@ test.describe('Floor check offline', () => {
 		expect(items).toHaveLength(3);
 		const tech = await browser.newContext({ baseURL: ORIGIN });
 		await signInApi(tech.request, 'technician');
-		const replay = await tech.request.post('/api/sync/push', { data: { clientId: 'replay', items }, headers: { origin: ORIGIN } });
-		expect((await replay.json()).results.map((r: { status: string }) => r.status)).toEqual(['duplicate', 'duplicate', 'duplicate']);
+		const replay = await tech.request.post('/api/sync/push', {
+			data: { clientId: 'replay', items },
+			headers: { origin: ORIGIN }
+		});
+		expect((await replay.json()).results.map((r: { status: string }) => r.status)).toEqual([
+			'duplicate',
+			'duplicate',
+			'duplicate'
+		]);
 		const after = await (await api.request.get('/api/checks/latest')).json();
-		expect(after.checks.filter((c: { tag: string }) => Object.keys(verdicts).includes(c.tag))).toHaveLength(3);
+		expect(
+			after.checks.filter((c: { tag: string }) => Object.keys(verdicts).includes(c.tag))
+		).toHaveLength(3);
 		await api.close();
 		await tech.close();
 
@@ -92,7 +119,9 @@ test.describe('Floor check offline', () => {
 		await sup.close();
 	});
 
-	test('works offline after the browser is closed and started again', async ({ browserName }, testInfo) => {
+	test('works offline after the browser is closed and started again', async ({
+		browserName
+	}, testInfo) => {
 		test.skip(browserName !== 'chromium');
 		const dir = testInfo.outputPath('profile');
 		const launch = () =>
@@ -119,7 +148,10 @@ test.describe('Floor check offline', () => {
 		await second.close();
 	});
 
-	test('a server fault on the second item: the first is acknowledged and gone, the others stay and go through on retry', async ({ page, context }) => {
+	test('a server fault on the second item: the first is acknowledged and gone, the others stay and go through on retry', async ({
+		page,
+		context
+	}) => {
 		await openFieldOnline(page);
 		await context.setOffline(true);
 		await saveChecks(page, ['KRW-HLP-202', 'KRW-HLP-203', 'KRW-BWP-301']);
@@ -129,7 +161,9 @@ test.describe('Floor check offline', () => {
 			if (faulted) return route.continue();
 			faulted = true;
 			// the server's test hook (DETUNE_TEST_FAULTS=1) fails the batch at its second item
-			await route.continue({ headers: { ...route.request().headers(), 'x-detune-fault': 'item=2' } });
+			await route.continue({
+				headers: { ...route.request().headers(), 'x-detune-fault': 'item=2' }
+			});
 		});
 		// reconnecting pushes at once
 		await context.setOffline(false);
@@ -139,7 +173,11 @@ test.describe('Floor check offline', () => {
 		await expect.poll(() => outboxCount(page)).toBe(0);
 	});
 
-	test('the connection drops during a push: nothing lost, nothing doubled', async ({ page, context, browser }) => {
+	test('the connection drops during a push: nothing lost, nothing doubled', async ({
+		page,
+		context,
+		browser
+	}) => {
 		await openFieldOnline(page);
 		await context.setOffline(true);
 		await saveChecks(page, ['KRW-SWP-305', 'KRW-AB-401']);
@@ -167,7 +205,10 @@ test.describe('Floor check offline', () => {
 		await api.close();
 	});
 
-	test('a new app version arrives while two checks wait: the update waits for a yes, and both checks are still there and sync', async ({ page, context }) => {
+	test('a new app version arrives while two checks wait: the update waits for a yes, and both checks are still there and sync', async ({
+		page,
+		context
+	}) => {
 		await openFieldOnline(page);
 		await context.setOffline(true);
 		await saveChecks(page, ['KRW-AB-402', 'KRW-AB-403']);
@@ -192,7 +233,10 @@ test.describe('Floor check offline', () => {
 		await expect.poll(() => outboxCount(page)).toBe(0);
 	});
 
-	test('a session that expired offline asks for sign-in and loses nothing', async ({ page, context }) => {
+	test('a session that expired offline asks for sign-in and loses nothing', async ({
+		page,
+		context
+	}) => {
 		await openFieldOnline(page);
 		await context.setOffline(true);
 		await saveChecks(page, ['KRW-AB-404']);

@@ -6,9 +6,19 @@ import { signIn } from './helpers.ts';
 export async function swReady(page: Page) {
 	await page.evaluate(async () => {
 		await navigator.serviceWorker.ready;
-		if (!navigator.serviceWorker.controller) await new Promise((r) => navigator.serviceWorker.addEventListener('controllerchange', r, { once: true }));
+		if (!navigator.serviceWorker.controller)
+			await new Promise((r) =>
+				navigator.serviceWorker.addEventListener('controllerchange', r, { once: true })
+			);
 	});
-	await expect.poll(() => page.evaluate(async () => `${(await navigator.serviceWorker.getRegistration())?.active?.state} ${!!navigator.serviceWorker.controller}`)).toBe('activated true');
+	await expect
+		.poll(() =>
+			page.evaluate(
+				async () =>
+					`${(await navigator.serviceWorker.getRegistration())?.active?.state} ${!!navigator.serviceWorker.controller}`
+			)
+		)
+		.toBe('activated true');
 }
 
 export async function openFieldOnline(page: Page) {
@@ -25,7 +35,10 @@ export async function openFieldOnline(page: Page) {
 
 export async function pickAsset(page: Page, tag: string) {
 	await page.getByLabel('Search by tag or name').fill(tag);
-	await page.getByTestId('asset-list').getByRole('button', { name: new RegExp(tag) }).click();
+	await page
+		.getByTestId('asset-list')
+		.getByRole('button', { name: new RegExp(tag) })
+		.click();
 	await expect(page.getByTestId('asset-heading')).toContainText(tag);
 }
 

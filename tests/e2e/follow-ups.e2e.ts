@@ -1,7 +1,10 @@
 import { expect, test } from '@playwright/test';
 import { ORIGIN, signIn, signInApi } from './helpers.ts';
 
-test('a planner turns a conflict check into a follow-up for a technician; the mail arrives; a clear retest closes it', async ({ page, browser }) => {
+test('a planner turns a conflict check into a follow-up for a technician; the mail arrives; a clear retest closes it', async ({
+	page,
+	browser
+}) => {
 	await signIn(page, 'planner');
 	// KRW-RWP-101's latest demo check is in conflict
 	const tech = await browser.newContext({ baseURL: ORIGIN });
@@ -17,7 +20,9 @@ test('a planner turns a conflict check into a follow-up for a technician; the ma
 	await form.getByLabel('Due date').fill('2027-01-15');
 	await form.getByRole('button', { name: 'Create follow-up' }).click();
 	await expect(form.getByText(/Follow-up created. The assignee has been e-mailed./)).toBeVisible();
-	const item = page.locator('[data-testid="follow-up"][data-tag="KRW-RWP-101"]').filter({ hasText: 'Add a stiffener' });
+	const item = page
+		.locator('[data-testid="follow-up"][data-tag="KRW-RWP-101"]')
+		.filter({ hasText: 'Add a stiffener' });
 	await expect(item.getByTestId('status')).toHaveText('scheduled');
 
 	// the admin's mailbox holds the assignment, with the asset and the due date
@@ -25,7 +30,9 @@ test('a planner turns a conflict check into a follow-up for a technician; the ma
 	const ap = await admin.newPage();
 	await signIn(ap, 'admin');
 	await ap.goto('/admin/mailbox');
-	const message = ap.getByTestId('message').filter({ hasText: 'Assigned: KRW-RWP-101 — Add a stiffener to the motor stand and retest' });
+	const message = ap
+		.getByTestId('message')
+		.filter({ hasText: 'Assigned: KRW-RWP-101 — Add a stiffener to the motor stand and retest' });
 	await expect(message).toContainText('to tech@example.com');
 	await expect(message).toContainText('Due: 2027-01-15');
 	await expect(message).toContainText('KRW-RWP-101');
@@ -44,8 +51,21 @@ test('a planner turns a conflict check into a follow-up for a technician; the ma
 					driveSetpointHz: null,
 					notes: 'Retest after the stiffener',
 					replacesCheckId: null,
-					modes: [{ frequencyHz: 300, dampingRatio: 0.02, direction: 'horizontal', location: 'Motor top', origin: 'typed' }],
-					device: { verdict: 'clear', verdictAtSpeed: 'clear', worstMarginAtSpeedPct: null, worstMarginOverRangePct: null }
+					modes: [
+						{
+							frequencyHz: 300,
+							dampingRatio: 0.02,
+							direction: 'horizontal',
+							location: 'Motor top',
+							origin: 'typed'
+						}
+					],
+					device: {
+						verdict: 'clear',
+						verdictAtSpeed: 'clear',
+						worstMarginAtSpeedPct: null,
+						worstMarginOverRangePct: null
+					}
 				}
 			]
 		}
@@ -65,7 +85,10 @@ test('a planner turns a conflict check into a follow-up for a technician; the ma
 	await tech.close();
 });
 
-test('an overdue follow-up produces exactly one overdue mail however often the job runs', async ({ page, browser }) => {
+test('an overdue follow-up produces exactly one overdue mail however often the job runs', async ({
+	page,
+	browser
+}) => {
 	await signIn(page, 'planner');
 	const pulled = await (await page.request.get('/api/sync/pull?since=0')).json();
 	const asset = pulled.assets.find((a: { tag: string }) => a.tag === 'KRW-AB-401');
@@ -75,7 +98,12 @@ test('an overdue follow-up produces exactly one overdue mail however often the j
 	await form.getByLabel('Assign to').selectOption({ label: 'Tomas Ferreira (technician)' });
 	await form.getByLabel('Due date').fill('2026-02-01');
 	await form.getByRole('button', { name: 'Create follow-up' }).click();
-	await expect(page.locator('[data-testid="follow-up"]').filter({ hasText: 'Program the drive skip band for the blower' }).getByText('overdue')).toBeVisible();
+	await expect(
+		page
+			.locator('[data-testid="follow-up"]')
+			.filter({ hasText: 'Program the drive skip band for the blower' })
+			.getByText('overdue')
+	).toBeVisible();
 	for (let i = 0; i < 3; i++) {
 		await page.getByRole('button', { name: 'Send due reminders now' }).click();
 		await expect(page.getByTestId('remind-done')).toBeVisible();
@@ -84,6 +112,10 @@ test('an overdue follow-up produces exactly one overdue mail however often the j
 	const ap = await admin.newPage();
 	await signIn(ap, 'admin');
 	await ap.goto('/admin/mailbox');
-	await expect(ap.getByTestId('message').filter({ hasText: 'Overdue: KRW-AB-401 — Program the drive skip band for the blower' })).toHaveCount(1);
+	await expect(
+		ap
+			.getByTestId('message')
+			.filter({ hasText: 'Overdue: KRW-AB-401 — Program the drive skip band for the blower' })
+	).toHaveCount(1);
 	await admin.close();
 });

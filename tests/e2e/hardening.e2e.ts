@@ -1,10 +1,17 @@
 import { expect, test } from '@playwright/test';
 import AxeBuilder from '@axe-core/playwright';
 import { demoUser, signIn } from './helpers.ts';
-import { cleanDir, postSignIn, startBuiltServer, type BuiltServer } from '../support/built-server.ts';
+import {
+	cleanDir,
+	postSignIn,
+	startBuiltServer,
+	type BuiltServer
+} from '../support/built-server.ts';
 
 test.describe('security headers', () => {
-	test('pages carry a CSP that forbids framing, and every answer says nosniff and a referrer policy', async ({ page }) => {
+	test('pages carry a CSP that forbids framing, and every answer says nosniff and a referrer policy', async ({
+		page
+	}) => {
 		const login = await page.goto('/login');
 		const h = login!.headers();
 		expect(h['content-security-policy']).toContain("frame-ancestors 'none'");
@@ -17,20 +24,31 @@ test.describe('security headers', () => {
 		expect(api.headers()['referrer-policy']).toBe('strict-origin-when-cross-origin');
 	});
 
-	test('a form post from another origin is refused (SvelteKit’s origin check is on)', async ({ request }) => {
-		const res = await request.post('/login', { form: { email: 'tech@example.com', password: 'tech-demo-2026' }, headers: { origin: 'http://evil.example', accept: 'text/html' }, maxRedirects: 0 });
+	test('a form post from another origin is refused (SvelteKit’s origin check is on)', async ({
+		request
+	}) => {
+		const res = await request.post('/login', {
+			form: { email: 'tech@example.com', password: 'tech-demo-2026' },
+			headers: { origin: 'http://evil.example', accept: 'text/html' },
+			maxRedirects: 0
+		});
 		expect(res.status()).toBe(403);
 	});
 });
 
 test.describe('accessibility (axe-core)', () => {
-	const serious = <T extends { impact?: string | null }>(v: T[]) => v.filter((x) => x.impact === 'serious' || x.impact === 'critical');
+	const serious = <T extends { impact?: string | null }>(v: T[]) =>
+		v.filter((x) => x.impact === 'serious' || x.impact === 'critical');
 	const check = async (page: import('@playwright/test').Page, what: string) => {
 		const r = await new AxeBuilder({ page }).analyze();
-		expect(serious(r.violations).map((v) => `${what}: ${v.id} (${v.nodes.length}) ${v.help}`)).toEqual([]);
+		expect(
+			serious(r.violations).map((v) => `${what}: ${v.id} (${v.nodes.length}) ${v.help}`)
+		).toEqual([]);
 	};
 
-	test('Sign in, Floor check, Margin board, asset sheet and Follow-ups have no serious or critical violations', async ({ page }) => {
+	test('Sign in, Floor check, Margin board, asset sheet and Follow-ups have no serious or critical violations', async ({
+		page
+	}) => {
 		await page.goto('/login');
 		await check(page, 'sign in');
 		await signIn(page, 'admin');
@@ -53,13 +71,16 @@ test.describe('accessibility (axe-core)', () => {
 		const reached: string[] = [];
 		for (let i = 0; i < 12; i++) {
 			await page.keyboard.press('Tab');
-			reached.push(await page.evaluate(() => (document.activeElement as HTMLElement | null)?.innerText?.trim() ?? ''));
+			reached.push(
+				await page.evaluate(
+					() => (document.activeElement as HTMLElement | null)?.innerText?.trim() ?? ''
+				)
+			);
 		}
 		expect(reached.join('|')).toContain('Margin board');
 		expect(reached.join('|')).toContain('Sign out');
 	});
 });
-
 
 /** A server of its own, with Secure cookies forced as behind a TLS proxy, to try sign-in hard. */
 test.describe('sign-in on a server behind TLS', () => {
@@ -91,14 +112,17 @@ test.describe('sign-in on a server behind TLS', () => {
 		const unknown = await attempt('nobody-here@example.com', 'whatever-it-is');
 		const wrong = await attempt('tech2@example.com', 'whatever-it-is');
 		expect(unknown.status).toBe(wrong.status);
-		const text = (html: string) => /That e-mail and password do not match an active account\./.test(html);
+		const text = (html: string) =>
+			/That e-mail and password do not match an active account\./.test(html);
 		expect(text(await unknown.text())).toBe(true);
 		expect(text(await wrong.text())).toBe(true);
 	});
 
 	test('throttling holds when 40 wrong passwords for one account arrive at once', async () => {
 		const u = demoUser('admin');
-		const answers = await Promise.all(Array.from({ length: 40 }, (_, i) => attempt(u.email, `guess-number-${i}`)));
+		const answers = await Promise.all(
+			Array.from({ length: 40 }, (_, i) => attempt(u.email, `guess-number-${i}`))
+		);
 		const statuses = answers.map((r) => r.status);
 		expect(statuses.filter((s) => s === 400)).toHaveLength(5);
 		expect(statuses.filter((s) => s === 429)).toHaveLength(35);

@@ -1,7 +1,9 @@
 import { expect, test } from '@playwright/test';
 import { signIn } from './helpers.ts';
 
-test('an admin sees how mail is sent and sends a test message, which the local catcher receives', async ({ page }) => {
+test('an admin sees how mail is sent and sends a test message, which the local catcher receives', async ({
+	page
+}) => {
 	await signIn(page, 'admin');
 	await page.goto('/admin/mailbox');
 	const settings = page.getByTestId('mail-settings');
@@ -23,5 +25,7 @@ test('an admin sees how mail is sent and sends a test message, which the local c
 			return page.getByTestId('message').filter({ hasText: to }).count();
 		})
 		.toBe(1);
-	await expect(page.getByTestId('message').filter({ hasText: to })).toContainText('Detune: test message');
+	await expect(page.getByTestId('message').filter({ hasText: to })).toContainText(
+		'Detune: test message'
+	);
 });

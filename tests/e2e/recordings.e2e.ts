@@ -5,10 +5,21 @@ const { WaveFile } = wavefile;
 import { signIn } from './helpers.ts';
 
 /** A bump-test ring-down made from the closed-form free decay of two modes (Rao §2.6). */
-function ringdown(fs: number, seconds: number, modes: { f: number; zeta: number; a: number }[]): number[] {
+function ringdown(
+	fs: number,
+	seconds: number,
+	modes: { f: number; zeta: number; a: number }[]
+): number[] {
 	return Array.from({ length: Math.round(fs * seconds) }, (_, i) => {
 		const t = i / fs;
-		return modes.reduce((v, m) => v + m.a * Math.exp(-m.zeta * 2 * Math.PI * m.f * t) * Math.sin(2 * Math.PI * m.f * Math.sqrt(1 - m.zeta ** 2) * t), 0);
+		return modes.reduce(
+			(v, m) =>
+				v +
+				m.a *
+					Math.exp(-m.zeta * 2 * Math.PI * m.f * t) *
+					Math.sin(2 * Math.PI * m.f * Math.sqrt(1 - m.zeta ** 2) * t),
+			0
+		);
 	});
 }
 
@@ -18,26 +29,40 @@ function wavBuffer(): Buffer {
 		{ f: 71, zeta: 0.015, a: 0.3 }
 	]);
 	const w = new WaveFile();
-	w.fromScratch(1, 2048, '16', x.map((v) => Math.round(v * 32767)));
+	w.fromScratch(
+		1,
+		2048,
+		'16',
+		x.map((v) => Math.round(v * 32767))
+	);
 	return Buffer.from(w.toBuffer());
 }
 
 function csvBuffer(): Buffer {
 	const fs = 1024;
 	const x = ringdown(fs, 5, [{ f: 31, zeta: 0.025, a: 1.2 }]);
-	return Buffer.from(`time,accel\ns,g\n${x.map((v, i) => `${(i / fs).toFixed(6)},${v.toFixed(6)}`).join('\n')}\n`);
+	return Buffer.from(
+		`time,accel\ns,g\n${x.map((v, i) => `${(i / fs).toFixed(6)},${v.toFixed(6)}`).join('\n')}\n`
+	);
 }
 
-test('a technician loads a WAV and a CSV on Floor check, drops a peak, saves, syncs, and finds the modes and the files on the asset sheet', async ({ page }) => {
+test('a technician loads a WAV and a CSV on Floor check, drops a peak, saves, syncs, and finds the modes and the files on the asset sheet', async ({
+	page
+}) => {
 	await signIn(page, 'technician');
 	await page.goto('/field');
 	await page.getByLabel('Search by tag or name').fill('KRW-RWP-102');
-	await page.getByTestId('asset-list').getByRole('button', { name: /KRW-RWP-102/ }).click();
+	await page
+		.getByTestId('asset-list')
+		.getByRole('button', { name: /KRW-RWP-102/ })
+		.click();
 	await page.getByLabel(/^Measured running speed/).fill('1000');
 	await page.getByRole('tab', { name: 'Bump-test file' }).click();
 
 	const wav = wavBuffer();
-	await page.getByLabel(/CSV or WAV file/).setInputFiles({ name: 'rwp102-hit.wav', mimeType: 'audio/wav', buffer: wav });
+	await page
+		.getByLabel(/CSV or WAV file/)
+		.setInputFiles({ name: 'rwp102-hit.wav', mimeType: 'audio/wav', buffer: wav });
 	const peaks = page.getByTestId('peaks');
 	await expect(peaks).toContainText(/22\.9\d Hz|23\.0\d Hz/);
 	await expect(peaks).toContainText(/70\.9\d Hz|71\.0\d Hz/);
@@ -49,25 +74,37 @@ test('a technician loads a WAV and a CSV on Floor check, drops a peak, saves, sy
 	await expect(page.getByTestId('modes-list')).not.toContainText(/7[01]\.\d\d Hz/);
 
 	const csv = csvBuffer();
-	await page.getByLabel(/CSV or WAV file/).setInputFiles({ name: 'rwp102-base.csv', mimeType: 'text/csv', buffer: csv });
+	await page
+		.getByLabel(/CSV or WAV file/)
+		.setInputFiles({ name: 'rwp102-base.csv', mimeType: 'text/csv', buffer: csv });
 	await expect(page.getByTestId('peaks')).toContainText(/3[01]\.\d\d Hz/);
 	await page.getByRole('button', { name: /^Use 1 frequency$/ }).click();
 	await expect(page.getByTestId('modes-list')).toContainText(/3[01]\.\d\d Hz/);
 
 	await page.getByRole('button', { name: 'Save check' }).click();
 	await page.getByRole('button', { name: 'Sync now' }).click();
-	await expect.poll(async () => Number(await page.getByTestId('outbox-count').innerText()), { timeout: 20_000 }).toBe(0);
+	await expect
+		.poll(async () => Number(await page.getByTestId('outbox-count').innerText()), {
+			timeout: 20_000
+		})
+		.toBe(0);
 
 	const pulled = await (await page.request.get('/api/sync/pull?since=0')).json();
 	const asset = pulled.assets.find((a: { tag: string }) => a.tag === 'KRW-RWP-102');
 	await page.goto(`/assets/${asset.id}`);
-	await expect(page.getByTestId('history-modes').first()).toContainText(/2[23]\.\d\d Hz \(recording\)/);
-	await expect(page.getByTestId('history-modes').first()).toContainText(/3[01]\.\d\d Hz \(recording\)/);
+	await expect(page.getByTestId('history-modes').first()).toContainText(
+		/2[23]\.\d\d Hz \(recording\)/
+	);
+	await expect(page.getByTestId('history-modes').first()).toContainText(
+		/3[01]\.\d\d Hz \(recording\)/
+	);
 	const recordings = page.getByTestId('recordings');
 	await expect(recordings).toContainText('rwp102-hit.wav');
 	await expect(recordings).toContainText('rwp102-base.csv');
 	const links = recordings.getByRole('link', { name: 'Download' });
-	const hrefs = await links.evaluateAll((as) => as.map((a) => (a as HTMLAnchorElement).getAttribute('href')));
+	const hrefs = await links.evaluateAll((as) =>
+		as.map((a) => (a as HTMLAnchorElement).getAttribute('href'))
+	);
 	const bodies = await Promise.all(hrefs.map(async (h) => (await page.request.get(h!)).body()));
 	expect(bodies.some((b) => b.equals(wav))).toBe(true);
 	expect(bodies.some((b) => b.equals(csv))).toBe(true);
@@ -81,10 +118,19 @@ test('a bad file gets its own message on Floor check and nothing is added', asyn
 	await signIn(page, 'technician');
 	await page.goto('/field');
 	await page.getByLabel('Search by tag or name').fill('KRW-RWP-104');
-	await page.getByTestId('asset-list').getByRole('button', { name: /KRW-RWP-104/ }).click();
+	await page
+		.getByTestId('asset-list')
+		.getByRole('button', { name: /KRW-RWP-104/ })
+		.click();
 	await page.getByRole('tab', { name: 'Bump-test file' }).click();
 	const bad = Buffer.from('time,accel\n0,0.1\n0.001,abc\n'.padEnd(400, '\n'));
-	await page.getByLabel(/CSV or WAV file/).setInputFiles({ name: 'bad.csv', mimeType: 'text/csv', buffer: bad });
-	await expect(page.getByTestId('recording-error')).toHaveText('Row 3, column 2 (“accel”): expected a number, found “abc”.');
-	await expect(page.getByText('None yet: type one, estimate one, or load a bump-test recording.')).toBeVisible();
+	await page
+		.getByLabel(/CSV or WAV file/)
+		.setInputFiles({ name: 'bad.csv', mimeType: 'text/csv', buffer: bad });
+	await expect(page.getByTestId('recording-error')).toHaveText(
+		'Row 3, column 2 (“accel”): expected a number, found “abc”.'
+	);
+	await expect(
+		page.getByText('None yet: type one, estimate one, or load a bump-test recording.')
+	).toBeVisible();
 });

@@ -1,9 +1,12 @@
 import { expect, test, type Page } from '@playwright/test';
 import { signIn } from './helpers.ts';
 
-const staleCount = async (page: Page) => Number((await page.getByTestId('stale-count').innerText()).split(' ')[0]);
+const staleCount = async (page: Page) =>
+	Number((await page.getByTestId('stale-count').innerText()).split(' ')[0]);
 
-test('an admin shortens a site’s recheck interval and the board flags its checks stale at once; areas are added and renamed', async ({ page }) => {
+test('an admin shortens a site’s recheck interval and the board flags its checks stale at once; areas are added and renamed', async ({
+	page
+}) => {
 	await signIn(page, 'admin');
 	await page.goto('/admin/sites');
 	const row = page.locator('[data-testid="site-row"][data-code="LBM"]');

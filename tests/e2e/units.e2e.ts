@@ -9,7 +9,9 @@ async function chooseUnits(page: Page, label: RegExp) {
 	await expect(page.getByRole('status')).toContainText('Saved');
 }
 
-test('a supervisor who works in inches sees and enters bearing diameters in inches; they are stored once, in metres', async ({ page }) => {
+test('a supervisor who works in inches sees and enters bearing diameters in inches; they are stored once, in metres', async ({
+	page
+}) => {
 	await signIn(page, 'supervisor');
 	await chooseUnits(page, /US customary/);
 	try {

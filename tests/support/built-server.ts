@@ -43,19 +43,34 @@ function lines(onLine: (line: string) => void) {
 	};
 }
 
-export async function startBuiltServer(port: number, options: StartOptions = {}): Promise<BuiltServer> {
+export async function startBuiltServer(
+	port: number,
+	options: StartOptions = {}
+): Promise<BuiltServer> {
 	if (!existsSync('build/index.js')) throw new Error('No build: run `npx vite build` first.');
 	const ownDir = options.dir === undefined;
 	const dir = options.dir ?? mkdtempSync(join(tmpdir(), 'detune-server-'));
 	mkdirSync(dir, { recursive: true });
 	const serve = options.asServeScript === true;
 	const origin = serve ? `http://localhost:${port}` : `http://127.0.0.1:${port}`;
-	const env: Record<string, string> = { PORT: String(port), DATABASE_URL: join(dir, 'detune.db'), DATA_DIR: join(dir, 'data'), MAIL_CATCHER: 'false', MAIL_JOBS: 'false', ...(serve ? {} : { HOST: '127.0.0.1', ORIGIN: origin }), ...options.env };
+	const env: Record<string, string> = {
+		PORT: String(port),
+		DATABASE_URL: join(dir, 'detune.db'),
+		DATA_DIR: join(dir, 'data'),
+		MAIL_CATCHER: 'false',
+		MAIL_JOBS: 'false',
+		...(serve ? {} : { HOST: '127.0.0.1', ORIGIN: origin }),
+		...options.env
+	};
 	const base = { ...process.env, ...env };
 	if (serve) for (const k of ['ORIGIN', 'HOST', 'BODY_SIZE_LIMIT']) if (!(k in env)) delete base[k];
 	// the script runs under npm and a shell: its own process group, so that a signal reaches node
 	const child = serve
-		? spawn('npm', ['run', '--silent', 'serve'], { env: base, stdio: ['ignore', 'pipe', 'pipe'], detached: true })
+		? spawn('npm', ['run', '--silent', 'serve'], {
+				env: base,
+				stdio: ['ignore', 'pipe', 'pipe'],
+				detached: true
+			})
 		: spawn(process.execPath, ['build'], { env: base, stdio: ['ignore', 'pipe', 'pipe'] });
 	const seen: string[] = [];
 	const waiters: { pattern: RegExp; resolve: (l: string) => void }[] = [];
@@ -63,7 +78,8 @@ export async function startBuiltServer(port: number, options: StartOptions = {})
 		'data',
 		lines((line) => {
 			if (seen.length < 1000) seen.push(line);
-			for (const w of [...waiters]) if (w.pattern.test(line)) (waiters.splice(waiters.indexOf(w), 1), w.resolve(line));
+			for (const w of [...waiters])
+				if (w.pattern.test(line)) (waiters.splice(waiters.indexOf(w), 1), w.resolve(line));
 		})
 	);
 	child.stderr!.on('data', lines(options.onStderrLine ?? (() => {})));
@@ -75,7 +91,8 @@ export async function startBuiltServer(port: number, options: StartOptions = {})
 		} catch {
 			/* not up yet */
 		}
-		if (Date.now() > deadline) throw new Error(`the server on ${origin} did not start: ${seen.join('\n')}`);
+		if (Date.now() > deadline)
+			throw new Error(`the server on ${origin} did not start: ${seen.join('\n')}`);
 		await new Promise((r) => setTimeout(r, 200));
 	}
 	const kill = async (signal: NodeJS.Signals) => {
@@ -93,7 +110,10 @@ export async function startBuiltServer(port: number, options: StartOptions = {})
 			const line = seen.find((l) => pattern.test(l));
 			if (line) return Promise.resolve(line);
 			return new Promise((resolve, reject) => {
-				const timer = setTimeout(() => reject(new Error(`no line like ${pattern} within ${timeoutMs} ms`)), timeoutMs);
+				const timer = setTimeout(
+					() => reject(new Error(`no line like ${pattern} within ${timeoutMs} ms`)),
+					timeoutMs
+				);
 				waiters.push({ pattern, resolve: (l) => (clearTimeout(timer), resolve(l)) });
 			});
 		},
@@ -120,7 +140,11 @@ export function postSignIn(origin: string, email: string, password: string): Pro
 }
 
 /** Signs in and returns the session cookie (`name=value`). */
-export async function signInCookie(origin: string, email: string, password: string): Promise<string> {
+export async function signInCookie(
+	origin: string,
+	email: string,
+	password: string
+): Promise<string> {
 	const res = await postSignIn(origin, email, password);
 	const cookie = res.headers.get('set-cookie')?.split(';')[0];
 	if (!cookie) throw new Error(`sign-in failed (${res.status})`);
@@ -128,7 +152,11 @@ export async function signInCookie(origin: string, email: string, password: stri
 }
 
 /** Opens the server's database file for a moment (WAL: safe beside the running server). */
-export function withDatabase<T>(file: string, read: (db: Database.Database) => T, options: { readonly?: boolean } = { readonly: true }): T {
+export function withDatabase<T>(
+	file: string,
+	read: (db: Database.Database) => T,
+	options: { readonly?: boolean } = { readonly: true }
+): T {
 	const db = new Database(file, options);
 	try {
 		return read(db);

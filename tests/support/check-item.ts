@@ -16,8 +16,19 @@ export function checkItem(assetId: string, measuredRpm: number, o: ItemOptions =
 		driveSetpointHz: null,
 		notes: o.notes ?? '',
 		replacesCheckId: null,
-		modes: (o.modes ?? [{ hz: 30, zeta: 0.03 }]).map((m) => ({ frequencyHz: m.hz, dampingRatio: m.zeta, direction: m.direction ?? 'horizontal', location: null, origin: 'typed' })),
+		modes: (o.modes ?? [{ hz: 30, zeta: 0.03 }]).map((m) => ({
+			frequencyHz: m.hz,
+			dampingRatio: m.zeta,
+			direction: m.direction ?? 'horizontal',
+			location: null,
+			origin: 'typed'
+		})),
 		// a made-up device summary: the server recomputes and keeps its own
-		device: { verdict: 'clear', verdictAtSpeed: 'clear', worstMarginAtSpeedPct: null, worstMarginOverRangePct: null }
+		device: {
+			verdict: 'clear',
+			verdictAtSpeed: 'clear',
+			worstMarginAtSpeedPct: null,
+			worstMarginOverRangePct: null
+		}
 	};
 }

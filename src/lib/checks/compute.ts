@@ -33,7 +33,11 @@ export interface RuleSetForCheck {
 export function ruleOf(ruleSet: RuleSetForCheck | null | undefined): MarginRule {
 	if (!ruleSet) return DEFAULT_RULE;
 	if (ruleSet.kind === 'amplification') return { kind: 'amplification' };
-	return { kind: 'fixed', percent: ruleSet.percent ?? 10, ...(ruleSet.perKind ? { perKind: ruleSet.perKind } : {}) };
+	return {
+		kind: 'fixed',
+		percent: ruleSet.percent ?? 10,
+		...(ruleSet.perKind ? { perKind: ruleSet.perKind } : {})
+	};
 }
 
 export interface CheckSummary {
@@ -52,11 +56,26 @@ export interface ComputedCheck {
 	rule: MarginRule;
 }
 
-export function computeCheck(asset: AssetForCheck, ruleSet: RuleSetForCheck | null, measuredRpm: number | null, modes: Mode[]): ComputedCheck {
+export function computeCheck(
+	asset: AssetForCheck,
+	ruleSet: RuleSetForCheck | null,
+	measuredRpm: number | null,
+	modes: Mode[]
+): ComputedCheck {
 	const rule = ruleOf(ruleSet);
-	const input = { speedRange: { minRpm: asset.minRpm, maxRpm: asset.maxRpm }, measuredRpm, sources: toEngineSources(asset.sources), modes, rule };
+	const input = {
+		speedRange: { minRpm: asset.minRpm, maxRpm: asset.maxRpm },
+		measuredRpm,
+		sources: toEngineSources(asset.sources),
+		modes,
+		rule
+	};
 	const result = evaluateCheck(input);
-	const bands = avoidanceBands(input, { poles: asset.motorPoles, motorRpmPerShaftRpm: asset.driveRatio, skipBands: asset.skipBands });
+	const bands = avoidanceBands(input, {
+		poles: asset.motorPoles,
+		motorRpmPerShaftRpm: asset.driveRatio,
+		skipBands: asset.skipBands
+	});
 	const remedies = modeRemedies(input);
 	const w = result.worstOverRange;
 	return {
@@ -75,7 +94,19 @@ export function computeCheck(asset: AssetForCheck, ruleSet: RuleSetForCheck | nu
 }
 
 /** Whether the device's figures match the server's (margins to 0.01 %). */
-export function sameSummary(a: Pick<CheckSummary, 'verdict' | 'verdictAtSpeed' | 'worstMarginAtSpeedPct' | 'worstMarginOverRangePct'>, b: typeof a): boolean {
-	const close = (x: number | null, y: number | null) => (x === null || y === null ? x === y : Math.abs(x - y) < 0.01);
-	return a.verdict === b.verdict && a.verdictAtSpeed === b.verdictAtSpeed && close(a.worstMarginAtSpeedPct, b.worstMarginAtSpeedPct) && close(a.worstMarginOverRangePct, b.worstMarginOverRangePct);
+export function sameSummary(
+	a: Pick<
+		CheckSummary,
+		'verdict' | 'verdictAtSpeed' | 'worstMarginAtSpeedPct' | 'worstMarginOverRangePct'
+	>,
+	b: typeof a
+): boolean {
+	const close = (x: number | null, y: number | null) =>
+		x === null || y === null ? x === y : Math.abs(x - y) < 0.01;
+	return (
+		a.verdict === b.verdict &&
+		a.verdictAtSpeed === b.verdictAtSpeed &&
+		close(a.worstMarginAtSpeedPct, b.worstMarginAtSpeedPct) &&
+		close(a.worstMarginOverRangePct, b.worstMarginOverRangePct)
+	);
 }

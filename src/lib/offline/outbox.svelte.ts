@@ -4,8 +4,20 @@
  * with the server's reason, until it is fixed or discarded. Pushes run oldest first, on demand, on
  * reconnect and on a timer that backs off after failures.
  */
-import { offlineDb, getMeta, setMeta, applyPull, type OutboxItem, type PendingRecording } from './store.ts';
-import { MAX_PUSH_ITEMS, type CheckPush, type PushResponse, type PullResponse } from '../schemas/sync.ts';
+import {
+	offlineDb,
+	getMeta,
+	setMeta,
+	applyPull,
+	type OutboxItem,
+	type PendingRecording
+} from './store.ts';
+import {
+	MAX_PUSH_ITEMS,
+	type CheckPush,
+	type PushResponse,
+	type PullResponse
+} from '../schemas/sync.ts';
 
 export type SyncState = 'idle' | 'syncing' | 'offline' | 'signed-out' | 'error';
 
@@ -15,7 +27,12 @@ const MAX_DELAY = 5 * 60_000;
 const TIMER = 60_000;
 
 function isOutboxItem(v: unknown): v is OutboxItem {
-	return typeof v === 'object' && v !== null && typeof (v as OutboxItem).id === 'string' && typeof (v as OutboxItem).payload === 'object';
+	return (
+		typeof v === 'object' &&
+		v !== null &&
+		typeof (v as OutboxItem).id === 'string' &&
+		typeof (v as OutboxItem).payload === 'object'
+	);
 }
 
 export class SyncManager {
@@ -59,8 +76,22 @@ export class SyncManager {
 		this.items = all.filter(isOutboxItem);
 	}
 
-	async add(payload: CheckPush, display: OutboxItem['display'], recordings: PendingRecording[] = []): Promise<void> {
-		const item: OutboxItem = { id: payload.id, createdAt: Date.now(), payload, status: 'pending', reason: null, attempts: 0, lastAttemptAt: null, display, recordings };
+	async add(
+		payload: CheckPush,
+		display: OutboxItem['display'],
+		recordings: PendingRecording[] = []
+	): Promise<void> {
+		const item: OutboxItem = {
+			id: payload.id,
+			createdAt: Date.now(),
+			payload,
+			status: 'pending',
+			reason: null,
+			attempts: 0,
+			lastAttemptAt: null,
+			display,
+			recordings
+		};
 		await (await offlineDb()).put('outbox', item);
 		await this.refresh();
 		this.#schedule(500);
@@ -76,7 +107,12 @@ export class SyncManager {
 		const db = await offlineDb();
 		const item = await db.get('outbox', id);
 		if (!item) return;
-		await db.put('outbox', { ...item, payload: payload ?? item.payload, status: 'pending', reason: null });
+		await db.put('outbox', {
+			...item,
+			payload: payload ?? item.payload,
+			status: 'pending',
+			reason: null
+		});
 		await this.refresh();
 		this.#schedule(200);
 	}
@@ -114,20 +150,26 @@ export class SyncManager {
 			this.lastSyncAt = Date.now();
 			await setMeta('lastSyncAt', this.lastSyncAt);
 		} catch (e) {
-			if ((this.state as SyncState) !== 'signed-out') this.#fail(e instanceof Error ? e.message : String(e));
+			if ((this.state as SyncState) !== 'signed-out')
+				this.#fail(e instanceof Error ? e.message : String(e));
 		} finally {
-			if (this.pending.length > 0 && (this.state as SyncState) !== 'signed-out') this.#schedule(this.#delay());
+			if (this.pending.length > 0 && (this.state as SyncState) !== 'signed-out')
+				this.#schedule(this.#delay());
 		}
 	}
 
 	#delay(): number {
-		return this.#failures === 0 ? TIMER : Math.min(MAX_DELAY, BASE_DELAY * 2 ** (this.#failures - 1));
+		return this.#failures === 0
+			? TIMER
+			: Math.min(MAX_DELAY, BASE_DELAY * 2 ** (this.#failures - 1));
 	}
 
 	#fail(message: string): void {
 		this.#failures++;
 		this.state = navigator.onLine ? 'error' : 'offline';
-		this.message = navigator.onLine ? `${message} Next try in ${Math.round(this.#delay() / 1000)} s.` : 'Offline: checks wait in the outbox.';
+		this.message = navigator.onLine
+			? `${message} Next try in ${Math.round(this.#delay() / 1000)} s.`
+			: 'Offline: checks wait in the outbox.';
 	}
 
 	#schedule(ms: number): void {
@@ -175,11 +217,22 @@ export class SyncManager {
 				const item = batch.find((b) => b.id === r.id);
 				if (!item) continue;
 				if (r.status === 'applied' || r.status === 'duplicate') await db.delete('outbox', item.id);
-				else await db.put('outbox', { ...item, status: 'rejected', reason: r.reason ?? 'Rejected by the server.', attempts: item.attempts + 1, lastAttemptAt: Date.now() });
+				else
+					await db.put('outbox', {
+						...item,
+						status: 'rejected',
+						reason: r.reason ?? 'Rejected by the server.',
+						attempts: item.attempts + 1,
+						lastAttemptAt: Date.now()
+					});
 			}
 			await this.refresh();
 			if (!res.ok) {
-				this.#fail(body?.error ?? (body as { message?: string } | null)?.message ?? `The server answered ${res.status}.`);
+				this.#fail(
+					body?.error ??
+						(body as { message?: string } | null)?.message ??
+						`The server answered ${res.status}.`
+				);
 				return 'stop';
 			}
 		}
@@ -196,10 +249,19 @@ export class SyncManager {
 		for (const item of items) {
 			for (const rec of item.recordings ?? []) {
 				if (rec.uploaded) continue;
-				const q = new URLSearchParams({ id: rec.id, assetId: rec.assetId, name: rec.fileName, ...(rec.sampleRateHz ? { sampleRateHz: String(rec.sampleRateHz) } : {}) });
+				const q = new URLSearchParams({
+					id: rec.id,
+					assetId: rec.assetId,
+					name: rec.fileName,
+					...(rec.sampleRateHz ? { sampleRateHz: String(rec.sampleRateHz) } : {})
+				});
 				let res: Response;
 				try {
-					res = await fetch(`/api/recordings?${q}`, { method: 'POST', headers: { 'content-type': rec.mediaType || 'application/octet-stream' }, body: rec.file });
+					res = await fetch(`/api/recordings?${q}`, {
+						method: 'POST',
+						headers: { 'content-type': rec.mediaType || 'application/octet-stream' },
+						body: rec.file
+					});
 				} catch {
 					this.#fail('The server could not be reached.');
 					return 'stop';
@@ -207,10 +269,21 @@ export class SyncManager {
 				if (res.status === 401) return this.#signedOut();
 				const fresh = (await db.get('outbox', item.id)) ?? item;
 				if (res.ok) {
-					await db.put('outbox', { ...fresh, recordings: (fresh.recordings ?? []).map((r) => (r.id === rec.id ? { ...r, uploaded: true } : r)) });
+					await db.put('outbox', {
+						...fresh,
+						recordings: (fresh.recordings ?? []).map((r) =>
+							r.id === rec.id ? { ...r, uploaded: true } : r
+						)
+					});
 				} else if (res.status >= 400 && res.status < 500) {
 					const body = (await res.json().catch(() => null)) as { message?: string } | null;
-					await db.put('outbox', { ...fresh, status: 'rejected', reason: `Recording ${rec.fileName}: ${body?.message ?? `refused (${res.status})`}`, attempts: fresh.attempts + 1, lastAttemptAt: Date.now() });
+					await db.put('outbox', {
+						...fresh,
+						status: 'rejected',
+						reason: `Recording ${rec.fileName}: ${body?.message ?? `refused (${res.status})`}`,
+						attempts: fresh.attempts + 1,
+						lastAttemptAt: Date.now()
+					});
 				} else {
 					this.#fail(`Uploading ${rec.fileName} failed (${res.status}).`);
 					return 'stop';

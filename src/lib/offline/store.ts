@@ -80,7 +80,13 @@ export async function markRecent(assetId: string): Promise<void> {
 }
 
 /** Stores a pull: a full one replaces the assets and rule sets, a delta merges. */
-export async function applyPull(p: { full: boolean; assets: PulledAsset[]; ruleSets: PulledRuleSet[]; deleted: { entity: string; id: string }[]; cursor: number }): Promise<void> {
+export async function applyPull(p: {
+	full: boolean;
+	assets: PulledAsset[];
+	ruleSets: PulledRuleSet[];
+	deleted: { entity: string; id: string }[];
+	cursor: number;
+}): Promise<void> {
 	const db = await offlineDb();
 	const tx = db.transaction(['assets', 'ruleSets', 'meta'], 'readwrite');
 	if (p.full) {

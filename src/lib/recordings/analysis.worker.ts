@@ -21,16 +21,32 @@ self.onmessage = async (e: MessageEvent<Request>) => {
 	try {
 		checkSize(file.name, file.size);
 		post({ type: 'progress', stage: 'Reading the file', fraction: 0 });
-		const isWav = /\.wav$/i.test(file.name) || file.type === 'audio/wav' || file.type === 'audio/x-wav';
+		const isWav =
+			/\.wav$/i.test(file.name) || file.type === 'audio/wav' || file.type === 'audio/x-wav';
 		const recording = isWav
 			? parseWav(new Uint8Array(await file.arrayBuffer()), file.name)
-			: await parseCsvBlob(file, sampleRateHz, (f) => post({ type: 'progress', stage: 'Reading the file', fraction: f * 0.5 }));
+			: await parseCsvBlob(file, sampleRateHz, (f) =>
+					post({ type: 'progress', stage: 'Reading the file', fraction: f * 0.5 })
+				);
 		const pick = choice ?? defaultChoice(recording);
 		post({ type: 'progress', stage: 'Finding the modes', fraction: 0.5 });
-		const analysis = analyzeRecording(recording, pick, (f) => post({ type: 'progress', stage: 'Finding the modes', fraction: 0.5 + f / 2 }));
+		const analysis = analyzeRecording(recording, pick, (f) =>
+			post({ type: 'progress', stage: 'Finding the modes', fraction: 0.5 + f / 2 })
+		);
 		post({
 			type: 'done',
-			recording: { format: recording.format, fileName: recording.fileName, sizeBytes: recording.sizeBytes, sampleRateHz: recording.sampleRateHz, durationS: recording.durationS, channels: recording.channels.map((c) => ({ name: c.name, unit: c.unit, samples: c.samples.length })) },
+			recording: {
+				format: recording.format,
+				fileName: recording.fileName,
+				sizeBytes: recording.sizeBytes,
+				sampleRateHz: recording.sampleRateHz,
+				durationS: recording.durationS,
+				channels: recording.channels.map((c) => ({
+					name: c.name,
+					unit: c.unit,
+					samples: c.samples.length
+				}))
+			},
 			choice: pick,
 			analysis
 		});

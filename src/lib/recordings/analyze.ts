@@ -3,7 +3,12 @@
  * channel → the two-channel FRF. The same function runs in the browser worker, on the server at
  * ingest and in the tests.
  */
-import { analyzeImpact, analyzeRingdown, type ImpactResult, type RingdownResult } from '../vibration/index.ts';
+import {
+	analyzeImpact,
+	analyzeRingdown,
+	type ImpactResult,
+	type RingdownResult
+} from '../vibration/index.ts';
 import type { Recording } from './types.ts';
 
 export interface AnalysisChoice {
@@ -14,21 +19,38 @@ export interface AnalysisChoice {
 	exponentialWindowS?: number | null;
 }
 
-export type Analysis = { kind: 'ringdown'; result: RingdownResult } | { kind: 'impact'; result: ImpactResult; ringdown: RingdownResult };
+export type Analysis =
+	| { kind: 'ringdown'; result: RingdownResult }
+	| { kind: 'impact'; result: ImpactResult; ringdown: RingdownResult };
 
 /** Guesses the channels: a channel named like a force (or in N/lbf) is the hammer. */
 export function defaultChoice(r: Recording): AnalysisChoice {
-	const force = r.channels.findIndex((c) => /force|hammer|kraft|^f$/i.test(c.name) || /^(n|lbf|kn)$/i.test(c.unit));
+	const force = r.channels.findIndex(
+		(c) => /force|hammer|kraft|^f$/i.test(c.name) || /^(n|lbf|kn)$/i.test(c.unit)
+	);
 	const response = r.channels.findIndex((_, i) => i !== force);
-	return { response: Math.max(0, response), force: force >= 0 && r.channels.length > 1 ? force : null };
+	return {
+		response: Math.max(0, response),
+		force: force >= 0 && r.channels.length > 1 ? force : null
+	};
 }
 
-export function analyzeRecording(r: Recording, choice: AnalysisChoice, onProgress: (f: number) => void = () => {}): Analysis {
+export function analyzeRecording(
+	r: Recording,
+	choice: AnalysisChoice,
+	onProgress: (f: number) => void = () => {}
+): Analysis {
 	const resp = r.channels[choice.response];
 	if (!resp) throw new Error(`There is no channel ${choice.response + 1}.`);
-	const ringdown = analyzeRingdown(resp.samples, r.sampleRateHz, { exponentialWindowS: choice.exponentialWindowS ?? null, onProgress: (f) => onProgress(choice.force === null ? f : f / 2) });
+	const ringdown = analyzeRingdown(resp.samples, r.sampleRateHz, {
+		exponentialWindowS: choice.exponentialWindowS ?? null,
+		onProgress: (f) => onProgress(choice.force === null ? f : f / 2)
+	});
 	if (choice.force === null) return { kind: 'ringdown', result: ringdown };
 	const force = r.channels[choice.force];
-	const result = analyzeImpact(force.samples, resp.samples, r.sampleRateHz, { exponentialWindowS: choice.exponentialWindowS ?? null, onProgress: (f) => onProgress(0.5 + f / 2) });
+	const result = analyzeImpact(force.samples, resp.samples, r.sampleRateHz, {
+		exponentialWindowS: choice.exponentialWindowS ?? null,
+		onProgress: (f) => onProgress(0.5 + f / 2)
+	});
 	return { kind: 'impact', result, ringdown };
 }

@@ -55,17 +55,24 @@ export class CsvCollector {
 				}
 				this.#width = this.#names?.length ?? cells.length;
 				this.#columns = Array.from({ length: this.#width }, () => new Column());
-				this.#decimalComma = !this.delimiterIsComma() && cells.some((c) => /^\s*[+-]?\d*,\d+/.test(c));
+				this.#decimalComma =
+					!this.delimiterIsComma() && cells.some((c) => /^\s*[+-]?\d*,\d+/.test(c));
 			}
 			if (cells.length !== this.#width) {
-				throw new RecordingError(`Row ${this.#row} has ${cells.length} value${cells.length === 1 ? '' : 's'}; the file has ${this.#width} columns.`, { row: this.#row });
+				throw new RecordingError(
+					`Row ${this.#row} has ${cells.length} value${cells.length === 1 ? '' : 's'}; the file has ${this.#width} columns.`,
+					{ row: this.#row }
+				);
 			}
 			for (let c = 0; c < cells.length; c++) {
 				const text = this.#decimalComma ? cells[c].replace(',', '.') : cells[c];
 				const v = isNumberText(text) ? Number(text) : NaN;
 				if (!Number.isFinite(v)) {
 					const name = this.#names?.[c] ? ` (“${this.#names[c]}”)` : '';
-					throw new RecordingError(`Row ${this.#row}, column ${c + 1}${name}: expected a number, found “${cells[c].slice(0, 30)}”.`, { row: this.#row, column: c + 1 });
+					throw new RecordingError(
+						`Row ${this.#row}, column ${c + 1}${name}: expected a number, found “${cells[c].slice(0, 30)}”.`,
+						{ row: this.#row, column: c + 1 }
+					);
 				}
 				this.#columns[c].push(v);
 			}
@@ -73,25 +80,45 @@ export class CsvCollector {
 	}
 
 	finish(fileName: string, sizeBytes: number, sampleRateHz: number | null): Recording {
-		if (!this.#columns || this.#columns[0].length === 0) throw new RecordingError(`${fileName} holds no rows of numbers.`);
+		if (!this.#columns || this.#columns[0].length === 0)
+			throw new RecordingError(`${fileName} holds no rows of numbers.`);
 		const cols = this.#columns.map((c) => c.values());
-		const names = this.#names ?? cols.map((_, i) => (i === 0 && cols.length > 1 && sampleRateHz === null ? 'time' : `Channel ${i + 1}`));
+		const names =
+			this.#names ??
+			cols.map((_, i) =>
+				i === 0 && cols.length > 1 && sampleRateHz === null ? 'time' : `Channel ${i + 1}`
+			);
 		const units = this.#units ?? cols.map(() => '');
-		const timeAt = names.findIndex((n, i) => TIME_NAMES.test(n) || (units[i] ?? '').toLowerCase() === 's');
+		const timeAt = names.findIndex(
+			(n, i) => TIME_NAMES.test(n) || (units[i] ?? '').toLowerCase() === 's'
+		);
 		let fs = sampleRateHz;
 		let first = 0;
 		if (timeAt === 0 || (timeAt < 0 && sampleRateHz === null && cols.length > 1)) {
 			fs = rateFromTime(cols[0]);
 			first = 1;
 		} else if (timeAt > 0) {
-			throw new RecordingError(`The time column must come first; “${names[timeAt]}” is column ${timeAt + 1}.`, { column: timeAt + 1 });
+			throw new RecordingError(
+				`The time column must come first; “${names[timeAt]}” is column ${timeAt + 1}.`,
+				{ column: timeAt + 1 }
+			);
 		}
-		if (fs === null) throw new RecordingError('This file has no time column: give the sample rate in Hz.');
-		if (!(fs > 0) || !Number.isFinite(fs)) throw new RecordingError('The sample rate must be a number greater than zero.');
-		const channels: Channel[] = cols.slice(first).map((samples, i) => ({ name: names[first + i] || `Channel ${i + 1}`, unit: units[first + i] ?? '', samples }));
-		if (channels.length === 0) throw new RecordingError('The file has a time column but no channel of measurements.');
+		if (fs === null)
+			throw new RecordingError('This file has no time column: give the sample rate in Hz.');
+		if (!(fs > 0) || !Number.isFinite(fs))
+			throw new RecordingError('The sample rate must be a number greater than zero.');
+		const channels: Channel[] = cols.slice(first).map((samples, i) => ({
+			name: names[first + i] || `Channel ${i + 1}`,
+			unit: units[first + i] ?? '',
+			samples
+		}));
+		if (channels.length === 0)
+			throw new RecordingError('The file has a time column but no channel of measurements.');
 		const n = channels[0].samples.length;
-		if (n < 64) throw new RecordingError(`The recording has only ${n} samples; a bump test needs at least 64.`);
+		if (n < 64)
+			throw new RecordingError(
+				`The recording has only ${n} samples; a bump test needs at least 64.`
+			);
 		return { format: 'csv', fileName, sizeBytes, sampleRateHz: fs, durationS: n / fs, channels };
 	}
 }
@@ -100,11 +127,15 @@ export class CsvCollector {
 function rateFromTime(t: Float64Array): number {
 	if (t.length < 2) throw new RecordingError('The time column needs at least two rows.');
 	const dt = t[1] - t[0];
-	if (!(dt > 0)) throw new RecordingError('The time column must increase from row to row.', { column: 1 });
+	if (!(dt > 0))
+		throw new RecordingError('The time column must increase from row to row.', { column: 1 });
 	for (let i = 1; i < t.length; i++) {
 		const step = t[i] - t[i - 1];
 		if (Math.abs(step - dt) > 0.01 * dt + 1e-12) {
-			throw new RecordingError(`The time column is not evenly spaced at data row ${i + 1}: a step of ${step.toPrecision(4)} s where ${dt.toPrecision(4)} s is usual.`, { row: i + 1, column: 1 });
+			throw new RecordingError(
+				`The time column is not evenly spaced at data row ${i + 1}: a step of ${step.toPrecision(4)} s where ${dt.toPrecision(4)} s is usual.`,
+				{ row: i + 1, column: 1 }
+			);
 		}
 	}
 	return (t.length - 1) / (t[t.length - 1] - t[0]);
@@ -114,7 +145,12 @@ function rateFromTime(t: Float64Array): number {
  * Parses CSV text (server, tests) in chunks, so the row arrays of a large file never all exist at
  * once. `onChunk` reports progress as a fraction of characters read.
  */
-export function parseCsvText(text: string, fileName: string, sampleRateHz: number | null = null, onChunk: (fraction: number) => void = () => {}): Recording {
+export function parseCsvText(
+	text: string,
+	fileName: string,
+	sampleRateHz: number | null = null,
+	onChunk: (fraction: number) => void = () => {}
+): Recording {
 	checkSize(fileName, text.length);
 	let comma = true;
 	const collector = new CsvCollector(() => comma);
@@ -142,7 +178,11 @@ export function parseCsvText(text: string, fileName: string, sampleRateHz: numbe
 }
 
 /** Parses a CSV Blob in chunks (browser worker), reporting progress as a fraction of bytes read. */
-export function parseCsvBlob(file: Blob & { name?: string }, sampleRateHz: number | null, onProgress: (f: number) => void = () => {}): Promise<Recording> {
+export function parseCsvBlob(
+	file: Blob & { name?: string },
+	sampleRateHz: number | null,
+	onProgress: (f: number) => void = () => {}
+): Promise<Recording> {
 	const name = file.name ?? 'recording.csv';
 	checkSize(name, file.size);
 	return new Promise((resolve, reject) => {

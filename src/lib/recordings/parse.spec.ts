@@ -4,7 +4,8 @@ import { parseCsvText } from './csv.ts';
 import { parseWav } from './wav.ts';
 import { RecordingError } from './types.ts';
 
-const sine = (n: number, fs: number, f: number, a = 0.5) => Array.from({ length: n }, (_, i) => a * Math.exp(-i / n) * Math.sin((2 * Math.PI * f * i) / fs));
+const sine = (n: number, fs: number, f: number, a = 0.5) =>
+	Array.from({ length: n }, (_, i) => a * Math.exp(-i / n) * Math.sin((2 * Math.PI * f * i) / fs));
 
 function wav(bitDepth: string, channels: number[][], fs = 2048): Uint8Array {
 	const w = new WaveFile();
@@ -22,7 +23,8 @@ describe('WAV recordings', () => {
 		expect(r.channels).toHaveLength(1);
 		expect(r.channels[0].samples).toHaveLength(1000);
 		const tol = depth === '16' ? 1e-4 : 1e-6;
-		for (const i of [10, 100, 500]) expect(Math.abs(r.channels[0].samples[i] - x[i])).toBeLessThan(tol);
+		for (const i of [10, 100, 500])
+			expect(Math.abs(r.channels[0].samples[i] - x[i])).toBeLessThan(tol);
 		expect(r.durationS).toBeCloseTo(1000 / 2048, 12);
 	});
 
@@ -34,8 +36,12 @@ describe('WAV recordings', () => {
 
 	it('says so when the file is truncated, not a WAV, or too short', () => {
 		const good = wav('16', [sine(1000, 2048, 40)]);
-		expect(() => parseWav(good.slice(0, 600), 'cut.wav')).toThrow(/cut.wav is truncated: its header promises 2000 bytes of samples but only 556 are there/);
-		expect(() => parseWav(new TextEncoder().encode('time,accel\n0,1\n'.repeat(10)), 'x.wav')).toThrow(/is not a WAV file/);
+		expect(() => parseWav(good.slice(0, 600), 'cut.wav')).toThrow(
+			/cut.wav is truncated: its header promises 2000 bytes of samples but only 556 are there/
+		);
+		expect(() =>
+			parseWav(new TextEncoder().encode('time,accel\n0,1\n'.repeat(10)), 'x.wav')
+		).toThrow(/is not a WAV file/);
 		expect(() => parseWav(wav('16', [sine(20, 2048, 40)]), 'tiny.wav')).toThrow(/only 20 samples/);
 		expect(() => parseWav(new Uint8Array(0), 'empty.wav')).toThrow(/empty.wav is empty/);
 	});
@@ -43,7 +49,11 @@ describe('WAV recordings', () => {
 
 describe('CSV recordings', () => {
 	const rows = (n: number, fs: number, sep = ',', dec = '.') =>
-		Array.from({ length: n }, (_, i) => [(i / fs).toFixed(6), (Math.sin(i / 5) * 0.3).toFixed(5), (Math.cos(i / 7) * 2).toFixed(4)].map((v) => v.replace('.', dec)).join(sep)).join('\n');
+		Array.from({ length: n }, (_, i) =>
+			[(i / fs).toFixed(6), (Math.sin(i / 5) * 0.3).toFixed(5), (Math.cos(i / 7) * 2).toFixed(4)]
+				.map((v) => v.replace('.', dec))
+				.join(sep)
+		).join('\n');
 
 	it('reads a time column and two channels with a header and a units row', () => {
 		const text = `time,accel,force\ns,g,N\n${rows(200, 1000)}`;
@@ -65,11 +75,15 @@ describe('CSV recordings', () => {
 		expect(fractions.length).toBeGreaterThan(2);
 		expect(r.channels[0].samples).toHaveLength(n);
 		expect(r.sampleRateHz).toBeCloseTo(5000, 3);
-		for (const i of [0, 41_234, 87_001, n - 1]) expect(r.channels[0].samples[i]).toBeCloseTo(Math.sin(i / 9) * 0.25, 6);
+		for (const i of [0, 41_234, 87_001, n - 1])
+			expect(r.channels[0].samples[i]).toBeCloseTo(Math.sin(i / 9) * 0.25, 6);
 	});
 
 	it('reads semicolons with a decimal comma', () => {
-		const r = parseCsvText(`Zeit;Beschleunigung\n${rows(100, 500, ';', ',').replace(/;[^;\n]*$/gm, '')}`, 'de.csv');
+		const r = parseCsvText(
+			`Zeit;Beschleunigung\n${rows(100, 500, ';', ',').replace(/;[^;\n]*$/gm, '')}`,
+			'de.csv'
+		);
 		expect(r.sampleRateHz).toBeCloseTo(500, 6);
 		expect(r.channels[0].samples[5]).toBeCloseTo(Math.sin(1) * 0.3, 4);
 	});
@@ -79,18 +93,26 @@ describe('CSV recordings', () => {
 		const r = parseCsvText(text, 'one.csv', 2560);
 		expect(r.sampleRateHz).toBe(2560);
 		expect(r.channels).toHaveLength(1);
-		expect(() => parseCsvText(text, 'one.csv')).toThrow(/no time column: give the sample rate in Hz/);
-		expect(() => parseCsvText(text, 'one.csv', 0)).toThrow(/sample rate must be a number greater than zero/);
+		expect(() => parseCsvText(text, 'one.csv')).toThrow(
+			/no time column: give the sample rate in Hz/
+		);
+		expect(() => parseCsvText(text, 'one.csv', 0)).toThrow(
+			/sample rate must be a number greater than zero/
+		);
 	});
 
 	it('names the row and column of text in a number column, NaN rows and ragged rows', () => {
 		const base = `time,accel\n${rows(100, 1000).replace(/,[^,\n]*$/gm, '')}`.split('\n');
 		const withText = [...base];
 		withText[57] = '0.056000,abc';
-		expect(() => parseCsvText(withText.join('\n'), 'a.csv')).toThrow('Row 58, column 2 (“accel”): expected a number, found “abc”.');
+		expect(() => parseCsvText(withText.join('\n'), 'a.csv')).toThrow(
+			'Row 58, column 2 (“accel”): expected a number, found “abc”.'
+		);
 		const withNaN = [...base];
 		withNaN[9] = '0.008000,NaN';
-		expect(() => parseCsvText(withNaN.join('\n'), 'b.csv')).toThrow(/Row 10, column 2 \(“accel”\): expected a number, found “NaN”/);
+		expect(() => parseCsvText(withNaN.join('\n'), 'b.csv')).toThrow(
+			/Row 10, column 2 \(“accel”\): expected a number, found “NaN”/
+		);
 		const ragged = [...base];
 		ragged[12] = '0.011000,1,2';
 		try {
@@ -105,9 +127,13 @@ describe('CSV recordings', () => {
 
 	it('refuses an empty file, an uneven time column and a 60 MB file, each with its own message', () => {
 		expect(() => parseCsvText('', 'empty.csv')).toThrow('empty.csv is empty.');
-		expect(() => parseCsvText('time,accel\n', 'hdr.csv')).toThrow('hdr.csv holds no rows of numbers.');
+		expect(() => parseCsvText('time,accel\n', 'hdr.csv')).toThrow(
+			'hdr.csv holds no rows of numbers.'
+		);
 		const uneven = `time,a\n${Array.from({ length: 100 }, (_, i) => `${i < 50 ? i / 1000 : i / 500},${i}`).join('\n')}`;
 		expect(() => parseCsvText(uneven, 'u.csv')).toThrow(/not evenly spaced at data row 51/);
-		expect(() => parseCsvText('x'.repeat(60 * 1024 * 1024), 'big.csv')).toThrow('big.csv is 60.0 MB; recordings may be at most 50 MB.');
+		expect(() => parseCsvText('x'.repeat(60 * 1024 * 1024), 'big.csv')).toThrow(
+			'big.csv is 60.0 MB; recordings may be at most 50 MB.'
+		);
 	});
 });

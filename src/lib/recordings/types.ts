@@ -31,5 +31,8 @@ export class RecordingError extends Error {
 
 export function checkSize(name: string, bytes: number): void {
 	if (bytes === 0) throw new RecordingError(`${name} is empty.`);
-	if (bytes > MAX_RECORDING_BYTES) throw new RecordingError(`${name} is ${(bytes / 1048576).toFixed(1)} MB; recordings may be at most 50 MB.`);
+	if (bytes > MAX_RECORDING_BYTES)
+		throw new RecordingError(
+			`${name} is ${(bytes / 1048576).toFixed(1)} MB; recordings may be at most 50 MB.`
+		);
 }

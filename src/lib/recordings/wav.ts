@@ -2,16 +2,21 @@
 import * as wavefile from 'wavefile';
 
 // wavefile ships a UMD bundle: node sees its exports only as the default, bundlers as names
-const WaveFile: typeof wavefile.WaveFile = (wavefile as unknown as { WaveFile?: typeof wavefile.WaveFile }).WaveFile ?? (wavefile as unknown as { default: typeof wavefile }).default.WaveFile;
+const WaveFile: typeof wavefile.WaveFile =
+	(wavefile as unknown as { WaveFile?: typeof wavefile.WaveFile }).WaveFile ??
+	(wavefile as unknown as { default: typeof wavefile }).default.WaveFile;
 type WaveFile = InstanceType<typeof WaveFile>;
 import { RecordingError, checkSize, type Recording } from './types.ts';
 
-const text = (b: Uint8Array, at: number) => String.fromCharCode(b[at], b[at + 1], b[at + 2], b[at + 3]);
+const text = (b: Uint8Array, at: number) =>
+	String.fromCharCode(b[at], b[at + 1], b[at + 2], b[at + 3]);
 
 export function parseWav(bytes: Uint8Array, fileName: string): Recording {
 	checkSize(fileName, bytes.length);
 	if (bytes.length < 44 || text(bytes, 0) !== 'RIFF' || text(bytes, 8) !== 'WAVE') {
-		throw new RecordingError(`${fileName} is not a WAV file (it does not start with a RIFF/WAVE header).`);
+		throw new RecordingError(
+			`${fileName} is not a WAV file (it does not start with a RIFF/WAVE header).`
+		);
 	}
 	const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
 	// find the data chunk and compare its declared size with what is there
@@ -28,9 +33,12 @@ export function parseWav(bytes: Uint8Array, fileName: string): Recording {
 		}
 		at += 8 + size + (size % 2);
 	}
-	if (dataAt < 0) throw new RecordingError(`${fileName} has no data chunk: the file is truncated or damaged.`);
+	if (dataAt < 0)
+		throw new RecordingError(`${fileName} has no data chunk: the file is truncated or damaged.`);
 	if (dataAt + dataSize > bytes.length) {
-		throw new RecordingError(`${fileName} is truncated: its header promises ${dataSize} bytes of samples but only ${bytes.length - dataAt} are there.`);
+		throw new RecordingError(
+			`${fileName} is truncated: its header promises ${dataSize} bytes of samples but only ${bytes.length - dataAt} are there.`
+		);
 	}
 	let wav: WaveFile;
 	try {
@@ -38,22 +46,46 @@ export function parseWav(bytes: Uint8Array, fileName: string): Recording {
 	} catch (e) {
 		throw new RecordingError(`${fileName} could not be read as WAV: ${(e as Error).message}`);
 	}
-	const fmt = wav.fmt as { audioFormat: number; numChannels: number; sampleRate: number; bitsPerSample: number };
-	const float = fmt.audioFormat === 3 || (fmt.audioFormat === 65534 && (wav.bitDepth === '32f' || wav.bitDepth === '64'));
-	const supported = float ? [32, 64].includes(fmt.bitsPerSample) : [16, 24, 32].includes(fmt.bitsPerSample) && [1, 65534].includes(fmt.audioFormat);
+	const fmt = wav.fmt as {
+		audioFormat: number;
+		numChannels: number;
+		sampleRate: number;
+		bitsPerSample: number;
+	};
+	const float =
+		fmt.audioFormat === 3 ||
+		(fmt.audioFormat === 65534 && (wav.bitDepth === '32f' || wav.bitDepth === '64'));
+	const supported = float
+		? [32, 64].includes(fmt.bitsPerSample)
+		: [16, 24, 32].includes(fmt.bitsPerSample) && [1, 65534].includes(fmt.audioFormat);
 	if (!supported) {
-		throw new RecordingError(`${fileName} is ${float ? 'float' : 'PCM'} ${fmt.bitsPerSample}-bit (format ${fmt.audioFormat}); Detune reads PCM 16/24/32-bit and float 32/64-bit WAV.`);
+		throw new RecordingError(
+			`${fileName} is ${float ? 'float' : 'PCM'} ${fmt.bitsPerSample}-bit (format ${fmt.audioFormat}); Detune reads PCM 16/24/32-bit and float 32/64-bit WAV.`
+		);
 	}
-	if (!(fmt.sampleRate > 0)) throw new RecordingError(`${fileName} gives a sample rate of ${fmt.sampleRate} Hz.`);
+	if (!(fmt.sampleRate > 0))
+		throw new RecordingError(`${fileName} gives a sample rate of ${fmt.sampleRate} Hz.`);
 	const raw = wav.getSamples(false, Float64Array) as unknown as Float64Array | Float64Array[];
 	const chans = fmt.numChannels === 1 ? [raw as Float64Array] : (raw as Float64Array[]);
 	const scale = float ? 1 : 2 ** (fmt.bitsPerSample - 1);
 	const channels = chans.map((c, i) => {
 		const s = new Float64Array(c.length);
 		for (let k = 0; k < c.length; k++) s[k] = c[k] / scale;
-		return { name: chans.length === 1 ? 'Response' : `Channel ${i + 1}`, unit: 'full scale', samples: s };
+		return {
+			name: chans.length === 1 ? 'Response' : `Channel ${i + 1}`,
+			unit: 'full scale',
+			samples: s
+		};
 	});
 	const n = channels[0]?.samples.length ?? 0;
-	if (n < 64) throw new RecordingError(`${fileName} holds only ${n} samples; a bump test needs at least 64.`);
-	return { format: 'wav', fileName, sizeBytes: bytes.length, sampleRateHz: fmt.sampleRate, durationS: n / fmt.sampleRate, channels };
+	if (n < 64)
+		throw new RecordingError(`${fileName} holds only ${n} samples; a bump test needs at least 64.`);
+	return {
+		format: 'wav',
+		fileName,
+		sizeBytes: bytes.length,
+		sampleRateHz: fmt.sampleRate,
+		durationS: n / fmt.sampleRate,
+		channels
+	};
 }

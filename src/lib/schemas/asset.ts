@@ -3,26 +3,72 @@ import { z } from 'zod';
 import { MACHINE_KINDS_LIST } from './shared-enums.ts';
 
 const numberText = (what: string) =>
-	z.preprocess((v) => (typeof v === 'string' ? (v.trim() === '' ? undefined : Number(v.replace(',', '.'))) : v), z.number({ error: `${what}: enter a number.` }).finite(`${what}: enter a number.`));
+	z.preprocess(
+		(v) =>
+			typeof v === 'string' ? (v.trim() === '' ? undefined : Number(v.replace(',', '.'))) : v,
+		z.number({ error: `${what}: enter a number.` }).finite(`${what}: enter a number.`)
+	);
 const optionalNumber = (what: string) =>
-	z.preprocess((v) => (typeof v === 'string' ? (v.trim() === '' ? null : Number(v.replace(',', '.'))) : (v ?? null)), z.number({ error: `${what}: enter a number or leave it empty.` }).finite().nullable());
+	z.preprocess(
+		(v) =>
+			typeof v === 'string' ? (v.trim() === '' ? null : Number(v.replace(',', '.'))) : (v ?? null),
+		z
+			.number({ error: `${what}: enter a number or leave it empty.` })
+			.finite()
+			.nullable()
+	);
 
 export const assetForm = z
 	.object({
-		name: z.string().trim().min(2, 'Name: at least 2 characters.').max(120, 'Name: at most 120 characters.'),
-		machineKind: z.enum(MACHINE_KINDS_LIST, { error: `Machine: one of ${MACHINE_KINDS_LIST.join(', ')}.` }),
+		name: z
+			.string()
+			.trim()
+			.min(2, 'Name: at least 2 characters.')
+			.max(120, 'Name: at most 120 characters.'),
+		machineKind: z.enum(MACHINE_KINDS_LIST, {
+			error: `Machine: one of ${MACHINE_KINDS_LIST.join(', ')}.`
+		}),
 		driveType: z.enum(['fixed', 'vfd'], { error: 'Drive: fixed or vfd.' }),
-		minRpm: numberText('Minimum speed').pipe(z.number().positive('Minimum speed: greater than zero.').max(100_000, 'Minimum speed: at most 100,000 rpm.')),
-		maxRpm: numberText('Maximum speed').pipe(z.number().positive('Maximum speed: greater than zero.').max(100_000, 'Maximum speed: at most 100,000 rpm.')),
-		nominalRpm: optionalNumber('Nominal speed').pipe(z.number().positive('Nominal speed: greater than zero.').nullable()),
-		motorPoles: optionalNumber('Motor poles').pipe(z.number().int('Motor poles: a whole number.').min(2, 'Motor poles: at least 2.').max(64).nullable()),
-		driveRatio: numberText('Drive ratio').pipe(z.number().positive('Drive ratio: greater than zero.').max(1000)),
-		skipBands: numberText('Skip bands').pipe(z.number().int('Skip bands: a whole number.').min(0).max(16, 'Skip bands: at most 16.')),
+		minRpm: numberText('Minimum speed').pipe(
+			z
+				.number()
+				.positive('Minimum speed: greater than zero.')
+				.max(100_000, 'Minimum speed: at most 100,000 rpm.')
+		),
+		maxRpm: numberText('Maximum speed').pipe(
+			z
+				.number()
+				.positive('Maximum speed: greater than zero.')
+				.max(100_000, 'Maximum speed: at most 100,000 rpm.')
+		),
+		nominalRpm: optionalNumber('Nominal speed').pipe(
+			z.number().positive('Nominal speed: greater than zero.').nullable()
+		),
+		motorPoles: optionalNumber('Motor poles').pipe(
+			z
+				.number()
+				.int('Motor poles: a whole number.')
+				.min(2, 'Motor poles: at least 2.')
+				.max(64)
+				.nullable()
+		),
+		driveRatio: numberText('Drive ratio').pipe(
+			z.number().positive('Drive ratio: greater than zero.').max(1000)
+		),
+		skipBands: numberText('Skip bands').pipe(
+			z.number().int('Skip bands: a whole number.').min(0).max(16, 'Skip bands: at most 16.')
+		),
 		ruleSetId: z.preprocess((v) => (v === '' ? null : v), z.string().max(64).nullable()),
 		notes: z.string().max(2000, 'Notes: at most 2000 characters.').default('')
 	})
 	.strict()
-	.refine((a) => a.maxRpm >= a.minRpm, { message: 'Maximum speed must be at least the minimum speed.', path: ['maxRpm'] })
-	.refine((a) => a.driveType === 'vfd' || a.minRpm === a.maxRpm, { message: 'A fixed-speed machine has one speed: make minimum and maximum equal, or choose vfd.', path: ['maxRpm'] });
+	.refine((a) => a.maxRpm >= a.minRpm, {
+		message: 'Maximum speed must be at least the minimum speed.',
+		path: ['maxRpm']
+	})
+	.refine((a) => a.driveType === 'vfd' || a.minRpm === a.maxRpm, {
+		message: 'A fixed-speed machine has one speed: make minimum and maximum equal, or choose vfd.',
+		path: ['maxRpm']
+	});
 
 export type AssetForm = z.infer<typeof assetForm>;

@@ -2,23 +2,58 @@
 import { z } from 'zod';
 import { MACHINE_KINDS_LIST } from './shared-enums.ts';
 
-export const BOARD_SORTS = ['worst', 'tag', 'name', 'site', 'checked', 'atSpeed', 'overRange', 'verdict', 'followUps'] as const;
+export const BOARD_SORTS = [
+	'worst',
+	'tag',
+	'name',
+	'site',
+	'checked',
+	'atSpeed',
+	'overRange',
+	'verdict',
+	'followUps'
+] as const;
 export const BOARD_VERDICTS = ['clear', 'tight', 'conflict', 'unchecked'] as const;
 
-const optional = <T extends z.ZodType>(s: T) => z.preprocess((v) => (v === '' || v === null ? undefined : v), s.optional());
+const optional = <T extends z.ZodType>(s: T) =>
+	z.preprocess((v) => (v === '' || v === null ? undefined : v), s.optional());
 
 export const boardQuery = z
 	.object({
 		site: optional(z.string().max(64)),
 		area: optional(z.string().max(64)),
-		verdict: optional(z.enum(BOARD_VERDICTS, { error: `verdict must be one of ${BOARD_VERDICTS.join(', ')}` })),
+		verdict: optional(
+			z.enum(BOARD_VERDICTS, { error: `verdict must be one of ${BOARD_VERDICTS.join(', ')}` })
+		),
 		stale: optional(z.enum(['yes', 'no'], { error: 'stale must be yes or no' })),
-		kind: optional(z.enum(MACHINE_KINDS_LIST, { error: `kind must be one of ${MACHINE_KINDS_LIST.join(', ')}` })),
+		kind: optional(
+			z.enum(MACHINE_KINDS_LIST, { error: `kind must be one of ${MACHINE_KINDS_LIST.join(', ')}` })
+		),
 		q: optional(z.string().trim().max(100, 'search is at most 100 characters')),
-		sort: z.preprocess((v) => v || 'worst', z.enum(BOARD_SORTS, { error: `sort must be one of ${BOARD_SORTS.join(', ')}` })),
-		dir: z.preprocess((v) => v || 'asc', z.enum(['asc', 'desc'], { error: 'dir must be asc or desc' })),
-		page: z.preprocess((v) => (v === undefined || v === '' ? 1 : Number(v)), z.number({ error: 'page must be a number' }).int('page must be a whole number').min(1, 'page starts at 1').max(100_000)),
-		size: z.preprocess((v) => (v === undefined || v === '' ? 50 : Number(v)), z.number({ error: 'size must be a number' }).int().min(1, 'size is at least 1').max(500, 'size is at most 500')),
+		sort: z.preprocess(
+			(v) => v || 'worst',
+			z.enum(BOARD_SORTS, { error: `sort must be one of ${BOARD_SORTS.join(', ')}` })
+		),
+		dir: z.preprocess(
+			(v) => v || 'asc',
+			z.enum(['asc', 'desc'], { error: 'dir must be asc or desc' })
+		),
+		page: z.preprocess(
+			(v) => (v === undefined || v === '' ? 1 : Number(v)),
+			z
+				.number({ error: 'page must be a number' })
+				.int('page must be a whole number')
+				.min(1, 'page starts at 1')
+				.max(100_000)
+		),
+		size: z.preprocess(
+			(v) => (v === undefined || v === '' ? 50 : Number(v)),
+			z
+				.number({ error: 'size must be a number' })
+				.int()
+				.min(1, 'size is at least 1')
+				.max(500, 'size is at most 500')
+		),
 		format: optional(z.enum(['json', 'csv']))
 	})
 	.strict();

@@ -5,31 +5,67 @@
 import { z } from 'zod';
 import type { ExcitationSource } from '../vibration/index.ts';
 
-const pos = (what: string) => z.number({ error: `${what} must be a number.` }).positive(`${what} must be greater than zero.`).finite();
-const count = (what: string) => z.number({ error: `${what} must be a whole number.` }).int(`${what} must be a whole number.`).min(1, `${what} must be at least 1.`).max(10_000, `${what} is too large.`);
+const pos = (what: string) =>
+	z
+		.number({ error: `${what} must be a number.` })
+		.positive(`${what} must be greater than zero.`)
+		.finite();
+const count = (what: string) =>
+	z
+		.number({ error: `${what} must be a whole number.` })
+		.int(`${what} must be a whole number.`)
+		.min(1, `${what} must be at least 1.`)
+		.max(10_000, `${what} is too large.`);
 const harmonics = z.array(pos('Harmonic')).min(1, 'Give at least one harmonic.').max(10).optional();
 const speedRatio = pos('Speed ratio').max(1000).optional();
 
 export const sourceParams = {
-	shaft: z.object({ orders: z.array(pos('Order').max(100)).min(1, 'Give at least one order.').max(20), speedRatio }).strict(),
+	shaft: z
+		.object({
+			orders: z.array(pos('Order').max(100)).min(1, 'Give at least one order.').max(20),
+			speedRatio
+		})
+		.strict(),
 	vane: z.object({ count: count('Vane count'), harmonics, speedRatio }).strict(),
 	blade: z.object({ count: count('Blade count'), harmonics, speedRatio }).strict(),
-	gear: z.object({ teeth: count('Teeth'), matingTeeth: count('Mating teeth'), harmonics, speedRatio }).strict(),
+	gear: z
+		.object({ teeth: count('Teeth'), matingTeeth: count('Mating teeth'), harmonics, speedRatio })
+		.strict(),
 	bearing: z
 		.object({
-			rollingElements: count('Rolling elements').min(3, 'A bearing has at least 3 rolling elements.'),
+			rollingElements: count('Rolling elements').min(
+				3,
+				'A bearing has at least 3 rolling elements.'
+			),
 			elementDiameter: pos('Element diameter'),
 			pitchDiameter: pos('Pitch diameter'),
-			contactAngleDeg: z.number().min(0, 'Contact angle must be 0° or more.').max(89, 'Contact angle must be below 90°.'),
+			contactAngleDeg: z
+				.number()
+				.min(0, 'Contact angle must be 0° or more.')
+				.max(89, 'Contact angle must be below 90°.'),
 			speedRatio
 		})
 		.strict()
-		.refine((b) => b.elementDiameter < b.pitchDiameter, { message: 'Element diameter must be smaller than the pitch diameter.', path: ['elementDiameter'] }),
-	belt: z.object({ sheaveDiameter: pos('Sheave diameter'), beltLength: pos('Belt length'), harmonics, speedRatio }).strict(),
+		.refine((b) => b.elementDiameter < b.pitchDiameter, {
+			message: 'Element diameter must be smaller than the pitch diameter.',
+			path: ['elementDiameter']
+		}),
+	belt: z
+		.object({
+			sheaveDiameter: pos('Sheave diameter'),
+			beltLength: pos('Belt length'),
+			harmonics,
+			speedRatio
+		})
+		.strict(),
 	line: z
 		.object({
 			lineFrequencyHz: pos('Line frequency').max(1000),
-			drive: z.object({ poles: count('Poles').min(2), motorRpmPerShaftRpm: pos('Motor/shaft ratio') }).strict().nullable().optional()
+			drive: z
+				.object({ poles: count('Poles').min(2), motorRpmPerShaftRpm: pos('Motor/shaft ratio') })
+				.strict()
+				.nullable()
+				.optional()
 		})
 		.strict(),
 	fixed: z.object({ frequencyHz: pos('Frequency').max(100_000) }).strict()
@@ -57,12 +93,23 @@ export interface StoredSource {
 }
 
 /** Validates a stored source; returns the engine's shape or the first problem. */
-export function parseSource(row: StoredSource): { ok: true; source: ExcitationSource } | { ok: false; message: string } {
+export function parseSource(
+	row: StoredSource
+): { ok: true; source: ExcitationSource } | { ok: false; message: string } {
 	const schema = (sourceParams as Record<string, z.ZodType>)[row.kind];
 	if (!schema) return { ok: false, message: `Unknown excitation kind "${row.kind}".` };
 	const parsed = schema.safeParse(row.params);
-	if (!parsed.success) return { ok: false, message: parsed.error.issues[0]?.message ?? 'Invalid parameters.' };
-	return { ok: true, source: { id: row.id, kind: row.kind, ...(row.label ? { label: row.label } : {}), ...(parsed.data as object) } as ExcitationSource };
+	if (!parsed.success)
+		return { ok: false, message: parsed.error.issues[0]?.message ?? 'Invalid parameters.' };
+	return {
+		ok: true,
+		source: {
+			id: row.id,
+			kind: row.kind,
+			...(row.label ? { label: row.label } : {}),
+			...(parsed.data as object)
+		} as ExcitationSource
+	};
 }
 
 /** Converts stored rows, throwing on the first bad one (stored rows were validated on write). */

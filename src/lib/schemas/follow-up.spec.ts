@@ -6,7 +6,14 @@ const base = { id: 'f-1', assigneeId: '', dueDate: '', priority: 'normal', notes
 describe('follow-up forms', () => {
 	it('take a due date only when it is a real calendar day', () => {
 		expect(followUpUpdate.safeParse({ ...base, dueDate: '2028-02-29' }).success).toBe(true); // a leap day
-		for (const bad of ['2026-02-30', '2027-02-29', '2026-04-31', '2026-13-01', '2026-00-10', '2026-1-5']) {
+		for (const bad of [
+			'2026-02-30',
+			'2027-02-29',
+			'2026-04-31',
+			'2026-13-01',
+			'2026-00-10',
+			'2026-1-5'
+		]) {
 			const r = followUpUpdate.safeParse({ ...base, dueDate: bad });
 			expect(r.success, bad).toBe(false);
 		}

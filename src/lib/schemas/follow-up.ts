@@ -18,7 +18,11 @@ export const followUpCreate = z
 	.object({
 		assetId: z.string().min(1, 'Choose the asset.').max(64),
 		checkId: z.preprocess((v) => (v === '' ? null : v), z.string().max(64).nullable()),
-		title: z.string().trim().min(3, 'Title: say what is to be done (at least 3 characters).').max(200, 'Title: at most 200 characters.'),
+		title: z
+			.string()
+			.trim()
+			.min(3, 'Title: say what is to be done (at least 3 characters).')
+			.max(200, 'Title: at most 200 characters.'),
 		assigneeId: z.preprocess((v) => (v === '' ? null : v), z.string().max(64).nullable()),
 		dueDate: z.preprocess((v) => (v === '' ? null : v), day.nullable()),
 		priority: z.enum(PRIORITY_LIST, { error: `Priority: ${PRIORITY_LIST.join(', ')}.` }),
@@ -36,7 +40,14 @@ export const followUpUpdate = z
 	})
 	.strict();
 
-export const followUpMove = z.object({ id: z.string().min(1).max(64), status: z.enum(['open', 'scheduled', 'done'], { error: 'Status: open, scheduled or done (retested comes from a clear check).' }) }).strict();
+export const followUpMove = z
+	.object({
+		id: z.string().min(1).max(64),
+		status: z.enum(['open', 'scheduled', 'done'], {
+			error: 'Status: open, scheduled or done (retested comes from a clear check).'
+		})
+	})
+	.strict();
 
 export type FollowUpCreate = z.infer<typeof followUpCreate>;
 export type FollowUpUpdate = z.infer<typeof followUpUpdate>;

@@ -21,7 +21,13 @@ export interface FieldSpec {
 export const SOURCE_FIELDS: Record<SourceKind, FieldSpec[]> = {
 	shaft: [
 		{ key: 'orders', label: 'Orders', unit: '× shaft, e.g. 0.5, 1, 2', type: 'list' },
-		{ key: 'speedRatio', label: 'Speed ratio', unit: 'this shaft ÷ reference', type: 'number', optional: true }
+		{
+			key: 'speedRatio',
+			label: 'Speed ratio',
+			unit: 'this shaft ÷ reference',
+			type: 'number',
+			optional: true
+		}
 	],
 	vane: [
 		{ key: 'count', label: 'Vanes', type: 'integer' },
@@ -36,7 +42,13 @@ export const SOURCE_FIELDS: Record<SourceKind, FieldSpec[]> = {
 	gear: [
 		{ key: 'teeth', label: 'Teeth on this shaft', type: 'integer' },
 		{ key: 'matingTeeth', label: 'Teeth on the mating gear', type: 'integer' },
-		{ key: 'harmonics', label: 'Mesh harmonics', unit: 'e.g. 1, 2, 3', type: 'list', optional: true },
+		{
+			key: 'harmonics',
+			label: 'Mesh harmonics',
+			unit: 'e.g. 1, 2, 3',
+			type: 'list',
+			optional: true
+		},
 		{ key: 'speedRatio', label: 'Speed ratio', type: 'number', optional: true }
 	],
 	bearing: [
@@ -53,8 +65,20 @@ export const SOURCE_FIELDS: Record<SourceKind, FieldSpec[]> = {
 	],
 	line: [
 		{ key: 'lineFrequencyHz', label: 'Line frequency', unit: 'Hz', type: 'number' },
-		{ key: 'poles', label: 'Motor poles (on a drive)', type: 'integer', optional: true, group: 'drive' },
-		{ key: 'motorRpmPerShaftRpm', label: 'Motor rpm per shaft rpm', type: 'number', optional: true, group: 'drive' }
+		{
+			key: 'poles',
+			label: 'Motor poles (on a drive)',
+			type: 'integer',
+			optional: true,
+			group: 'drive'
+		},
+		{
+			key: 'motorRpmPerShaftRpm',
+			label: 'Motor rpm per shaft rpm',
+			type: 'number',
+			optional: true,
+			group: 'drive'
+		}
 	],
 	fixed: [{ key: 'frequencyHz', label: 'Frequency', unit: 'Hz', type: 'number' }]
 };
@@ -62,7 +86,9 @@ export const SOURCE_FIELDS: Record<SourceKind, FieldSpec[]> = {
 /** The fields of a kind in a unit system: lengths in mm (metric) or inches (US customary). */
 export function fieldsFor(kind: SourceKind, units: UnitSystem = 'metric'): FieldSpec[] {
 	if (units === 'metric') return SOURCE_FIELDS[kind];
-	return SOURCE_FIELDS[kind].map((f) => (f.unit === 'mm' ? { ...f, unit: 'in', scale: METRES_PER_INCH } : f));
+	return SOURCE_FIELDS[kind].map((f) =>
+		f.unit === 'mm' ? { ...f, unit: 'in', scale: METRES_PER_INCH } : f
+	);
 }
 
 const num = (s: string) => Number(s.replace(',', '.').trim());
@@ -71,7 +97,11 @@ const num = (s: string) => Number(s.replace(',', '.').trim());
  * Form values (`p.<key>`) → validated params. Returns field errors keyed `p.<key>` on failure, so
  * the form shows them beside the right input.
  */
-export function paramsFromForm(kind: SourceKind, form: Record<string, unknown>, units: UnitSystem = 'metric'): { ok: true; params: Record<string, unknown> } | { ok: false; errors: Record<string, string> } {
+export function paramsFromForm(
+	kind: SourceKind,
+	form: Record<string, unknown>,
+	units: UnitSystem = 'metric'
+): { ok: true; params: Record<string, unknown> } | { ok: false; errors: Record<string, string> } {
 	const errors: Record<string, string> = {};
 	const params: Record<string, unknown> = {};
 	const drive: Record<string, unknown> = {};
@@ -84,7 +114,10 @@ export function paramsFromForm(kind: SourceKind, form: Record<string, unknown>, 
 		}
 		let v: unknown;
 		if (f.type === 'list') {
-			const parts = raw.split(/[;,\s]+/).filter(Boolean).map(num);
+			const parts = raw
+				.split(/[;,\s]+/)
+				.filter(Boolean)
+				.map(num);
 			if (parts.some((p) => !Number.isFinite(p))) {
 				errors[`p.${f.key}`] = `${f.label}: numbers separated by commas.`;
 				continue;
@@ -103,7 +136,9 @@ export function paramsFromForm(kind: SourceKind, form: Record<string, unknown>, 
 	}
 	if (kind === 'line') {
 		if (Object.keys(drive).length === 2) params.drive = drive;
-		else if (Object.keys(drive).length === 1) errors['p.poles'] = 'On a drive give both the motor poles and the motor/shaft ratio; off a drive leave both empty.';
+		else if (Object.keys(drive).length === 1)
+			errors['p.poles'] =
+				'On a drive give both the motor poles and the motor/shaft ratio; off a drive leave both empty.';
 		else params.drive = null;
 	}
 	if (Object.keys(errors).length) return { ok: false, errors };
@@ -119,10 +154,17 @@ export function paramsFromForm(kind: SourceKind, form: Record<string, unknown>, 
 }
 
 /** Stored params → the strings a form shows. */
-export function formFromParams(kind: SourceKind, params: Record<string, unknown>, units: UnitSystem = 'metric'): Record<string, string> {
+export function formFromParams(
+	kind: SourceKind,
+	params: Record<string, unknown>,
+	units: UnitSystem = 'metric'
+): Record<string, string> {
 	const out: Record<string, string> = {};
 	for (const f of fieldsFor(kind, units)) {
-		const v = f.group === 'drive' ? (params.drive as Record<string, unknown> | null | undefined)?.[f.key] : params[f.key];
+		const v =
+			f.group === 'drive'
+				? (params.drive as Record<string, unknown> | null | undefined)?.[f.key]
+				: params[f.key];
 		if (v === undefined || v === null) out[f.key] = '';
 		else if (Array.isArray(v)) out[f.key] = v.join(', ');
 		else out[f.key] = String(f.scale ? +(Number(v) / f.scale).toPrecision(10) : v);

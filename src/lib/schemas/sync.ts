@@ -9,12 +9,18 @@ export const MAX_PUSH_ITEMS = 50;
 export const MAX_PUSH_BYTES = 1024 * 1024;
 
 const uuid = z.uuid({ error: 'must be a UUID' });
-const finiteNumber = (what: string) => z.number({ error: `${what} must be a number` }).finite(`${what} must be finite`);
+const finiteNumber = (what: string) =>
+	z.number({ error: `${what} must be a number` }).finite(`${what} must be finite`);
 
 export const modeInput = z
 	.object({
-		frequencyHz: finiteNumber('frequency').positive('frequency must be greater than zero').max(100_000, 'frequency must be at most 100 kHz'),
-		dampingRatio: finiteNumber('damping ratio').positive('damping ratio must be greater than zero').max(1, 'damping ratio must be at most 1').nullable(),
+		frequencyHz: finiteNumber('frequency')
+			.positive('frequency must be greater than zero')
+			.max(100_000, 'frequency must be at most 100 kHz'),
+		dampingRatio: finiteNumber('damping ratio')
+			.positive('damping ratio must be greater than zero')
+			.max(1, 'damping ratio must be at most 1')
+			.nullable(),
 		direction: z.enum(DIRECTIONS_LIST).nullable(),
 		location: z.string().trim().max(200, 'location is at most 200 characters').nullable(),
 		origin: z.enum(MODE_ORIGINS_LIST),
@@ -38,15 +44,30 @@ export const checkPush = z
 			.number({ error: 'checkedAt must be a time in milliseconds' })
 			.int('checkedAt must be whole milliseconds')
 			.min(EARLIEST_CHECK, 'checkedAt is before the year 2000')
-			.refine((t) => t <= Date.now() + CLOCK_SKEW_MS, 'checkedAt is more than a day in the future: check the tablet’s clock'),
-		measuredRpm: finiteNumber('measured speed').positive('measured speed must be greater than zero').max(100_000),
+			.refine(
+				(t) => t <= Date.now() + CLOCK_SKEW_MS,
+				'checkedAt is more than a day in the future: check the tablet’s clock'
+			),
+		measuredRpm: finiteNumber('measured speed')
+			.positive('measured speed must be greater than zero')
+			.max(100_000),
 		driveSetpointHz: finiteNumber('drive setpoint').positive().max(1000).nullable(),
 		notes: z.string().max(4000, 'notes are at most 4000 characters'),
 		replacesCheckId: uuid.nullable(),
-		modes: z.array(modeInput).min(1, 'a check needs at least one natural frequency').max(50, 'at most 50 natural frequencies per check'),
+		modes: z
+			.array(modeInput)
+			.min(1, 'a check needs at least one natural frequency')
+			.max(50, 'at most 50 natural frequencies per check'),
 		/** bump-test files uploaded before this check (POST /api/recordings), with the peaks the device found */
 		recordings: z
-			.array(z.object({ id: uuid, deviceFrequenciesHz: z.array(z.number().finite().positive()).max(50) }).strict())
+			.array(
+				z
+					.object({
+						id: uuid,
+						deviceFrequenciesHz: z.array(z.number().finite().positive()).max(50)
+					})
+					.strict()
+			)
 			.max(5, 'at most 5 recordings per check')
 			.optional(),
 		/** what the device computed and showed; the server recomputes and keeps its own */
@@ -67,7 +88,10 @@ export type CheckPush = z.infer<typeof checkPush>;
 export const pushBatch = z
 	.object({
 		clientId: z.string().min(1).max(64),
-		items: z.array(z.unknown()).min(1, 'a push needs at least one item').max(MAX_PUSH_ITEMS, `a push carries at most ${MAX_PUSH_ITEMS} items`)
+		items: z
+			.array(z.unknown())
+			.min(1, 'a push needs at least one item')
+			.max(MAX_PUSH_ITEMS, `a push carries at most ${MAX_PUSH_ITEMS} items`)
 	})
 	.strict();
 

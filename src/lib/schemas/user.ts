@@ -15,15 +15,26 @@ export const newPassword = z
 	.max(200, 'Use at most 200 characters.');
 
 export const signInForm = z.object({
-	email: z.string({ error: 'Enter your e-mail address.' }).trim().min(1, 'Enter your e-mail address.').max(254, 'That is too long for an e-mail address.'),
-	password: z.string({ error: 'Enter your password.' }).min(1, 'Enter your password.').max(200, 'That is too long for a password.')
+	email: z
+		.string({ error: 'Enter your e-mail address.' })
+		.trim()
+		.min(1, 'Enter your e-mail address.')
+		.max(254, 'That is too long for an e-mail address.'),
+	password: z
+		.string({ error: 'Enter your password.' })
+		.min(1, 'Enter your password.')
+		.max(200, 'That is too long for a password.')
 });
 
 const role = z.enum(ROLES, { error: `Choose a role: ${ROLES.join(', ')}.` });
 const siteIds = z.array(z.string().min(1).max(64)).max(100, 'Too many sites.');
 
 export const createUserForm = z.object({
-	name: z.string({ error: 'Enter a name.' }).trim().min(2, 'Enter the full name (at least 2 characters).').max(100, 'Use at most 100 characters.'),
+	name: z
+		.string({ error: 'Enter a name.' })
+		.trim()
+		.min(2, 'Enter the full name (at least 2 characters).')
+		.max(100, 'Use at most 100 characters.'),
 	email,
 	role,
 	password: newPassword,

@@ -31,7 +31,9 @@ describe('backup and restore', () => {
 		expect(back.prepare('select count(*) n from checks').get()).toEqual(before);
 		expect(back.pragma('integrity_check', { simple: true })).toBe('ok');
 		back.close();
-		expect(readFileSync(join(files, 'recordings', 'ab', 'abcdef'), 'utf8')).toBe('time,accel\n0,1\n');
+		expect(readFileSync(join(files, 'recordings', 'ab', 'abcdef'), 'utf8')).toBe(
+			'time,accel\n0,1\n'
+		);
 		expect(existsSync(join(dir, 'b1', 'manifest.json'))).toBe(true);
 	});
 });

@@ -3,7 +3,15 @@
  * runs) together with the uploaded files, and the restore of one. Restore only with the server
  * stopped: it replaces the database file.
  */
-import { cpSync, existsSync, mkdirSync, readdirSync, rmSync, writeFileSync, readFileSync } from 'node:fs';
+import {
+	cpSync,
+	existsSync,
+	mkdirSync,
+	readdirSync,
+	rmSync,
+	writeFileSync,
+	readFileSync
+} from 'node:fs';
 import { join, resolve } from 'node:path';
 import Database from 'better-sqlite3';
 
@@ -17,11 +25,16 @@ export interface BackupManifest {
 function countFiles(dir: string): number {
 	if (!existsSync(dir)) return 0;
 	let n = 0;
-	for (const e of readdirSync(dir, { withFileTypes: true })) n += e.isDirectory() ? countFiles(join(dir, e.name)) : 1;
+	for (const e of readdirSync(dir, { withFileTypes: true }))
+		n += e.isDirectory() ? countFiles(join(dir, e.name)) : 1;
 	return n;
 }
 
-export async function backup(databaseFile: string, dataDir: string, into: string): Promise<BackupManifest> {
+export async function backup(
+	databaseFile: string,
+	dataDir: string,
+	into: string
+): Promise<BackupManifest> {
 	const dest = resolve(into);
 	mkdirSync(dest, { recursive: true });
 	const source = new Database(databaseFile, { readonly: true, fileMustExist: true });
@@ -33,9 +46,15 @@ export async function backup(databaseFile: string, dataDir: string, into: string
 	const copy = new Database(join(dest, 'detune.db'), { readonly: true });
 	const integrity = (copy.pragma('integrity_check', { simple: true }) as string) ?? 'unknown';
 	copy.close();
-	if (integrity !== 'ok') throw new Error(`The backup copy failed its integrity check: ${integrity}`);
+	if (integrity !== 'ok')
+		throw new Error(`The backup copy failed its integrity check: ${integrity}`);
 	if (existsSync(dataDir)) cpSync(dataDir, join(dest, 'files'), { recursive: true });
-	const manifest = { createdAt: new Date().toISOString(), database: 'detune.db', files: countFiles(join(dest, 'files')), integrity };
+	const manifest = {
+		createdAt: new Date().toISOString(),
+		database: 'detune.db',
+		files: countFiles(join(dest, 'files')),
+		integrity
+	};
 	writeFileSync(join(dest, 'manifest.json'), JSON.stringify(manifest, null, 2));
 	return manifest;
 }
@@ -46,7 +65,8 @@ export function restore(from: string, databaseFile: string, dataDir: string): Ba
 	const check = new Database(join(src, manifest.database), { readonly: true, fileMustExist: true });
 	const integrity = check.pragma('integrity_check', { simple: true });
 	check.close();
-	if (integrity !== 'ok') throw new Error(`The backup's database failed its integrity check: ${integrity}`);
+	if (integrity !== 'ok')
+		throw new Error(`The backup's database failed its integrity check: ${integrity}`);
 	for (const suffix of ['', '-wal', '-shm']) rmSync(databaseFile + suffix, { force: true });
 	cpSync(join(src, manifest.database), databaseFile);
 	rmSync(dataDir, { recursive: true, force: true });

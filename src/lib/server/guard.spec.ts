@@ -6,9 +6,14 @@ import { decide } from './guard.ts';
 describe('role guard', () => {
 	it('follows the role × route table for every route and role', () => {
 		for (const [routeId, entry] of Object.entries(ROUTE_ACCESS)) {
-			expect(decide(routeId, null)).toEqual(entry.access === 'public' ? { ok: true } : { ok: false, status: 401, reason: 'Sign in to continue.' });
+			expect(decide(routeId, null)).toEqual(
+				entry.access === 'public'
+					? { ok: true }
+					: { ok: false, status: 401, reason: 'Sign in to continue.' }
+			);
 			for (const role of ROLES) {
-				const allowed = entry.access === 'public' || entry.access === 'signed-in' || entry.access.includes(role);
+				const allowed =
+					entry.access === 'public' || entry.access === 'signed-in' || entry.access.includes(role);
 				expect(decide(routeId, role).ok, `${role} on ${routeId}`).toBe(allowed);
 			}
 		}
@@ -23,8 +28,23 @@ describe('role guard', () => {
 		expect(decide('/(app)/board', 'technician')).toMatchObject({ ok: false, status: 403 });
 		expect(decide('/(app)/field', 'technician')).toEqual({ ok: true });
 		expect(navFor('technician').map((n) => n.label)).toEqual(['Floor check', 'Follow-ups']);
-		expect(navFor('admin').map((n) => n.label)).toEqual(['Floor check', 'Margin board', 'Follow-ups', 'Rule sets', 'Users', 'Sites', 'Import', 'Audit', 'Mail']);
-		expect(navFor('supervisor').map((n) => n.label)).toEqual(['Floor check', 'Margin board', 'Follow-ups', 'Rule sets']);
+		expect(navFor('admin').map((n) => n.label)).toEqual([
+			'Floor check',
+			'Margin board',
+			'Follow-ups',
+			'Rule sets',
+			'Users',
+			'Sites',
+			'Import',
+			'Audit',
+			'Mail'
+		]);
+		expect(navFor('supervisor').map((n) => n.label)).toEqual([
+			'Floor check',
+			'Margin board',
+			'Follow-ups',
+			'Rule sets'
+		]);
 		expect(homeFor('technician')).toBe('/field');
 	});
 });

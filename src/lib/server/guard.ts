@@ -13,7 +13,8 @@ export type Decision = { ok: true } | { ok: false; status: 401 | 403; reason: st
 /** The decision for a route id and a user's role (null when signed out). */
 export function decide(routeId: string | null, role: Role | null): Decision {
 	const entry = routeEntry(routeId);
-	if (!entry) return { ok: false, status: 403, reason: `Route ${routeId} has no entry in the access table.` };
+	if (!entry)
+		return { ok: false, status: 403, reason: `Route ${routeId} has no entry in the access table.` };
 	if (mayAccess(entry, role)) return { ok: true };
 	if (role === null) return { ok: false, status: 401, reason: 'Sign in to continue.' };
 	return { ok: false, status: 403, reason: `Your role (${role}) may not use this page.` };
@@ -23,14 +24,23 @@ export const isApi = (event: Pick<RequestEvent, 'url'>) => event.url.pathname.st
 
 /** The response a refused request gets: JSON for the API, a sign-in redirect or an error page otherwise. */
 export function refusal(event: RequestEvent, d: Extract<Decision, { ok: false }>): Response {
-	if (isApi(event)) return json({ message: d.reason, code: d.status === 401 ? 'unauthenticated' : 'forbidden' }, { status: d.status });
+	if (isApi(event))
+		return json(
+			{ message: d.reason, code: d.status === 401 ? 'unauthenticated' : 'forbidden' },
+			{ status: d.status }
+		);
 	if (d.status === 401) {
 		const next = event.url.pathname + event.url.search;
-		return new Response(null, { status: 303, headers: { location: `/login?next=${encodeURIComponent(next)}` } });
+		return new Response(null, {
+			status: 303,
+			headers: { location: `/login?next=${encodeURIComponent(next)}` }
+		});
 	}
-	return new Response(forbiddenPage(d.reason), { status: 403, headers: { 'content-type': 'text/html; charset=utf-8' } });
+	return new Response(forbiddenPage(d.reason), {
+		status: 403,
+		headers: { 'content-type': 'text/html; charset=utf-8' }
+	});
 }
-
 
 function forbiddenPage(reason: string): string {
 	return `<!doctype html><html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width, initial-scale=1"><title>Not allowed · Detune</title></head>
@@ -63,6 +73,7 @@ export function requireUser(event: RequestEvent) {
 /** Throws 403 unless the signed-in user has one of `roles` (for actions finer than the route). */
 export function requireRole(event: RequestEvent, roles: readonly Role[]) {
 	const user = requireUser(event);
-	if (!roles.includes(user.role)) error(403, { message: `Your role (${user.role}) may not do this.`, code: 'forbidden' });
+	if (!roles.includes(user.role))
+		error(403, { message: `Your role (${user.role}) may not do this.`, code: 'forbidden' });
 	return user;
 }

@@ -25,20 +25,37 @@ function pathFor(sha256: string): string {
 
 export interface StoredAnalysis {
 	kind: 'ringdown' | 'impact';
-	modes: { frequencyHz: number; dampingRatio: number | null; qFactor: number | null; flags: string[] }[];
+	modes: {
+		frequencyHz: number;
+		dampingRatio: number | null;
+		qFactor: number | null;
+		flags: string[];
+	}[];
 }
 
 /** Parses a file's bytes by its name and type; throws RecordingError with what is wrong and where. */
-export function parseFile(bytes: Buffer, fileName: string, mediaType: string, sampleRateHz: number | null): Recording {
+export function parseFile(
+	bytes: Buffer,
+	fileName: string,
+	mediaType: string,
+	sampleRateHz: number | null
+): Recording {
 	const isWav = /\.wav$/i.test(fileName) || /audio\/(x-)?wav/.test(mediaType);
-	if (isWav) return parseWav(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength), fileName);
-	if (/\.(csv|txt)$/i.test(fileName) || mediaType.startsWith('text/')) return parseCsvText(bytes.toString('utf8'), fileName, sampleRateHz);
+	if (isWav)
+		return parseWav(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength), fileName);
+	if (/\.(csv|txt)$/i.test(fileName) || mediaType.startsWith('text/'))
+		return parseCsvText(bytes.toString('utf8'), fileName, sampleRateHz);
 	throw new RecordingError(`${fileName} is neither a CSV nor a WAV file.`);
 }
 
 export function analyse(rec: Recording): StoredAnalysis {
 	const a = analyzeRecording(rec, defaultChoice(rec));
-	const modes = (a.kind === 'impact' ? a.result.modes : a.result.modes).map((m) => ({ frequencyHz: m.frequencyHz, dampingRatio: m.dampingRatio, qFactor: m.qFactor, flags: m.flags as string[] }));
+	const modes = (a.kind === 'impact' ? a.result.modes : a.result.modes).map((m) => ({
+		frequencyHz: m.frequencyHz,
+		dampingRatio: m.dampingRatio,
+		qFactor: m.qFactor,
+		flags: m.flags as string[]
+	}));
 	return { kind: a.kind, modes };
 }
 
@@ -52,9 +69,18 @@ export interface IngestInput {
 }
 
 /** Stores a recording (idempotent on its id). Returns whether it was new. */
-export function ingest(input: IngestInput): { created: boolean; sha256: string; analysis: StoredAnalysis } {
+export function ingest(input: IngestInput): {
+	created: boolean;
+	sha256: string;
+	analysis: StoredAnalysis;
+} {
 	const existing = db.select().from(recordings).where(eq(recordings.id, input.id)).get();
-	if (existing) return { created: false, sha256: existing.sha256, analysis: existing.analysis as unknown as StoredAnalysis };
+	if (existing)
+		return {
+			created: false,
+			sha256: existing.sha256,
+			analysis: existing.analysis as unknown as StoredAnalysis
+		};
 	const rec = parseFile(input.bytes, input.fileName, input.mediaType, input.sampleRateHz);
 	const analysis = analyse(rec);
 	const sha256 = createHash('sha256').update(input.bytes).digest('hex');

@@ -10,10 +10,12 @@ let waiting = 0;
 
 export function inTurn<T>(work: () => T): Promise<T> {
 	waiting++;
-	const run = tail.then(() => new Promise<void>((resolve) => setImmediate(resolve))).then(() => {
-		waiting--;
-		return work();
-	});
+	const run = tail
+		.then(() => new Promise<void>((resolve) => setImmediate(resolve)))
+		.then(() => {
+			waiting--;
+			return work();
+		});
 	tail = run.catch(() => undefined);
 	return run;
 }

@@ -1,5 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { avoidanceBands, evaluateCheck, excitationWindowHz, modeRemedies, retuneTo, type CheckInput } from './index.ts';
+import {
+	avoidanceBands,
+	evaluateCheck,
+	excitationWindowHz,
+	modeRemedies,
+	retuneTo,
+	type CheckInput
+} from './index.ts';
 
 describe('avoidance bands', () => {
 	const pump: CheckInput = {
@@ -22,7 +29,10 @@ describe('avoidance bands', () => {
 		expect(b.driveHighHz).toBeCloseTo(53.333, 3);
 		expect(plan.exports.unit).toBe('Hz');
 		expect(plan.exports.lowHigh[0]).toEqual({ low: b.driveLowHz, high: b.driveHighHz });
-		expect(plan.exports.centreWidth[0].centre).toBeCloseTo(((b.driveLowHz as number) + (b.driveHighHz as number)) / 2, 12);
+		expect(plan.exports.centreWidth[0].centre).toBeCloseTo(
+			((b.driveLowHz as number) + (b.driveHighHz as number)) / 2,
+			12
+		);
 		expect(plan.exports.startWidth[0].start).toBe(b.driveLowHz);
 		expect(plan.exports.startWidth[0].width).toBeCloseTo(plan.exports.centreWidth[0].width, 12);
 		expect(plan.speedLimits.lowerMaxRpmTo).toBeCloseTo(b.lowRpm, 9);
@@ -60,13 +70,16 @@ describe('avoidance bands', () => {
 			modes: [{ frequencyHz: 24 }, { frequencyHz: 25 }, { frequencyHz: 58 }]
 		};
 		const plan = avoidanceBands(input, { skipBands: 2 });
-		for (let i = 1; i < plan.bands.length; i++) expect(plan.bands[i].lowRpm).toBeGreaterThan(plan.bands[i - 1].highRpm);
+		for (let i = 1; i < plan.bands.length; i++)
+			expect(plan.bands[i].lowRpm).toBeGreaterThan(plan.bands[i - 1].highRpm);
 		for (const b of plan.bands) {
 			expect(b.lowRpm).toBeGreaterThanOrEqual(600);
 			expect(b.highRpm).toBeLessThanOrEqual(1800);
 		}
 		// 24 and 25 Hz under 1× overlap into one band caused by both modes
-		const first = plan.bands.find((b) => b.causes.some((c) => c.modeIndex === 0 && c.lineId === 's:1×'))!;
+		const first = plan.bands.find((b) =>
+			b.causes.some((c) => c.modeIndex === 0 && c.lineId === 's:1×')
+		)!;
 		expect(first.causes.some((c) => c.modeIndex === 1 && c.lineId === 's:1×')).toBe(true);
 		expect(plan.bands.length).toBeGreaterThan(2);
 		expect(plan.tooMany).toBe(true);
@@ -131,6 +144,10 @@ describe('remedies', () => {
 	it('takes a target margin other than the rule’s', () => {
 		const [r] = modeRemedies(input, { targetPct: 20 });
 		expect(r.raiseTo!.frequencyHz).toBeCloseTo(36, 6);
-		expect(retuneTo(10, 20)).toEqual({ frequencyHz: 20, stiffnessChangePct: 300, massChangePct: -75 });
+		expect(retuneTo(10, 20)).toEqual({
+			frequencyHz: 20,
+			stiffnessChangePct: 300,
+			massChangePct: -75
+		});
 	});
 });

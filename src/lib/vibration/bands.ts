@@ -8,9 +8,24 @@
  * (synchronous speed, slip not included). Drives take 2–4 skip bands, 3 being most common
  * (../shared/domain.md §6.3): more bands than that draws a warning and the ways out.
  */
-import { atLeast, integerAtLeast, object, positive, nonNegative, VibrationInputError } from './errors.ts';
+import {
+	atLeast,
+	integerAtLeast,
+	object,
+	positive,
+	nonNegative,
+	VibrationInputError
+} from './errors.ts';
 import { excitationCatalogue, lineBandHz, type ExcitationLine } from './excitation.ts';
-import { MIN_MEASURED_RPM, requiredMarginPct, validateSpeedRange, pairVerdict, type CheckInput, type MarginRule, type Verdict } from './margins.ts';
+import {
+	MIN_MEASURED_RPM,
+	requiredMarginPct,
+	validateSpeedRange,
+	pairVerdict,
+	type CheckInput,
+	type MarginRule,
+	type Verdict
+} from './margins.ts';
 
 export interface DriveSettings {
 	/** motor rpm per reference-shaft rpm (belt or gearbox ratio); 1 for direct drive */
@@ -67,15 +82,33 @@ interface RawBand {
 }
 
 /** Required margins below and above for a mode under a rule, as fractions. */
-function sideMargins(rule: MarginRule, af: number | null, kind: ExcitationLine['kind']): { below: number; above: number } {
+function sideMargins(
+	rule: MarginRule,
+	af: number | null,
+	kind: ExcitationLine['kind']
+): { below: number; above: number } {
 	return {
-		below: requiredMarginPct(rule, { amplificationFactor: af, position: 'below', excitationKind: kind }) / 100,
-		above: requiredMarginPct(rule, { amplificationFactor: af, position: 'above', excitationKind: kind }) / 100
+		below:
+			requiredMarginPct(rule, {
+				amplificationFactor: af,
+				position: 'below',
+				excitationKind: kind
+			}) / 100,
+		above:
+			requiredMarginPct(rule, {
+				amplificationFactor: af,
+				position: 'above',
+				excitationKind: kind
+			}) / 100
 	};
 }
 
 /** The open excitation interval (Hz) inside which a pair is short of its required margin. */
-export function excitationWindowHz(naturalHz: number, below: number, above: number): [number, number] {
+export function excitationWindowHz(
+	naturalHz: number,
+	below: number,
+	above: number
+): [number, number] {
 	const fn = positive('naturalHz', naturalHz);
 	const rb = nonNegative('required margin below', below);
 	const ra = nonNegative('required margin above', above);
@@ -93,7 +126,9 @@ function modeList(input: CheckInput): { fn: number; af: number | null }[] {
 	});
 }
 
-export function mergeBands<T extends { lo: number; hi: number; causes: BandCause[] }>(bands: T[]): RawBand[] {
+export function mergeBands<T extends { lo: number; hi: number; causes: BandCause[] }>(
+	bands: T[]
+): RawBand[] {
 	const sorted = [...bands].sort((a, b) => a.lo - b.lo);
 	const out: RawBand[] = [];
 	for (const b of sorted) {
@@ -111,7 +146,10 @@ export function avoidanceBands(input: CheckInput, drive: DriveSettings = {}): Av
 	object('check', input);
 	const range = validateSpeedRange(input.speedRange);
 	const ratio = positive('motorRpmPerShaftRpm', drive.motorRpmPerShaftRpm ?? 1);
-	const poles = drive.poles === null || drive.poles === undefined ? null : integerAtLeast('poles', drive.poles, 2);
+	const poles =
+		drive.poles === null || drive.poles === undefined
+			? null
+			: integerAtLeast('poles', drive.poles, 2);
 	const slots = integerAtLeast('skipBands', drive.skipBands ?? 3, 0);
 	const lines = excitationCatalogue(input.sources);
 	const modes = modeList(input);
@@ -148,7 +186,8 @@ export function avoidanceBands(input: CheckInput, drive: DriveSettings = {}): Av
 		driveHighHz: poles === null ? null : (b.hi * ratio * poles) / 120,
 		causes: b.causes
 	}));
-	const noClearSpeed = merged.length === 1 && merged[0].lo <= range.minRpm && merged[0].hi >= range.maxRpm;
+	const noClearSpeed =
+		merged.length === 1 && merged[0].lo <= range.minRpm && merged[0].hi >= range.maxRpm;
 	const first = merged[0];
 	const last = merged[merged.length - 1];
 	const speedLimits = {
@@ -164,10 +203,20 @@ export function avoidanceBands(input: CheckInput, drive: DriveSettings = {}): Av
 				`or detune the structure (stiffen, add or remove mass, add damping).`
 		);
 	}
-	if (noClearSpeed) warnings.push('No speed in the range is clear: skipping cannot help; detune the structure or change the speed range.');
-	if (unavoidable.length > 0) warnings.push(`${unavoidable.length} pair(s) with a fixed-frequency excitation are inside their margin at every speed: only detuning helps.`);
+	if (noClearSpeed)
+		warnings.push(
+			'No speed in the range is clear: skipping cannot help; detune the structure or change the speed range.'
+		);
+	if (unavoidable.length > 0)
+		warnings.push(
+			`${unavoidable.length} pair(s) with a fixed-frequency excitation are inside their margin at every speed: only detuning helps.`
+		);
 	const inHz = poles !== null;
-	const lowHigh = bands.map((b) => (inHz ? { low: b.driveLowHz as number, high: b.driveHighHz as number } : { low: b.lowRpm, high: b.highRpm }));
+	const lowHigh = bands.map((b) =>
+		inHz
+			? { low: b.driveLowHz as number, high: b.driveHighHz as number }
+			: { low: b.lowRpm, high: b.highRpm }
+	);
 	return {
 		bands,
 		skipBands: slots,
@@ -182,7 +231,8 @@ export function avoidanceBands(input: CheckInput, drive: DriveSettings = {}): Av
 			lowHigh
 		},
 		speedLimits,
-		slipNote: 'Drive Hz are synchronous (motor rpm × poles / 120); an induction motor runs with slip, so set the bands a little higher.'
+		slipNote:
+			'Drive Hz are synchronous (motor rpm × poles / 120); an induction motor runs with slip, so set the bands a little higher.'
 	};
 }
 
@@ -206,7 +256,11 @@ export interface ModeRemedy {
 export function retuneTo(naturalHz: number, targetHz: number): FrequencyTarget {
 	const f = positive('naturalHz', naturalHz);
 	const t = positive('targetHz', targetHz);
-	return { frequencyHz: t, stiffnessChangePct: ((t / f) ** 2 - 1) * 100, massChangePct: ((f / t) ** 2 - 1) * 100 };
+	return {
+		frequencyHz: t,
+		stiffnessChangePct: ((t / f) ** 2 - 1) * 100,
+		massChangePct: ((f / t) ** 2 - 1) * 100
+	};
 }
 
 /**
@@ -214,16 +268,21 @@ export function retuneTo(naturalHz: number, targetHz: number): FrequencyTarget {
  * speed range, and the stiffness or mass change to get there. Forbidden zone of one line sweeping
  * [a, b]: (a·(1 − R_below), b·(1 + R_above)). `targetPct` replaces the rule's margin if given.
  */
-export function modeRemedies(input: CheckInput, options: { targetPct?: number } = {}): ModeRemedy[] {
+export function modeRemedies(
+	input: CheckInput,
+	options: { targetPct?: number } = {}
+): ModeRemedy[] {
 	object('check', input);
 	const range = validateSpeedRange(input.speedRange);
 	const lines = excitationCatalogue(input.sources);
 	const modes = modeList(input);
-	const target = options.targetPct === undefined ? null : nonNegative('targetPct', options.targetPct) / 100;
+	const target =
+		options.targetPct === undefined ? null : nonNegative('targetPct', options.targetPct) / 100;
 	return modes.map(({ fn, af }, modeIndex) => {
 		const zones: RawBand[] = lines.map((line) => {
 			const [a, b] = lineBandHz(line, range.minRpm, range.maxRpm);
-			const req = target === null ? sideMargins(input.rule, af, line.kind) : { below: target, above: target };
+			const req =
+				target === null ? sideMargins(input.rule, af, line.kind) : { below: target, above: target };
 			return { lo: Math.max(0, a * (1 - req.below)), hi: b * (1 + req.above), causes: [] };
 		});
 		const merged = mergeBands(zones);
@@ -243,9 +302,22 @@ export function modeRemedies(input: CheckInput, options: { targetPct?: number } 
 }
 
 /** Verdict of one pair at one shaft speed, for tests and the diagram's hover readout. */
-export function pairVerdictAtRpm(naturalHz: number, line: ExcitationLine, rpm: number, rule: MarginRule, af: number | null): Verdict {
-	const fe = line.order === null ? (line.fixedHz as number) : (line.order * atLeast('rpm', rpm, MIN_MEASURED_RPM, 'rpm')) / 60;
+export function pairVerdictAtRpm(
+	naturalHz: number,
+	line: ExcitationLine,
+	rpm: number,
+	rule: MarginRule,
+	af: number | null
+): Verdict {
+	const fe =
+		line.order === null
+			? (line.fixedHz as number)
+			: (line.order * atLeast('rpm', rpm, MIN_MEASURED_RPM, 'rpm')) / 60;
 	const position = naturalHz < fe ? 'below' : 'above';
-	const req = requiredMarginPct(rule, { amplificationFactor: af, position, excitationKind: line.kind });
+	const req = requiredMarginPct(rule, {
+		amplificationFactor: af,
+		position,
+		excitationKind: line.kind
+	});
 	return pairVerdict((Math.abs(naturalHz - fe) / fe) * 100, req);
 }

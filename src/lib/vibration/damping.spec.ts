@@ -15,7 +15,6 @@ import {
 } from './index.ts';
 import { bisect } from './testing/bisect.ts';
 
-
 describe('log decrement', () => {
 	it('successive peaks in the ratio 2 give δ = 0.6931, ζ = 0.10965 (domain.md E6 [C])', () => {
 		const d = dampingFromLogDecrement([2, 1]);
@@ -47,7 +46,8 @@ describe('log decrement', () => {
 	});
 
 	it('ζ ↔ δ are exact inverses', () => {
-		for (const z of [0, 0.001, 0.05, 0.3, 0.9]) expect(dampingRatioFromLogDecrement(logDecrementFromDampingRatio(z))).toBeCloseTo(z, 12);
+		for (const z of [0, 0.001, 0.05, 0.3, 0.9])
+			expect(dampingRatioFromLogDecrement(logDecrementFromDampingRatio(z))).toBeCloseTo(z, 12);
 		expect(() => logDecrementFromDampingRatio(1)).toThrow(/underdamped/);
 	});
 
@@ -55,10 +55,14 @@ describe('log decrement', () => {
 		expect(() => dampingFromLogDecrement([1, 2, 3])).toThrow(/decaying/);
 		expect(() => dampingFromLogDecrement([1])).toThrow(/at least two/);
 		expect(() => dampingFromLogDecrement([])).toThrow(/non-empty/);
-		expect(() => dampingFromLogDecrement([1, -0.5])).toThrow(/peaks\[1\] must be greater than zero/);
+		expect(() => dampingFromLogDecrement([1, -0.5])).toThrow(
+			/peaks\[1\] must be greater than zero/
+		);
 		expect(() => dampingFromPeaksApart(1, 2, 3)).toThrow(/later peak/);
 		expect(() => dampingFromPeaksApart(2, 1, 0)).toThrow(/cycles/);
-		expect(() => dampingFromPeakNumbers({ peak: 5, amplitude: 1 }, { peak: 5, amplitude: 0.5 })).toThrow(/greater than the first peak number/);
+		expect(() =>
+			dampingFromPeakNumbers({ peak: 5, amplitude: 1 }, { peak: 5, amplitude: 0.5 })
+		).toThrow(/greater than the first peak number/);
 	});
 });
 
@@ -84,6 +88,8 @@ describe('half-power bandwidth and amplification factor', () => {
 
 	it('refuses half-power points on one side of the peak', () => {
 		expect(() => dampingFromHalfPower(50, 51, 52)).toThrow(/on either side of the peak/);
-		expect(() => amplificationFactorFromDamping(0)).toThrow(/dampingRatio must be greater than zero/);
+		expect(() => amplificationFactorFromDamping(0)).toThrow(
+			/dampingRatio must be greater than zero/
+		);
 	});
 });

@@ -3,7 +3,14 @@
  * factor. Sources: Rao §2.6 (logarithmic decrement), Inman §2.x / Ewins, Modal Testing §4.3
  * (half-power points), API RP 684 (AF by the half-power method).
  */
-import { finite, integerAtLeast, nonEmpty, positive, VibrationInputError, nonNegative } from './errors.ts';
+import {
+	finite,
+	integerAtLeast,
+	nonEmpty,
+	positive,
+	VibrationInputError,
+	nonNegative
+} from './errors.ts';
 
 export interface DampingEstimate {
 	logDecrement: number;
@@ -19,7 +26,12 @@ export function dampingRatioFromLogDecrement(logDecrement: number): number {
 /** δ = 2πζ/√(1−ζ²) for 0 ≤ ζ < 1 (F4). */
 export function logDecrementFromDampingRatio(dampingRatio: number): number {
 	const z = finite('dampingRatio', dampingRatio);
-	if (z < 0 || z >= 1) throw new VibrationInputError('dampingRatio', 'at least 0 and below 1 (only an underdamped system rings down)', z);
+	if (z < 0 || z >= 1)
+		throw new VibrationInputError(
+			'dampingRatio',
+			'at least 0 and below 1 (only an underdamped system rings down)',
+			z
+		);
 	return (2 * Math.PI * z) / Math.sqrt(1 - z * z);
 }
 
@@ -30,7 +42,8 @@ export function logDecrementFromDampingRatio(dampingRatio: number): number {
  */
 export function dampingFromLogDecrement(peaks: number[]): DampingEstimate {
 	const list = nonEmpty('peaks', peaks);
-	if (list.length < 2) throw new VibrationInputError('peaks', 'a list of at least two successive peaks', list);
+	if (list.length < 2)
+		throw new VibrationInputError('peaks', 'a list of at least two successive peaks', list);
 	const logs = list.map((p, i) => Math.log(positive(`peaks[${i}]`, p)));
 	const n = logs.length;
 	const meanI = (n - 1) / 2;
@@ -42,7 +55,12 @@ export function dampingFromLogDecrement(peaks: number[]): DampingEstimate {
 		den += (i - meanI) ** 2;
 	}
 	const delta = -num / den;
-	if (delta < 0) throw new VibrationInputError('peaks', 'decaying (the peaks grow, so this is not a free ring-down)', list);
+	if (delta < 0)
+		throw new VibrationInputError(
+			'peaks',
+			'decaying (the peaks grow, so this is not a free ring-down)',
+			list
+		);
 	return { logDecrement: delta, dampingRatio: dampingRatioFromLogDecrement(delta) };
 }
 
@@ -50,20 +68,37 @@ export function dampingFromLogDecrement(peaks: number[]): DampingEstimate {
  * From two peaks `cycles` apart: δ = ln(x_first/x_later)/cycles (F4). Peak 1 and peak 100 are 99
  * cycles apart: use {@link dampingFromPeakNumbers} when you have peak numbers.
  */
-export function dampingFromPeaksApart(first: number, later: number, cycles: number): DampingEstimate {
+export function dampingFromPeaksApart(
+	first: number,
+	later: number,
+	cycles: number
+): DampingEstimate {
 	const a = positive('first peak', first);
 	const b = positive('later peak', later);
 	const n = integerAtLeast('cycles', cycles, 1);
-	if (b > a) throw new VibrationInputError('later peak', 'no larger than the first peak in a free ring-down', b);
+	if (b > a)
+		throw new VibrationInputError(
+			'later peak',
+			'no larger than the first peak in a free ring-down',
+			b
+		);
 	const delta = Math.log(a / b) / n;
 	return { logDecrement: delta, dampingRatio: dampingRatioFromLogDecrement(delta) };
 }
 
 /** From peak number i with amplitude x_i and peak number j > i with x_j: cycles = j − i. */
-export function dampingFromPeakNumbers(a: { peak: number; amplitude: number }, b: { peak: number; amplitude: number }): DampingEstimate {
+export function dampingFromPeakNumbers(
+	a: { peak: number; amplitude: number },
+	b: { peak: number; amplitude: number }
+): DampingEstimate {
 	const i = integerAtLeast('first peak number', a.peak, 0);
 	const j = integerAtLeast('later peak number', b.peak, 0);
-	if (j <= i) throw new VibrationInputError('later peak number', `greater than the first peak number ${i}`, j);
+	if (j <= i)
+		throw new VibrationInputError(
+			'later peak number',
+			`greater than the first peak number ${i}`,
+			j
+		);
 	return dampingFromPeaksApart(a.amplitude, b.amplitude, j - i);
 }
 
@@ -71,11 +106,20 @@ export function dampingFromPeakNumbers(a: { peak: number; amplitude: number }, b
  * Half-power bandwidth: ζ ≈ (f2 − f1)/(2 f_n), Q = f_n/(f2 − f1) (F5; the API AF for a
  * rotor). f1 < f_n < f2 are where the response is 1/√2 of the peak.
  */
-export function dampingFromHalfPower(naturalHz: number, lowerHz: number, upperHz: number): { dampingRatio: number; qFactor: number } {
+export function dampingFromHalfPower(
+	naturalHz: number,
+	lowerHz: number,
+	upperHz: number
+): { dampingRatio: number; qFactor: number } {
 	const fn = positive('naturalHz', naturalHz);
 	const f1 = positive('lowerHz', lowerHz);
 	const f2 = positive('upperHz', upperHz);
-	if (!(f1 < fn && fn < f2)) throw new VibrationInputError('half-power points', `on either side of the peak (${f1} < ${fn} < ${f2})`, [f1, f2]);
+	if (!(f1 < fn && fn < f2))
+		throw new VibrationInputError(
+			'half-power points',
+			`on either side of the peak (${f1} < ${fn} < ${f2})`,
+			[f1, f2]
+		);
 	const bw = f2 - f1;
 	return { dampingRatio: bw / (2 * fn), qFactor: fn / bw };
 }

@@ -21,7 +21,8 @@ function describe(value: unknown): string {
 	if (value === undefined) return 'nothing';
 	if (value === null) return 'null';
 	if (Array.isArray(value)) return `a list of ${value.length}`;
-	if (typeof value === 'string') return JSON.stringify(value.length > 40 ? value.slice(0, 40) + '…' : value);
+	if (typeof value === 'string')
+		return JSON.stringify(value.length > 40 ? value.slice(0, 40) + '…' : value);
 	return typeof value;
 }
 
@@ -50,14 +51,16 @@ export function nonNegative(name: string, value: unknown): number {
 /** A finite number of at least `min` (for physical floors such as a shaft speed of 0.001 rpm). */
 export function atLeast(name: string, value: unknown, min: number, unit = ''): number {
 	const v = finite(name, value);
-	if (v < min) throw new VibrationInputError(name, `at least ${min}${unit ? ' ' + unit : ''}`, value);
+	if (v < min)
+		throw new VibrationInputError(name, `at least ${min}${unit ? ' ' + unit : ''}`, value);
 	return v;
 }
 
 /** A whole number greater than or equal to `min`. */
 export function integerAtLeast(name: string, value: unknown, min: number): number {
 	const v = finite(name, value);
-	if (!Number.isInteger(v) || v < min) throw new VibrationInputError(name, `a whole number of at least ${min}`, value);
+	if (!Number.isInteger(v) || v < min)
+		throw new VibrationInputError(name, `a whole number of at least ${min}`, value);
 	return v;
 }
 
@@ -70,7 +73,8 @@ export function within(name: string, value: unknown, lo: number, hi: number): nu
 
 /** A non-empty array. */
 export function nonEmpty<T>(name: string, value: readonly T[] | null | undefined): readonly T[] {
-	if (!Array.isArray(value) || value.length === 0) throw new VibrationInputError(name, 'a non-empty list', value);
+	if (!Array.isArray(value) || value.length === 0)
+		throw new VibrationInputError(name, 'a non-empty list', value);
 	return value;
 }
 

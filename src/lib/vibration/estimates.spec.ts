@@ -19,9 +19,13 @@ import {
 } from './index.ts';
 import { bisect } from './testing/bisect.ts';
 
-
 // domain.md E14 [C]: steel flat bar 50 × 10 mm, 1 m long, bending about the thin axis
-const bar = { youngsModulus: 200e9, secondMoment: rectangleSecondMoment(0.05, 0.01), massPerLength: 7850 * 0.05 * 0.01, length: 1 };
+const bar = {
+	youngsModulus: 200e9,
+	secondMoment: rectangleSecondMoment(0.05, 0.01),
+	massPerLength: 7850 * 0.05 * 0.01,
+	length: 1
+};
 
 describe('static deflection and mass–spring', () => {
 	it.each([
@@ -98,14 +102,23 @@ describe('beams (Euler–Bernoulli)', () => {
 		expect(f[2] / f[0]).toBeCloseTo(17.55, 2);
 		expect(f[3] / f[0]).toBeCloseTo(34.39, 2);
 		expect(fixedFixedFrequenciesHz(bar, 6)).toHaveLength(6);
-		expect(beamFrequenciesHz(bar, 'simply-supported', 3)[2] / beamFrequenciesHz(bar, 'simply-supported', 3)[0]).toBeCloseTo(9, 9);
+		expect(
+			beamFrequenciesHz(bar, 'simply-supported', 3)[2] /
+				beamFrequenciesHz(bar, 'simply-supported', 3)[0]
+		).toBeCloseTo(9, 9);
 	});
 });
 
 describe('cantilever with a tip mass (Rayleigh)', () => {
 	const mBeam = bar.massPerLength * bar.length;
 	const rayleigh = (ratio: number) =>
-		cantileverTipMassFrequencyHz({ youngsModulus: bar.youngsModulus, secondMoment: bar.secondMoment, length: 1, beamMass: mBeam, tipMass: ratio * mBeam });
+		cantileverTipMassFrequencyHz({
+			youngsModulus: bar.youngsModulus,
+			secondMoment: bar.secondMoment,
+			length: 1,
+			beamMass: mBeam,
+			tipMass: ratio * mBeam
+		});
 
 	it('over-estimates the bare cantilever by 1.47 % (coefficient 3.5675 against 3.5160; domain.md E15 [C])', () => {
 		const exact = cantileverFrequenciesHz(bar, 1)[0];
@@ -117,17 +130,37 @@ describe('cantilever with a tip mass (Rayleigh)', () => {
 		[0.5, 4.6829, 4.6759],
 		[1, 3.6134, 3.6114],
 		[2, 2.6863, 2.6859]
-	])('M/m_beam = %s: Rayleigh %s Hz, within 0.2 %% of the exact root (domain.md E16 [C])', (ratio, ray, exactTable) => {
-		expect(rayleigh(ratio)).toBeCloseTo(ray, 3);
-		// exact: 1 + cos λ cosh λ + (M/m)λ(cos λ sinh λ − sin λ cosh λ) = 0, solved here independently
-		const lam = bisect((x) => 1 + Math.cos(x) * Math.cosh(x) + ratio * x * (Math.cos(x) * Math.sinh(x) - Math.sin(x) * Math.cosh(x)), 0.5, 1.87);
-		const exact = ((lam * lam) / (2 * Math.PI)) * Math.sqrt((bar.youngsModulus * bar.secondMoment) / bar.massPerLength);
-		expect(exact).toBeCloseTo(exactTable, 3);
-		expect(Math.abs(rayleigh(ratio) - exact) / exact).toBeLessThan(0.002);
-	});
+	])(
+		'M/m_beam = %s: Rayleigh %s Hz, within 0.2 %% of the exact root (domain.md E16 [C])',
+		(ratio, ray, exactTable) => {
+			expect(rayleigh(ratio)).toBeCloseTo(ray, 3);
+			// exact: 1 + cos λ cosh λ + (M/m)λ(cos λ sinh λ − sin λ cosh λ) = 0, solved here independently
+			const lam = bisect(
+				(x) =>
+					1 +
+					Math.cos(x) * Math.cosh(x) +
+					ratio * x * (Math.cos(x) * Math.sinh(x) - Math.sin(x) * Math.cosh(x)),
+				0.5,
+				1.87
+			);
+			const exact =
+				((lam * lam) / (2 * Math.PI)) *
+				Math.sqrt((bar.youngsModulus * bar.secondMoment) / bar.massPerLength);
+			expect(exact).toBeCloseTo(exactTable, 3);
+			expect(Math.abs(rayleigh(ratio) - exact) / exact).toBeLessThan(0.002);
+		}
+	);
 
 	it('refuses a massless beam with no tip mass', () => {
-		expect(() => cantileverTipMassFrequencyHz({ youngsModulus: 1, secondMoment: 1, length: 1, beamMass: 0, tipMass: 0 })).toThrow(/beamMass \+ tipMass/);
+		expect(() =>
+			cantileverTipMassFrequencyHz({
+				youngsModulus: 1,
+				secondMoment: 1,
+				length: 1,
+				beamMass: 0,
+				tipMass: 0
+			})
+		).toThrow(/beamMass \+ tipMass/);
 	});
 });
 
@@ -155,7 +188,9 @@ describe('torsional', () => {
 	it('section helpers: solid and hollow round, rectangle', () => {
 		expect(tubeSecondMoment(0.1)).toBeCloseTo((Math.PI * 0.1 ** 4) / 64, 15);
 		expect(tubeSecondMoment(0.1, 0.08)).toBeCloseTo((Math.PI * (0.1 ** 4 - 0.08 ** 4)) / 64, 15);
-		expect(() => tubeSecondMoment(0.1, 0.1)).toThrow(/innerDiameter must be smaller than outerDiameter/);
+		expect(() => tubeSecondMoment(0.1, 0.1)).toThrow(
+			/innerDiameter must be smaller than outerDiameter/
+		);
 		expect(() => beamLambda('cantilever', 0)).toThrow(/mode must be a whole number/);
 	});
 });

@@ -48,7 +48,8 @@ export type BeamSupport = 'cantilever' | 'simply-supported' | 'fixed-fixed';
 export function beamLambda(support: BeamSupport, mode: number): number {
 	const i = integerAtLeast('mode', mode, 1);
 	if (support === 'simply-supported') return i * Math.PI;
-	if (support === 'cantilever') return i <= CANTILEVER_LAMBDA.length ? CANTILEVER_LAMBDA[i - 1] : ((2 * i - 1) * Math.PI) / 2;
+	if (support === 'cantilever')
+		return i <= CANTILEVER_LAMBDA.length ? CANTILEVER_LAMBDA[i - 1] : ((2 * i - 1) * Math.PI) / 2;
 	return i <= FIXED_FIXED_LAMBDA.length ? FIXED_FIXED_LAMBDA[i - 1] : ((2 * i + 1) * Math.PI) / 2;
 }
 
@@ -63,9 +64,12 @@ export function beamFrequenciesHz(beam: Beam, support: BeamSupport, modes = 3): 
 	return Array.from({ length: n }, (_, k) => beamLambda(support, k + 1) ** 2 * base);
 }
 
-export const cantileverFrequenciesHz = (beam: Beam, modes = 3) => beamFrequenciesHz(beam, 'cantilever', modes);
-export const simplySupportedFrequenciesHz = (beam: Beam, modes = 3) => beamFrequenciesHz(beam, 'simply-supported', modes);
-export const fixedFixedFrequenciesHz = (beam: Beam, modes = 3) => beamFrequenciesHz(beam, 'fixed-fixed', modes);
+export const cantileverFrequenciesHz = (beam: Beam, modes = 3) =>
+	beamFrequenciesHz(beam, 'cantilever', modes);
+export const simplySupportedFrequenciesHz = (beam: Beam, modes = 3) =>
+	beamFrequenciesHz(beam, 'simply-supported', modes);
+export const fixedFixedFrequenciesHz = (beam: Beam, modes = 3) =>
+	beamFrequenciesHz(beam, 'fixed-fixed', modes);
 
 /**
  * Cantilever carrying a tip mass M, by Rayleigh's method: k = 3EI/L³, m_eff = M + (33/140)·m_beam.
@@ -90,7 +94,11 @@ export function cantileverTipMassFrequencyHz(input: {
 }
 
 /** Torsional stiffness of a solid round shaft, k_t = G·(πd⁴/32)/L, N·m/rad (F14; Rao §2.2). */
-export function shaftTorsionalStiffness(input: { shearModulus: number; diameter: number; length: number }): number {
+export function shaftTorsionalStiffness(input: {
+	shearModulus: number;
+	diameter: number;
+	length: number;
+}): number {
 	const G = positive('shearModulus', input.shearModulus);
 	const d = positive('diameter', input.diameter);
 	const L = positive('length', input.length);
@@ -99,14 +107,21 @@ export function shaftTorsionalStiffness(input: { shearModulus: number; diameter:
 
 /** Shaft (massless) with one disc of polar inertia J: f = (1/2π)√(k_t/J) (F14). */
 export function shaftDiscFrequencyHz(torsionalStiffness: number, inertia: number): number {
-	return Math.sqrt(positive('torsionalStiffness', torsionalStiffness) / positive('inertia', inertia)) / TWO_PI;
+	return (
+		Math.sqrt(positive('torsionalStiffness', torsionalStiffness) / positive('inertia', inertia)) /
+		TWO_PI
+	);
 }
 
 /**
  * Two discs J1, J2 on a massless shaft k_t, free at both ends: the non-zero mode
  * ω = √(k_t(J1 + J2)/(J1·J2)) (F14; Rao §6.4, two-rotor system).
  */
-export function twoDiscFrequencyHz(torsionalStiffness: number, inertia1: number, inertia2: number): number {
+export function twoDiscFrequencyHz(
+	torsionalStiffness: number,
+	inertia1: number,
+	inertia2: number
+): number {
 	const k = positive('torsionalStiffness', torsionalStiffness);
 	const j1 = positive('inertia1', inertia1);
 	const j2 = positive('inertia2', inertia2);

@@ -4,9 +4,27 @@
  * sections 4 and 5 (shaft orders, vane/blade pass, gear mesh, bearing defect frequencies, belt
  * pass, twice line frequency).
  */
-import { finite, integerAtLeast, nonEmpty, object, positive, within, VibrationInputError, nonNegative } from './errors.ts';
+import {
+	finite,
+	integerAtLeast,
+	nonEmpty,
+	object,
+	positive,
+	within,
+	VibrationInputError,
+	nonNegative
+} from './errors.ts';
 
-export const EXCITATION_KINDS = ['shaft', 'vane', 'blade', 'gear', 'bearing', 'belt', 'line', 'fixed'] as const;
+export const EXCITATION_KINDS = [
+	'shaft',
+	'vane',
+	'blade',
+	'gear',
+	'bearing',
+	'belt',
+	'line',
+	'fixed'
+] as const;
 export type ExcitationKind = (typeof EXCITATION_KINDS)[number];
 
 /** Fields every source has. `speedRatio` is the speed of the component's shaft ÷ the reference shaft's (default 1). */
@@ -20,9 +38,24 @@ export type ExcitationSource =
 	| (SourceBase & { kind: 'shaft'; orders: number[] })
 	| (SourceBase & { kind: 'vane' | 'blade'; count: number; harmonics?: number[] })
 	| (SourceBase & { kind: 'gear'; teeth: number; matingTeeth: number; harmonics?: number[] })
-	| (SourceBase & { kind: 'bearing'; rollingElements: number; elementDiameter: number; pitchDiameter: number; contactAngleDeg: number })
-	| (SourceBase & { kind: 'belt'; sheaveDiameter: number; beltLength: number; harmonics?: number[] })
-	| (SourceBase & { kind: 'line'; lineFrequencyHz: number; drive?: { poles: number; motorRpmPerShaftRpm: number } | null })
+	| (SourceBase & {
+			kind: 'bearing';
+			rollingElements: number;
+			elementDiameter: number;
+			pitchDiameter: number;
+			contactAngleDeg: number;
+	  })
+	| (SourceBase & {
+			kind: 'belt';
+			sheaveDiameter: number;
+			beltLength: number;
+			harmonics?: number[];
+	  })
+	| (SourceBase & {
+			kind: 'line';
+			lineFrequencyHz: number;
+			drive?: { poles: number; motorRpmPerShaftRpm: number } | null;
+	  })
 	| (SourceBase & { kind: 'fixed'; frequencyHz: number });
 
 /** One forcing frequency. Exactly one of `order` (× reference shaft frequency) and `fixedHz` is set. */
@@ -58,14 +91,18 @@ export interface BearingFrequencies {
  * Source: Harris & Kotzalas, Rolling Bearing Analysis; Randall, Vibration-based Condition
  * Monitoring §2 (../shared/domain.md section 4). Units follow shaftHz (Hz in, Hz out).
  */
-export function bearingDefectFrequencies(geometry: BearingGeometry, shaftHz: number): BearingFrequencies {
+export function bearingDefectFrequencies(
+	geometry: BearingGeometry,
+	shaftHz: number
+): BearingFrequencies {
 	const g = object('bearing geometry', geometry);
 	const n = integerAtLeast('rollingElements', g.rollingElements, 3);
 	const d = positive('elementDiameter', g.elementDiameter);
 	const D = positive('pitchDiameter', g.pitchDiameter);
 	const phi = within('contactAngleDeg', g.contactAngleDeg, 0, 89.9);
 	const f = nonNegative('shaftHz', shaftHz);
-	if (d >= D) throw new VibrationInputError('elementDiameter', `smaller than the pitch diameter ${D}`, d);
+	if (d >= D)
+		throw new VibrationInputError('elementDiameter', `smaller than the pitch diameter ${D}`, d);
 	const r = (d / D) * Math.cos((phi * Math.PI) / 180);
 	return {
 		ftf: (f / 2) * (1 - r),
@@ -104,8 +141,14 @@ function times(h: number): string {
  */
 export function excitationLines(source: ExcitationSource): ExcitationLine[] {
 	const s = object('excitation source', source);
-	if (typeof s.id !== 'string' || s.id.length === 0) throw new VibrationInputError('source id', 'a non-empty string', s.id);
-	const ratio = s.speedRatio === undefined ? 1 : isPositive(s.speedRatio) ? s.speedRatio : positive(`speedRatio of ${s.id}`, s.speedRatio);
+	if (typeof s.id !== 'string' || s.id.length === 0)
+		throw new VibrationInputError('source id', 'a non-empty string', s.id);
+	const ratio =
+		s.speedRatio === undefined
+			? 1
+			: isPositive(s.speedRatio)
+				? s.speedRatio
+				: positive(`speedRatio of ${s.id}`, s.speedRatio);
 	const orderLine = (tag: string, label: string, order: number): ExcitationLine => ({
 		id: `${s.id}:${tag}`,
 		sourceId: s.id,
@@ -124,14 +167,22 @@ export function excitationLines(source: ExcitationSource): ExcitationLine[] {
 		case 'blade': {
 			const count = integerAtLeast(`${s.kind} count`, s.count, 1);
 			const name = s.kind === 'vane' ? 'Vane pass' : 'Blade pass';
-			return harmonicsOf('harmonics', s.harmonics, [1, 2]).map((h) => orderLine(times(h), `${name} ${times(h)}`, h * count * ratio));
+			return harmonicsOf('harmonics', s.harmonics, [1, 2]).map((h) =>
+				orderLine(times(h), `${name} ${times(h)}`, h * count * ratio)
+			);
 		}
 		case 'gear': {
 			const z1 = integerAtLeast('teeth', s.teeth, 1);
 			const z2 = integerAtLeast('matingTeeth', s.matingTeeth, 1);
-			const mesh = harmonicsOf('harmonics', s.harmonics, [1, 2, 3]).map((h) => orderLine(`gmf${times(h)}`, `Gear mesh ${times(h)}`, h * z1 * ratio));
+			const mesh = harmonicsOf('harmonics', s.harmonics, [1, 2, 3]).map((h) =>
+				orderLine(`gmf${times(h)}`, `Gear mesh ${times(h)}`, h * z1 * ratio)
+			);
 			const other = (ratio * z1) / z2;
-			return [...mesh, orderLine('mate1×', `Mating shaft 1×`, other), orderLine('mate2×', `Mating shaft 2×`, 2 * other)];
+			return [
+				...mesh,
+				orderLine('mate1×', `Mating shaft 1×`, other),
+				orderLine('mate2×', `Mating shaft 2×`, 2 * other)
+			];
 		}
 		case 'bearing': {
 			const per = bearingDefectFrequencies(s, 1); // multiples of the bearing shaft's frequency
@@ -146,9 +197,16 @@ export function excitationLines(source: ExcitationSource): ExcitationLine[] {
 		case 'belt': {
 			const D = positive('sheaveDiameter', s.sheaveDiameter);
 			const L = positive('beltLength', s.beltLength);
-			if (Math.PI * D >= L) throw new VibrationInputError('beltLength', `longer than the sheave's circumference ${+(Math.PI * D).toFixed(4)}`, L);
+			if (Math.PI * D >= L)
+				throw new VibrationInputError(
+					'beltLength',
+					`longer than the sheave's circumference ${+(Math.PI * D).toFixed(4)}`,
+					L
+				);
 			const per = (Math.PI * D) / L; // belt turns per sheave revolution
-			return harmonicsOf('harmonics', s.harmonics, [1, 2]).map((h) => orderLine(`belt${times(h)}`, `Belt pass ${times(h)}`, h * per * ratio));
+			return harmonicsOf('harmonics', s.harmonics, [1, 2]).map((h) =>
+				orderLine(`belt${times(h)}`, `Belt pass ${times(h)}`, h * per * ratio)
+			);
 		}
 		case 'line': {
 			const fl = positive('lineFrequencyHz', s.lineFrequencyHz);
@@ -158,14 +216,36 @@ export function excitationLines(source: ExcitationSource): ExcitationLine[] {
 				// 2 × electrical frequency; electrical Hz = motor rpm · p/120 → per shaft Hz: 2·mr·p/2
 				return [orderLine('2line', '2× line (drive)', mr * p)];
 			}
-			return [{ id: `${s.id}:2line`, sourceId: s.id, kind: 'line', label: s.label ? `${s.label} 2× line` : '2× line', order: null, fixedHz: 2 * fl }];
+			return [
+				{
+					id: `${s.id}:2line`,
+					sourceId: s.id,
+					kind: 'line',
+					label: s.label ? `${s.label} 2× line` : '2× line',
+					order: null,
+					fixedHz: 2 * fl
+				}
+			];
 		}
 		case 'fixed': {
 			const f = positive('frequencyHz', s.frequencyHz);
-			return [{ id: `${s.id}:fixed`, sourceId: s.id, kind: 'fixed', label: s.label ?? `Fixed ${+f.toFixed(3)} Hz`, order: null, fixedHz: f }];
+			return [
+				{
+					id: `${s.id}:fixed`,
+					sourceId: s.id,
+					kind: 'fixed',
+					label: s.label ?? `Fixed ${+f.toFixed(3)} Hz`,
+					order: null,
+					fixedHz: f
+				}
+			];
 		}
 		default:
-			throw new VibrationInputError('excitation kind', `one of ${EXCITATION_KINDS.join(', ')}`, (s as { kind: unknown }).kind);
+			throw new VibrationInputError(
+				'excitation kind',
+				`one of ${EXCITATION_KINDS.join(', ')}`,
+				(s as { kind: unknown }).kind
+			);
 	}
 }
 
@@ -187,7 +267,8 @@ export function lineFrequencyHz(line: ExcitationLine, rpm: number): number {
 export function lineBandHz(line: ExcitationLine, minRpm: number, maxRpm: number): [number, number] {
 	const lo = finite('minRpm', minRpm);
 	const hi = finite('maxRpm', maxRpm);
-	if (lo < 0 || hi < lo) throw new VibrationInputError('speed range', `0 ≤ min ≤ max rpm`, [lo, hi]);
+	if (lo < 0 || hi < lo)
+		throw new VibrationInputError('speed range', `0 ≤ min ≤ max rpm`, [lo, hi]);
 	if (line.fixedHz !== null) return [line.fixedHz, line.fixedHz];
 	return [((line.order as number) * lo) / 60, ((line.order as number) * hi) / 60];
 }

@@ -46,29 +46,52 @@ describe('required margin', () => {
 		[12, 15.381, 25.381],
 		[18.5, 16, 26],
 		[25, 16, 26]
-	])('amplification rule, AF = %s: %s %% below, %s %% above (API RP 684 style; domain.md §1.2)', (af, below, above) => {
-		const rule = { kind: 'amplification' as const };
-		expect(requiredMarginPct(rule, { amplificationFactor: af, position: 'below' })).toBeCloseTo(below, 3);
-		expect(requiredMarginPct(rule, { amplificationFactor: af, position: 'above' })).toBeCloseTo(above, 3);
-	});
+	])(
+		'amplification rule, AF = %s: %s %% below, %s %% above (API RP 684 style; domain.md §1.2)',
+		(af, below, above) => {
+			const rule = { kind: 'amplification' as const };
+			expect(requiredMarginPct(rule, { amplificationFactor: af, position: 'below' })).toBeCloseTo(
+				below,
+				3
+			);
+			expect(requiredMarginPct(rule, { amplificationFactor: af, position: 'above' })).toBeCloseTo(
+				above,
+				3
+			);
+		}
+	);
 
 	it('AF from the half-power method: N_c 3000, N1 2900, N2 3150 rpm gives AF 12 and 15.38 % / 25.38 % (domain.md §1.2 worked case [C])', () => {
 		const af = 3000 / (3150 - 2900);
 		expect(af).toBe(12);
-		expect(requiredMarginPct({ kind: 'amplification' }, { amplificationFactor: af, position: 'below' })).toBeCloseTo(15.38, 2);
-		expect(requiredMarginPct({ kind: 'amplification' }, { amplificationFactor: af, position: 'above' })).toBeCloseTo(25.38, 2);
+		expect(
+			requiredMarginPct({ kind: 'amplification' }, { amplificationFactor: af, position: 'below' })
+		).toBeCloseTo(15.38, 2);
+		expect(
+			requiredMarginPct({ kind: 'amplification' }, { amplificationFactor: af, position: 'above' })
+		).toBeCloseTo(25.38, 2);
 	});
 
 	it('amplification rule with no damping measured falls back to the caps; a crossed mode takes the stricter side', () => {
-		expect(requiredMarginPct({ kind: 'amplification' }, { amplificationFactor: null, position: 'below' })).toBe(16);
+		expect(
+			requiredMarginPct({ kind: 'amplification' }, { amplificationFactor: null, position: 'below' })
+		).toBe(16);
 		expect(requiredMarginPct({ kind: 'amplification' }, { position: 'above' })).toBe(26);
-		expect(requiredMarginPct({ kind: 'amplification' }, { amplificationFactor: 5, position: 'inside' })).toBeCloseTo(22.143, 3);
+		expect(
+			requiredMarginPct({ kind: 'amplification' }, { amplificationFactor: 5, position: 'inside' })
+		).toBeCloseTo(22.143, 3);
 	});
 
 	it('refuses unknown rule kinds and positions', () => {
-		expect(() => requiredMarginPct({ kind: 'vibes' } as never, { position: 'below' })).toThrow(/rule kind must be fixed or amplification/);
-		expect(() => requiredMarginPct({ kind: 'fixed', percent: 10 }, { position: 'left' as never })).toThrow(/position/);
-		expect(() => requiredMarginPct({ kind: 'fixed', percent: -1 }, { position: 'below' })).toThrow(/rule percent must be zero or more/);
+		expect(() => requiredMarginPct({ kind: 'vibes' } as never, { position: 'below' })).toThrow(
+			/rule kind must be fixed or amplification/
+		);
+		expect(() =>
+			requiredMarginPct({ kind: 'fixed', percent: 10 }, { position: 'left' as never })
+		).toThrow(/position/);
+		expect(() => requiredMarginPct({ kind: 'fixed', percent: -1 }, { position: 'below' })).toThrow(
+			/rule percent must be zero or more/
+		);
 	});
 });
 
@@ -150,10 +173,18 @@ describe('evaluating a check', () => {
 	});
 
 	it('refuses bad checks with a message naming the field', () => {
-		expect(() => evaluateCheck({ ...pump, speedRange: { minRpm: 2000, maxRpm: 1000 } })).toThrow(/maxRpm must be at least minRpm/);
-		expect(() => evaluateCheck({ ...pump, modes: [{ frequencyHz: -3 }] })).toThrow(/modes\[0\]\.frequencyHz must be greater than zero/);
-		expect(() => evaluateCheck({ ...pump, modes: [{ frequencyHz: 3, dampingRatio: 0 }] })).toThrow(/modes\[0\]\.dampingRatio/);
-		expect(() => evaluateCheck({ ...pump, measuredRpm: NaN })).toThrow(/measuredRpm must be a finite number/);
+		expect(() => evaluateCheck({ ...pump, speedRange: { minRpm: 2000, maxRpm: 1000 } })).toThrow(
+			/maxRpm must be at least minRpm/
+		);
+		expect(() => evaluateCheck({ ...pump, modes: [{ frequencyHz: -3 }] })).toThrow(
+			/modes\[0\]\.frequencyHz must be greater than zero/
+		);
+		expect(() => evaluateCheck({ ...pump, modes: [{ frequencyHz: 3, dampingRatio: 0 }] })).toThrow(
+			/modes\[0\]\.dampingRatio/
+		);
+		expect(() => evaluateCheck({ ...pump, measuredRpm: NaN })).toThrow(
+			/measuredRpm must be a finite number/
+		);
 		expect(() => evaluateCheck({ ...pump, modes: 'x' as never })).toThrow(/modes must be a list/);
 	});
 });

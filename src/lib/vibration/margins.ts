@@ -7,7 +7,15 @@
  * crossed and its margin is 0; outside it the margin is taken to the nearest edge.
  */
 import { atLeast, finite, nonNegative, object, positive, VibrationInputError } from './errors.ts';
-import { EXCITATION_KINDS, excitationCatalogue, lineBandHz, lineFrequencyHz, type ExcitationKind, type ExcitationLine, type ExcitationSource } from './excitation.ts';
+import {
+	EXCITATION_KINDS,
+	excitationCatalogue,
+	lineBandHz,
+	lineFrequencyHz,
+	type ExcitationKind,
+	type ExcitationLine,
+	type ExcitationSource
+} from './excitation.ts';
 
 export const MARGIN_CONVENTION = 'relative to excitation frequency: |fn − fe| / fe';
 
@@ -28,7 +36,11 @@ export type Position = 'below' | 'above';
  * Inside the band (crossed) the margin is 0 and `position` is 'inside'. A band that starts at 0
  * (a speed range from standstill) has no lower edge to measure to: a mode below it is inside.
  */
-export function bandMarginPct(naturalHz: number, loHz: number, hiHz: number): { marginPct: number; position: Position | 'inside' } {
+export function bandMarginPct(
+	naturalHz: number,
+	loHz: number,
+	hiHz: number
+): { marginPct: number; position: Position | 'inside' } {
 	const fn = positive('naturalHz', naturalHz);
 	const lo = nonNegative('band low (Hz)', loHz);
 	const hi = finite('band high (Hz)', hiHz);
@@ -74,7 +86,11 @@ export const API_CAP_ABOVE = 26;
  */
 export function requiredMarginPct(
 	rule: MarginRule,
-	context: { amplificationFactor?: number | null; position: Position | 'inside'; excitationKind?: ExcitationKind }
+	context: {
+		amplificationFactor?: number | null;
+		position: Position | 'inside';
+		excitationKind?: ExcitationKind;
+	}
 ): number {
 	object('rule', rule);
 	object('context', context);
@@ -83,12 +99,24 @@ export function requiredMarginPct(
 		throw new VibrationInputError('position', 'below, above or inside', position);
 	}
 	if (rule.kind === 'fixed') {
-		const own = context.excitationKind !== undefined ? rule.perKind?.[context.excitationKind] : undefined;
-		return nonNegative(own !== undefined ? `rule percent for ${context.excitationKind}` : 'rule percent', own ?? rule.percent);
+		const own =
+			context.excitationKind !== undefined ? rule.perKind?.[context.excitationKind] : undefined;
+		return nonNegative(
+			own !== undefined ? `rule percent for ${context.excitationKind}` : 'rule percent',
+			own ?? rule.percent
+		);
 	}
-	if (rule.kind !== 'amplification') throw new VibrationInputError('rule kind', 'fixed or amplification', (rule as { kind: unknown }).kind);
+	if (rule.kind !== 'amplification')
+		throw new VibrationInputError(
+			'rule kind',
+			'fixed or amplification',
+			(rule as { kind: unknown }).kind
+		);
 	const af = context.amplificationFactor;
-	return amplificationRequired(af === null || af === undefined ? null : positive('amplificationFactor', af), position);
+	return amplificationRequired(
+		af === null || af === undefined ? null : positive('amplificationFactor', af),
+		position
+	);
 }
 
 /** The amplification rule for a validated AF (null = unknown). A crossed mode takes the stricter, above-side figure. */
@@ -101,24 +129,38 @@ function amplificationRequired(af: number | null, position: Position | 'inside')
 }
 
 /** A rule checked once, then applied many times without re-validation (the hot loop of a fleet). */
-export function compileRule(rule: MarginRule): (af: number | null, position: Position | 'inside', kind: ExcitationKind) => number {
+export function compileRule(
+	rule: MarginRule
+): (af: number | null, position: Position | 'inside', kind: ExcitationKind) => number {
 	object('rule', rule);
 	if (rule.kind === 'fixed') {
 		const base = nonNegative('rule percent', rule.percent);
 		const per: Partial<Record<ExcitationKind, number>> = {};
-		for (const [k, v] of Object.entries(rule.perKind ?? {})) per[k as ExcitationKind] = nonNegative(`rule percent for ${k}`, v);
+		for (const [k, v] of Object.entries(rule.perKind ?? {}))
+			per[k as ExcitationKind] = nonNegative(`rule percent for ${k}`, v);
 		return (_af, _position, kind) => per[kind] ?? base;
 	}
-	if (rule.kind !== 'amplification') throw new VibrationInputError('rule kind', 'fixed or amplification', (rule as { kind: unknown }).kind);
+	if (rule.kind !== 'amplification')
+		throw new VibrationInputError(
+			'rule kind',
+			'fixed or amplification',
+			(rule as { kind: unknown }).kind
+		);
 	return amplificationRequired;
 }
 
-const verdictOf = (sm: number, r: number): Verdict => (sm >= r ? 'clear' : sm >= r / 2 ? 'tight' : 'conflict');
+const verdictOf = (sm: number, r: number): Verdict =>
+	sm >= r ? 'clear' : sm >= r / 2 ? 'tight' : 'conflict';
 
 export type Verdict = 'clear' | 'tight' | 'conflict';
 export type AssetVerdict = Verdict | 'unchecked';
 
-export const VERDICT_RANK: Record<AssetVerdict, number> = { unchecked: 0, clear: 1, tight: 2, conflict: 3 };
+export const VERDICT_RANK: Record<AssetVerdict, number> = {
+	unchecked: 0,
+	clear: 1,
+	tight: 2,
+	conflict: 3
+};
 
 /** clear when SM ≥ R, tight when R/2 ≤ SM < R, conflict when SM < R/2 (product design). */
 export function pairVerdict(marginPct: number, requiredPct: number): Verdict {
@@ -134,7 +176,10 @@ export function worseVerdict<A extends AssetVerdict>(a: A, b: A): A {
 }
 
 /** ISO 10816-3 / 20816-3: rigid when the lowest natural frequency ≥ 1.25 × the main excitation ([S2]). */
-export function supportClass(lowestNaturalHz: number, mainExcitationHz: number): 'rigid' | 'flexible' {
+export function supportClass(
+	lowestNaturalHz: number,
+	mainExcitationHz: number
+): 'rigid' | 'flexible' {
 	const fn = positive('lowestNaturalHz', lowestNaturalHz);
 	const fe = positive('mainExcitationHz', mainExcitationHz);
 	return fn >= 1.25 * fe ? 'rigid' : 'flexible';
@@ -212,13 +257,23 @@ export function validateSpeedRange(range: SpeedRange): SpeedRange {
 const ALLOWED_KINDS: readonly string[] = EXCITATION_KINDS;
 
 /** Orders pairs worst first: verdict, then how far short of its requirement, then margin. */
-export function comparePairs(a: PairResult, b: PairResult, at: 'speed' | 'range' = 'range'): number {
+export function comparePairs(
+	a: PairResult,
+	b: PairResult,
+	at: 'speed' | 'range' = 'range'
+): number {
 	const va = at === 'speed' ? a.verdictAtSpeed : a.verdictOverRange;
 	const vb = at === 'speed' ? b.verdictAtSpeed : b.verdictOverRange;
 	const rank = VERDICT_RANK[vb ?? 'unchecked'] - VERDICT_RANK[va ?? 'unchecked'];
 	if (rank !== 0) return rank;
-	const sa = at === 'speed' ? (a.marginAtSpeedPct ?? Infinity) - (a.requiredAtSpeedPct ?? 0) : a.marginOverRangePct - a.requiredOverRangePct;
-	const sb = at === 'speed' ? (b.marginAtSpeedPct ?? Infinity) - (b.requiredAtSpeedPct ?? 0) : b.marginOverRangePct - b.requiredOverRangePct;
+	const sa =
+		at === 'speed'
+			? (a.marginAtSpeedPct ?? Infinity) - (a.requiredAtSpeedPct ?? 0)
+			: a.marginOverRangePct - a.requiredOverRangePct;
+	const sb =
+		at === 'speed'
+			? (b.marginAtSpeedPct ?? Infinity) - (b.requiredAtSpeedPct ?? 0)
+			: b.marginOverRangePct - b.requiredOverRangePct;
 	return sa - sb;
 }
 
@@ -230,10 +285,22 @@ export interface EvaluateOptions {
 	pairs?: boolean;
 }
 
-type RequiredFn = (af: number | null, position: Position | 'inside', kind: ExcitationKind) => number;
+type RequiredFn = (
+	af: number | null,
+	position: Position | 'inside',
+	kind: ExcitationKind
+) => number;
 
 /** One pair, from validated inputs. */
-function pairOf(line: ExcitationLine, band: [number, number], fe: number | null, fn: number, af: number | null, modeIndex: number, required: RequiredFn): PairResult {
+function pairOf(
+	line: ExcitationLine,
+	band: [number, number],
+	fe: number | null,
+	fn: number,
+	af: number | null,
+	modeIndex: number,
+	required: RequiredFn
+): PairResult {
 	const [lo, hi] = band;
 	let smRange = 0;
 	let position: Position | 'inside' = 'inside';
@@ -281,8 +348,20 @@ function validLines(lines: readonly ExcitationLine[]): ExcitationLine[] {
 	if (!Array.isArray(lines)) throw new VibrationInputError('lines', 'a list', lines);
 	for (let i = 0; i < lines.length; i++) {
 		const l = lines[i];
-		const ok = l && typeof l.id === 'string' && ((typeof l.order === 'number' && l.order > 0 && l.order < Infinity && l.fixedHz === null) || (l.order === null && typeof l.fixedHz === 'number' && l.fixedHz > 0 && l.fixedHz < Infinity));
-		if (!ok) throw new VibrationInputError(`lines[${i}]`, 'an excitation line with either a positive order or a positive fixed frequency', l);
+		const ok =
+			l &&
+			typeof l.id === 'string' &&
+			((typeof l.order === 'number' && l.order > 0 && l.order < Infinity && l.fixedHz === null) ||
+				(l.order === null &&
+					typeof l.fixedHz === 'number' &&
+					l.fixedHz > 0 &&
+					l.fixedHz < Infinity));
+		if (!ok)
+			throw new VibrationInputError(
+				`lines[${i}]`,
+				'an excitation line with either a positive order or a positive fixed frequency',
+				l
+			);
 	}
 	return lines as ExcitationLine[];
 }
@@ -294,10 +373,16 @@ function validLines(lines: readonly ExcitationLine[]): ExcitationLine[] {
 export function evaluateCheck(input: CheckInput, options: EvaluateOptions = {}): CheckResult {
 	object('check', input);
 	const range = validateSpeedRange(input.speedRange);
-	const measured = input.measuredRpm === null || input.measuredRpm === undefined ? null : atLeast('measuredRpm', input.measuredRpm, MIN_MEASURED_RPM, 'rpm');
+	const measured =
+		input.measuredRpm === null || input.measuredRpm === undefined
+			? null
+			: atLeast('measuredRpm', input.measuredRpm, MIN_MEASURED_RPM, 'rpm');
 	if (!Array.isArray(input.modes)) throw new VibrationInputError('modes', 'a list', input.modes);
 	const lines = input.lines ? validLines(input.lines) : excitationCatalogue(input.sources);
-	const envelope = measured === null ? range : { minRpm: Math.min(range.minRpm, measured), maxRpm: Math.max(range.maxRpm, measured) };
+	const envelope =
+		measured === null
+			? range
+			: { minRpm: Math.min(range.minRpm, measured), maxRpm: Math.max(range.maxRpm, measured) };
 	const n = input.modes.length;
 	const fns = new Float64Array(n);
 	const afs: (number | null)[] = new Array(n);
@@ -306,7 +391,8 @@ export function evaluateCheck(input: CheckInput, options: EvaluateOptions = {}):
 		object(`modes[${i}]`, m);
 		fns[i] = positive(`modes[${i}].frequencyHz`, m.frequencyHz);
 		const z = m.dampingRatio;
-		afs[i] = z === null || z === undefined ? null : 1 / (2 * positive(`modes[${i}].dampingRatio`, z));
+		afs[i] =
+			z === null || z === undefined ? null : 1 / (2 * positive(`modes[${i}].dampingRatio`, z));
 	}
 	const required = compileRule(input.rule);
 	const detail = options.pairs !== false;
@@ -327,7 +413,8 @@ export function evaluateCheck(input: CheckInput, options: EvaluateOptions = {}):
 	for (let l = 0; l < lines.length; l++) {
 		const line = lines[l];
 		const kind = line.kind;
-		if (!ALLOWED_KINDS.includes(kind)) throw new VibrationInputError('excitation kind', EXCITATION_KINDS.join(', '), kind);
+		if (!ALLOWED_KINDS.includes(kind))
+			throw new VibrationInputError('excitation kind', EXCITATION_KINDS.join(', '), kind);
 		const band = (bands[l] = lineBandHz(line, envelope.minRpm, envelope.maxRpm));
 		const fe = (fes[l] = measured === null ? null : lineFrequencyHz(line, measured));
 		const lo = band[0];
@@ -383,7 +470,8 @@ export function evaluateCheck(input: CheckInput, options: EvaluateOptions = {}):
 	}
 	const verdict: AssetVerdict = rank === 0 ? 'unchecked' : RANKED[rank];
 	const verdictAtSpeed: AssetVerdict = rankAtSpeed === 0 ? 'unchecked' : RANKED[rankAtSpeed];
-	const build = ([l, i]: [number, number]) => (l < 0 ? null : pairOf(lines[l], bands[l], fes[l], fns[i], afs[i], i, required));
+	const build = ([l, i]: [number, number]) =>
+		l < 0 ? null : pairOf(lines[l], bands[l], fes[l], fns[i], afs[i], i, required);
 	return {
 		convention: MARGIN_CONVENTION,
 		envelope,

@@ -54,7 +54,10 @@ describe('oscillator from mass, stiffness, damping', () => {
 	});
 
 	it('gives δ = 0.31455 for ζ = 0.05 (domain.md E9 [C])', () => {
-		expect(oscillatorFromModal({ omega0: 1, dampingRatio: 0.05 }).logDecrement).toBeCloseTo(0.31455, 5);
+		expect(oscillatorFromModal({ omega0: 1, dampingRatio: 0.05 }).logDecrement).toBeCloseTo(
+			0.31455,
+			5
+		);
 	});
 
 	it('names each regime by ζ', () => {
@@ -65,7 +68,10 @@ describe('oscillator from mass, stiffness, damping', () => {
 		expect(regimeOf(2)).toBe('overdamped');
 		const crit = oscillator({ mass: 1, stiffness: 4, damping: 4 });
 		expect(crit.regime).toBe('critical');
-		expect(crit.roots).toEqual([{ re: -2, im: 0 }, { re: -2, im: 0 }]);
+		expect(crit.roots).toEqual([
+			{ re: -2, im: 0 },
+			{ re: -2, im: 0 }
+		]);
 		expect(crit.dampedFrequencyHz).toBeNull();
 		expect(crit.logDecrement).toBeNull();
 		expect(peakResponseFrequencyHz(10, 0.8)).toBeNull();
@@ -85,7 +91,14 @@ describe('oscillator from mass, stiffness, damping', () => {
 		// square root of its own tolerance, so that case is held to 1e-5 instead of 1e-6.
 		// Fixed starting guesses keep the run deterministic (the package starts at random otherwise).
 		const w = Math.sqrt(k / m);
-		const [re, im] = findRoots([k, c, m], null, 2000, 1e-20, [0.4 * w, -0.7 * w], [0.9 * w, -0.2 * w]);
+		const [re, im] = findRoots(
+			[k, c, m],
+			null,
+			2000,
+			1e-20,
+			[0.4 * w, -0.7 * w],
+			[0.9 * w, -0.2 * w]
+		);
 		const tol = o.regime === 'critical' ? 1e-5 : 1e-6;
 		type C = { re: number; im: number };
 		const order = (a: C, b: C) => (Math.abs(b.im - a.im) > 1e-9 * w ? b.im - a.im : b.re - a.re);
@@ -101,8 +114,12 @@ describe('oscillator from mass, stiffness, damping', () => {
 	it('rejects bad input with a typed error naming the parameter', () => {
 		expect(() => oscillator({ mass: -1, stiffness: 10 })).toThrow(VibrationInputError);
 		expect(() => oscillator({ mass: -1, stiffness: 10 })).toThrow(/mass must be greater than zero/);
-		expect(() => oscillator({ mass: 1, stiffness: NaN })).toThrow(/stiffness must be a finite number \(got NaN\)/);
-		expect(() => oscillator({ mass: 1, stiffness: 1, damping: -2 })).toThrow(/damping must be zero or more/);
+		expect(() => oscillator({ mass: 1, stiffness: NaN })).toThrow(
+			/stiffness must be a finite number \(got NaN\)/
+		);
+		expect(() => oscillator({ mass: 1, stiffness: 1, damping: -2 })).toThrow(
+			/damping must be zero or more/
+		);
 		expect(() => oscillator(null as never)).toThrow(VibrationInputError);
 		expect(() => oscillatorFromModal({ omega0: Infinity, dampingRatio: 0.1 })).toThrow(/omega0/);
 		try {
@@ -115,12 +132,24 @@ describe('oscillator from mass, stiffness, damping', () => {
 });
 
 /** Integrates x'' + 2ζω x' + ω² x = (F/m) sin(Ωt) with ODEX to time T. */
-function integrate(omega: number, zeta: number, x0: number, v0: number, T: number, forcing?: { fm: number; Omega: number }) {
+function integrate(
+	omega: number,
+	zeta: number,
+	x0: number,
+	v0: number,
+	T: number,
+	forcing?: { fm: number; Omega: number }
+) {
 	const s = new Solver(2);
 	s.absoluteTolerance = 1e-12;
 	s.relativeTolerance = 1e-12;
 	s.maxSteps = 1e6;
-	const f = (t: number, y: number[]) => [y[1], -2 * zeta * omega * y[1] - omega * omega * y[0] + (forcing ? forcing.fm * Math.sin(forcing.Omega * t) : 0)];
+	const f = (t: number, y: number[]) => [
+		y[1],
+		-2 * zeta * omega * y[1] -
+			omega * omega * y[0] +
+			(forcing ? forcing.fm * Math.sin(forcing.Omega * t) : 0)
+	];
 	return s.solve(f, 0, [x0, v0], T).y;
 }
 
@@ -149,12 +178,18 @@ describe('free response in closed form, against the ODEX integrator', () => {
 		const r = freeResponse(o, { x0: 1, v0: 5 });
 		const wd = 10 * Math.sqrt(1 - 0.01);
 		for (const t of [0, 0.2, 0.9]) {
-			expect(r.displacement(t)).toBeCloseTo((r.amplitude as number) * Math.exp(-t) * Math.cos(wd * t - (r.phase as number)), 12);
+			expect(r.displacement(t)).toBeCloseTo(
+				(r.amplitude as number) * Math.exp(-t) * Math.cos(wd * t - (r.phase as number)),
+				12
+			);
 		}
 		expect(r.timeConstant).toBeCloseTo(1, 12);
 		// the envelope falls to 1 % after ln(100)/σ
 		expect(r.timeToDecay(0.01)).toBeCloseTo(Math.log(100), 12);
-		const crit = freeResponse(oscillatorFromModal({ omega0: 4, dampingRatio: 1 }), { x0: 1, v0: 0 });
+		const crit = freeResponse(oscillatorFromModal({ omega0: 4, dampingRatio: 1 }), {
+			x0: 1,
+			v0: 0
+		});
 		expect(crit.amplitude).toBeNull();
 		expect(crit.decayRate).toBe(4);
 		const und = freeResponse(oscillatorFromModal({ omega0: 4, dampingRatio: 0 }), { x0: 1, v0: 0 });
@@ -200,20 +235,23 @@ describe('forced response', () => {
 		[0.2, 0.9],
 		[0.2, 1.5],
 		[0.7, 3]
-	])('steady-state amplitude and phase (ζ = %s, r = %s) match the integrated ODE under F sin ωt', (z, r) => {
-		const m = 2;
-		const k = m * (2 * Math.PI) ** 2; // ω₀ = 2π rad/s
-		const omega = 2 * Math.PI;
-		const F = 10;
-		const Omega = r * omega;
-		// integrate until the transient has decayed to below e^-30 of its start
-		const T = 30 / (z * omega);
-		const [x, v] = integrate(omega, z, 0, 0, T, { fm: F / m, Omega });
-		const X = Math.hypot(x, v / Omega);
-		const theta = Math.atan2(x, v / Omega); // Ωt − φ
-		let phi = (Omega * T - theta) % (2 * Math.PI);
-		if (phi < 0) phi += 2 * Math.PI;
-		expect(rel(X, steadyStateAmplitude(F, k, r, z))).toBeLessThan(1e-6);
-		expect(Math.abs(phi - phaseLag(r, z))).toBeLessThan(1e-6);
-	});
+	])(
+		'steady-state amplitude and phase (ζ = %s, r = %s) match the integrated ODE under F sin ωt',
+		(z, r) => {
+			const m = 2;
+			const k = m * (2 * Math.PI) ** 2; // ω₀ = 2π rad/s
+			const omega = 2 * Math.PI;
+			const F = 10;
+			const Omega = r * omega;
+			// integrate until the transient has decayed to below e^-30 of its start
+			const T = 30 / (z * omega);
+			const [x, v] = integrate(omega, z, 0, 0, T, { fm: F / m, Omega });
+			const X = Math.hypot(x, v / Omega);
+			const theta = Math.atan2(x, v / Omega); // Ωt − φ
+			let phi = (Omega * T - theta) % (2 * Math.PI);
+			if (phi < 0) phi += 2 * Math.PI;
+			expect(rel(X, steadyStateAmplitude(F, k, r, z))).toBeLessThan(1e-6);
+			expect(Math.abs(phi - phaseLag(r, z))).toBeLessThan(1e-6);
+		}
+	);
 });

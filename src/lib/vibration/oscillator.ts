@@ -38,8 +38,13 @@ export const CRITICAL_TOLERANCE = 1e-9;
 export const UNDAMPED_TOLERANCE = 1e-12;
 
 /** Oscillator from mass (kg), stiffness (N/m) and viscous damping (N·s/m). */
-export function oscillator(input: { mass: number; stiffness: number; damping?: number }): Oscillator {
-	if (typeof input !== 'object' || input === null) throw new VibrationInputError('oscillator input', 'an object', input);
+export function oscillator(input: {
+	mass: number;
+	stiffness: number;
+	damping?: number;
+}): Oscillator {
+	if (typeof input !== 'object' || input === null)
+		throw new VibrationInputError('oscillator input', 'an object', input);
 	const m = positive('mass', input.mass);
 	const k = positive('stiffness', input.stiffness);
 	const c = nonNegative('damping', input.damping ?? 0);
@@ -58,22 +63,43 @@ export function oscillatorFromModal(input: { omega0: number; dampingRatio: numbe
 	let qFactor: number | null = null;
 	let logDecrement: number | null = null;
 	if (regime === 'undamped') {
-		roots = [{ re: 0, im: w }, { re: 0, im: -w }];
+		roots = [
+			{ re: 0, im: w },
+			{ re: 0, im: -w }
+		];
 		dampedFrequencyHz = w / (2 * Math.PI);
 		logDecrement = 0;
 	} else if (regime === 'underdamped') {
 		const wd = w * Math.sqrt(1 - z * z);
-		roots = [{ re: a, im: wd }, { re: a, im: -wd }];
+		roots = [
+			{ re: a, im: wd },
+			{ re: a, im: -wd }
+		];
 		dampedFrequencyHz = wd / (2 * Math.PI);
 		qFactor = 1 / (2 * z);
 		logDecrement = (2 * Math.PI * z) / Math.sqrt(1 - z * z);
 	} else if (regime === 'critical') {
-		roots = [{ re: -w, im: 0 }, { re: -w, im: 0 }];
+		roots = [
+			{ re: -w, im: 0 },
+			{ re: -w, im: 0 }
+		];
 	} else {
 		const s = w * Math.sqrt(z * z - 1);
-		roots = [{ re: a + s, im: 0 }, { re: a - s, im: 0 }];
+		roots = [
+			{ re: a + s, im: 0 },
+			{ re: a - s, im: 0 }
+		];
 	}
-	return { omega0: w, naturalFrequencyHz: w / (2 * Math.PI), dampingRatio: z, regime, roots, dampedFrequencyHz, qFactor, logDecrement };
+	return {
+		omega0: w,
+		naturalFrequencyHz: w / (2 * Math.PI),
+		dampingRatio: z,
+		regime,
+		roots,
+		dampedFrequencyHz,
+		qFactor,
+		logDecrement
+	};
 }
 
 export function regimeOf(dampingRatio: number): Regime {
@@ -161,7 +187,8 @@ export function freeResponse(osc: Oscillator, initial: { x0: number; v0: number 
 		timeConstant: decayRate > 0 ? 1 / decayRate : null,
 		timeToDecay(fraction: number) {
 			const f = finite('fraction', fraction);
-			if (f <= 0 || f >= 1) throw new VibrationInputError('fraction', 'between 0 and 1 (exclusive)', fraction);
+			if (f <= 0 || f >= 1)
+				throw new VibrationInputError('fraction', 'between 0 and 1 (exclusive)', fraction);
 			return decayRate > 0 ? -Math.log(f) / decayRate : null;
 		}
 	};
@@ -175,7 +202,12 @@ export function magnification(frequencyRatio: number, dampingRatio: number): num
 	const r = nonNegative('frequencyRatio', frequencyRatio);
 	const z = nonNegative('dampingRatio', dampingRatio);
 	const d = Math.hypot(1 - r * r, 2 * z * r);
-	if (d === 0) throw new VibrationInputError('frequencyRatio', 'other than 1 when dampingRatio is 0 (the response is unbounded)', r);
+	if (d === 0)
+		throw new VibrationInputError(
+			'frequencyRatio',
+			'other than 1 when dampingRatio is 0 (the response is unbounded)',
+			r
+		);
 	return 1 / d;
 }
 
@@ -191,7 +223,12 @@ export function transmissibility(frequencyRatio: number, dampingRatio: number): 
 	const r = nonNegative('frequencyRatio', frequencyRatio);
 	const z = nonNegative('dampingRatio', dampingRatio);
 	const d = Math.hypot(1 - r * r, 2 * z * r);
-	if (d === 0) throw new VibrationInputError('frequencyRatio', 'other than 1 when dampingRatio is 0 (the response is unbounded)', r);
+	if (d === 0)
+		throw new VibrationInputError(
+			'frequencyRatio',
+			'other than 1 when dampingRatio is 0 (the response is unbounded)',
+			r
+		);
 	return Math.hypot(1, 2 * z * r) / d;
 }
 
@@ -204,7 +241,10 @@ export function isolationEfficiencyPct(frequencyRatio: number, dampingRatio: num
  * Frequency of the peak forced displacement response, f₀√(1 − 2ζ²) (F7), in Hz; null for
  * ζ ≥ 1/√2, where the response falls monotonically from r = 0 and has no resonant peak.
  */
-export function peakResponseFrequencyHz(naturalFrequencyHz: number, dampingRatio: number): number | null {
+export function peakResponseFrequencyHz(
+	naturalFrequencyHz: number,
+	dampingRatio: number
+): number | null {
 	const f = positive('naturalFrequencyHz', naturalFrequencyHz);
 	const z = nonNegative('dampingRatio', dampingRatio);
 	const q = 1 - 2 * z * z;
@@ -222,7 +262,12 @@ export function peakMagnification(dampingRatio: number): number | null {
  * Steady-state response to F sin ωt: x(t) = X sin(ωt − φ), X = (F/k)·DMF. Amplitude in m for F in N,
  * k in N/m.
  */
-export function steadyStateAmplitude(forceAmplitude: number, stiffness: number, frequencyRatio: number, dampingRatio: number): number {
+export function steadyStateAmplitude(
+	forceAmplitude: number,
+	stiffness: number,
+	frequencyRatio: number,
+	dampingRatio: number
+): number {
 	const f = nonNegative('forceAmplitude', forceAmplitude);
 	const k = positive('stiffness', stiffness);
 	return (f / k) * magnification(frequencyRatio, dampingRatio);

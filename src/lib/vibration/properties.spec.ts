@@ -23,7 +23,10 @@ const zeta = fc.double({ min: 1e-4, max: 5, noNaN: true });
 const hz = fc.double({ min: 0.1, max: 5000, noNaN: true });
 
 const rule: fc.Arbitrary<MarginRule> = fc.oneof(
-	fc.record({ kind: fc.constant('fixed' as const), percent: fc.double({ min: 0, max: 60, noNaN: true }) }),
+	fc.record({
+		kind: fc.constant('fixed' as const),
+		percent: fc.double({ min: 0, max: 60, noNaN: true })
+	}),
 	fc.constant({ kind: 'amplification' as const })
 );
 
@@ -32,9 +35,18 @@ const check: fc.Arbitrary<CheckInput> = fc
 		min: fc.double({ min: 0, max: 3000, noNaN: true }),
 		span: fc.double({ min: 1, max: 3000, noNaN: true }),
 		at: fc.double({ min: 0, max: 1, noNaN: true }),
-		orders: fc.array(fc.double({ min: 0.25, max: 40, noNaN: true }), { minLength: 1, maxLength: 4 }),
+		orders: fc.array(fc.double({ min: 0.25, max: 40, noNaN: true }), {
+			minLength: 1,
+			maxLength: 4
+		}),
 		fixed: fc.option(fc.double({ min: 1, max: 500, noNaN: true }), { nil: undefined }),
-		modes: fc.array(fc.record({ frequencyHz: hz, dampingRatio: fc.option(fc.double({ min: 0.001, max: 0.5, noNaN: true }), { nil: null }) }), { maxLength: 4 }),
+		modes: fc.array(
+			fc.record({
+				frequencyHz: hz,
+				dampingRatio: fc.option(fc.double({ min: 0.001, max: 0.5, noNaN: true }), { nil: null })
+			}),
+			{ maxLength: 4 }
+		),
 		rule
 	})
 	.map(({ min, span, at, orders, fixed, modes, rule }) => ({
@@ -57,7 +69,12 @@ function allFinite(value: unknown): boolean {
 
 describe('invariants (fast-check)', () => {
 	it('T(√2, ζ) = 1 for every ζ (domain.md F9 [S])', () => {
-		fc.assert(fc.property(fc.double({ min: 0, max: 10, noNaN: true }), (z) => Math.abs(transmissibility(Math.SQRT2, z) - 1) < 1e-12));
+		fc.assert(
+			fc.property(
+				fc.double({ min: 0, max: 10, noNaN: true }),
+				(z) => Math.abs(transmissibility(Math.SQRT2, z) - 1) < 1e-12
+			)
+		);
 		expect(transmissibility(Math.SQRT2, 0.3)).toBeCloseTo(1, 12);
 	});
 
@@ -75,12 +92,28 @@ describe('invariants (fast-check)', () => {
 				fc.double({ min: 0, max: 45, noNaN: true }),
 				fc.double({ min: 0.1, max: 200, noNaN: true }),
 				(n, d, ratio, phi, fr) => {
-					const f = bearingDefectFrequencies({ rollingElements: n, elementDiameter: d, pitchDiameter: d / ratio, contactAngleDeg: phi }, fr);
-					return Math.abs(f.bpfo + f.bpfi - n * fr) < 1e-9 * n * fr && Math.abs(f.bpfo - n * f.ftf) < 1e-9 * n * fr;
+					const f = bearingDefectFrequencies(
+						{
+							rollingElements: n,
+							elementDiameter: d,
+							pitchDiameter: d / ratio,
+							contactAngleDeg: phi
+						},
+						fr
+					);
+					return (
+						Math.abs(f.bpfo + f.bpfi - n * fr) < 1e-9 * n * fr &&
+						Math.abs(f.bpfo - n * f.ftf) < 1e-9 * n * fr
+					);
 				}
 			)
 		);
-		expect(bearingDefectFrequencies({ rollingElements: 8, elementDiameter: 10, pitchDiameter: 50, contactAngleDeg: 0 }, 30).bpfo).toBeCloseTo(96, 10);
+		expect(
+			bearingDefectFrequencies(
+				{ rollingElements: 8, elementDiameter: 10, pitchDiameter: 50, contactAngleDeg: 0 },
+				30
+			).bpfo
+		).toBeCloseTo(96, 10);
 	});
 
 	it('margins do not depend on the unit (Hz or CPM) and |Δf| is symmetric between the two conventions', () => {
@@ -88,7 +121,10 @@ describe('invariants (fast-check)', () => {
 			fc.property(hz, hz, (a, b) => {
 				const sm = separationMarginPct(a, b);
 				const smCpm = separationMarginPct(a * 60, b * 60);
-				return Math.abs(sm - smCpm) <= 1e-9 * Math.max(1, sm) && Math.abs(sm * b - separationMarginPct(b, a) * a) <= 1e-9 * Math.max(sm * b, 1);
+				return (
+					Math.abs(sm - smCpm) <= 1e-9 * Math.max(1, sm) &&
+					Math.abs(sm * b - separationMarginPct(b, a) * a) <= 1e-9 * Math.max(sm * b, 1)
+				);
 			})
 		);
 		expect(separationMarginPct(24, 29.6) * 29.6).toBeCloseTo(separationMarginPct(29.6, 24) * 24, 9);
@@ -96,22 +132,38 @@ describe('invariants (fast-check)', () => {
 
 	it('every speed where a pair is short of its margin lies inside an avoidance band, and no clear speed does', () => {
 		fc.assert(
-			fc.property(check, fc.array(fc.double({ min: 0, max: 1, noNaN: true }), { minLength: 5, maxLength: 5 }), (input, ts) => {
-				const plan = avoidanceBands(input);
-				const lines = excitationLines(input.sources[0]);
-				for (const t of ts) {
-					const rpm = input.speedRange.minRpm + t * (input.speedRange.maxRpm - input.speedRange.minRpm);
-					if (rpm < 0.001) continue; // below the engine's floor for a speed
-					const inBand = plan.bands.some((b) => rpm >= b.lowRpm && rpm <= b.highRpm);
-					const nearEdge = plan.bands.some((b) => Math.abs(rpm - b.lowRpm) < 1e-7 * rpm || Math.abs(rpm - b.highRpm) < 1e-7 * rpm);
-					if (nearEdge) continue;
-					const short = input.modes.some((m) =>
-						lines.some((line) => pairVerdictAtRpm(m.frequencyHz, line, rpm, input.rule, m.dampingRatio ? 1 / (2 * m.dampingRatio) : null) !== 'clear')
-					);
-					if (short !== inBand) return false;
+			fc.property(
+				check,
+				fc.array(fc.double({ min: 0, max: 1, noNaN: true }), { minLength: 5, maxLength: 5 }),
+				(input, ts) => {
+					const plan = avoidanceBands(input);
+					const lines = excitationLines(input.sources[0]);
+					for (const t of ts) {
+						const rpm =
+							input.speedRange.minRpm + t * (input.speedRange.maxRpm - input.speedRange.minRpm);
+						if (rpm < 0.001) continue; // below the engine's floor for a speed
+						const inBand = plan.bands.some((b) => rpm >= b.lowRpm && rpm <= b.highRpm);
+						const nearEdge = plan.bands.some(
+							(b) => Math.abs(rpm - b.lowRpm) < 1e-7 * rpm || Math.abs(rpm - b.highRpm) < 1e-7 * rpm
+						);
+						if (nearEdge) continue;
+						const short = input.modes.some((m) =>
+							lines.some(
+								(line) =>
+									pairVerdictAtRpm(
+										m.frequencyHz,
+										line,
+										rpm,
+										input.rule,
+										m.dampingRatio ? 1 / (2 * m.dampingRatio) : null
+									) !== 'clear'
+							)
+						);
+						if (short !== inBand) return false;
+					}
+					return true;
 				}
-				return true;
-			}),
+			),
 			{ numRuns: 300 }
 		);
 		expect(true).toBe(true);
@@ -123,20 +175,39 @@ describe('invariants (fast-check)', () => {
 				const r = evaluateCheck(input);
 				const bands = avoidanceBands(input, { poles: 4, motorRpmPerShaftRpm: 1.5 });
 				const remedies = modeRemedies(input);
-				return allFinite(r.pairs) && allFinite(bands.bands) && allFinite(remedies) && r.pairs.length === input.modes.length * r.lines.length;
+				return (
+					allFinite(r.pairs) &&
+					allFinite(bands.bands) &&
+					allFinite(remedies) &&
+					r.pairs.length === input.modes.length * r.lines.length
+				);
 			}),
 			{ numRuns: 300 }
 		);
-		expect(evaluateCheck({ speedRange: { minRpm: 0, maxRpm: 10 }, measuredRpm: 5, sources: [], modes: [], rule: { kind: 'fixed', percent: 10 } }).pairs).toEqual([]);
+		expect(
+			evaluateCheck({
+				speedRange: { minRpm: 0, maxRpm: 10 },
+				measuredRpm: 5,
+				sources: [],
+				modes: [],
+				rule: { kind: 'fixed', percent: 10 }
+			}).pairs
+		).toEqual([]);
 	});
 
 	it('the fleet path (no pair table, catalogue built once) gives the same verdicts and worst pairs as the full table', () => {
 		fc.assert(
 			fc.property(check, (input) => {
 				const full = evaluateCheck(input);
-				const fast = evaluateCheck({ ...input, lines: excitationCatalogue(input.sources) }, { pairs: false });
+				const fast = evaluateCheck(
+					{ ...input, lines: excitationCatalogue(input.sources) },
+					{ pairs: false }
+				);
 				const worst = [...full.pairs].sort((a, b) => comparePairs(a, b, 'range'))[0] ?? null;
-				const worstAt = [...full.pairs].filter((p) => p.verdictAtSpeed !== null).sort((a, b) => comparePairs(a, b, 'speed'))[0] ?? null;
+				const worstAt =
+					[...full.pairs]
+						.filter((p) => p.verdictAtSpeed !== null)
+						.sort((a, b) => comparePairs(a, b, 'speed'))[0] ?? null;
 				return (
 					fast.pairs.length === 0 &&
 					fast.verdict === full.verdict &&
@@ -148,7 +219,16 @@ describe('invariants (fast-check)', () => {
 			}),
 			{ numRuns: 300 }
 		);
-		expect(() => evaluateCheck({ speedRange: { minRpm: 1, maxRpm: 2 }, measuredRpm: 1, sources: [], lines: [{ id: 'x', sourceId: 'x', kind: 'shaft', label: 'x', order: -1, fixedHz: null }], modes: [], rule: { kind: 'fixed', percent: 10 } })).toThrow(/lines\[0\]/);
+		expect(() =>
+			evaluateCheck({
+				speedRange: { minRpm: 1, maxRpm: 2 },
+				measuredRpm: 1,
+				sources: [],
+				lines: [{ id: 'x', sourceId: 'x', kind: 'shaft', label: 'x', order: -1, fixedHz: null }],
+				modes: [],
+				rule: { kind: 'fixed', percent: 10 }
+			})
+		).toThrow(/lines\[0\]/);
 	});
 
 	it('the oscillator and its free response stay finite for every valid m, k, c and time', () => {
@@ -161,7 +241,9 @@ describe('invariants (fast-check)', () => {
 				(m, k, c, t) => {
 					const o = oscillator({ mass: m, stiffness: k, damping: c });
 					const r = freeResponse(o, { x0: 0.001, v0: 0.01 });
-					return allFinite(o) && Number.isFinite(r.displacement(t)) && Number.isFinite(r.velocity(t));
+					return (
+						allFinite(o) && Number.isFinite(r.displacement(t)) && Number.isFinite(r.velocity(t))
+					);
 				}
 			)
 		);

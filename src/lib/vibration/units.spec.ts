@@ -12,7 +12,8 @@ describe('units', () => {
 		expect(u.radPerSToHz(2 * Math.PI)).toBeCloseTo(1, 12);
 		expect(u.rpmToHz(1800)).toBe(30);
 		expect(u.hzToRpm(30)).toBe(1800);
-		for (const unit of ['Hz', 'CPM', 'rad/s'] as const) expect(u.frequencyToHz(u.frequencyFromHz(12.5, unit), unit)).toBeCloseTo(12.5, 12);
+		for (const unit of ['Hz', 'CPM', 'rad/s'] as const)
+			expect(u.frequencyToHz(u.frequencyFromHz(12.5, unit), unit)).toBeCloseTo(12.5, 12);
 	});
 
 	it('matches NIST SP 811 for length, mass, stiffness and velocity', () => {
@@ -34,8 +35,20 @@ describe('units', () => {
 		expect(u.unitLabel('smallLength', 'metric')).toBe('mm');
 		expect(u.toSi(6, 'smallLength', 'metric')).toBeCloseTo(0.006, 12);
 		expect(u.toSi(1, 'modulus', 'us')).toBeCloseTo(6894.757, 3); // 1 psi in Pa (NIST SP 811)
-		const qs: u.Quantity[] = ['length', 'smallLength', 'mass', 'stiffness', 'velocity', 'modulus', 'inertia', 'torsionalStiffness', 'secondMoment'];
-		for (const q of qs) for (const sys of ['metric', 'us'] as const) expect(u.fromSi(u.toSi(3.7, q, sys), q, sys)).toBeCloseTo(3.7, 9);
+		const qs: u.Quantity[] = [
+			'length',
+			'smallLength',
+			'mass',
+			'stiffness',
+			'velocity',
+			'modulus',
+			'inertia',
+			'torsionalStiffness',
+			'secondMoment'
+		];
+		for (const q of qs)
+			for (const sys of ['metric', 'us'] as const)
+				expect(u.fromSi(u.toSi(3.7, q, sys), q, sys)).toBeCloseTo(3.7, 9);
 		expect(() => u.toSi(NaN, 'mass', 'us')).toThrow(VibrationInputError);
 		expect(() => u.hzToCpm(Infinity)).toThrow(/frequency \(Hz\) must be a finite number/);
 	});

@@ -5,5 +5,8 @@ import { requireUser } from '$lib/server/guard';
 /** Everything under (app) needs a signed-in user; each page checks its own role as well. */
 export const load: LayoutServerLoad = (event) => {
 	const user = requireUser(event);
-	return { user: { name: user.name, email: user.email, role: user.role, unitSystem: user.unitSystem }, nav: navFor(user.role) };
+	return {
+		user: { name: user.name, email: user.email, role: user.role, unitSystem: user.unitSystem },
+		nav: navFor(user.role)
+	};
 };

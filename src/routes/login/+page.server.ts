@@ -8,7 +8,8 @@ import { fieldErrors } from '$lib/schemas/form';
 
 /** Only same-site paths may follow sign-in: never an absolute or protocol-relative URL. */
 function safeNext(next: string | null): string | null {
-	if (!next || !next.startsWith('/') || next.startsWith('//') || next.startsWith('/\\')) return null;
+	if (!next || !next.startsWith('/') || next.startsWith('//') || next.startsWith('/\\'))
+		return null;
 	return next;
 }
 
@@ -25,9 +26,15 @@ export const actions: Actions = {
 		const raw = { email: form.get('email'), password: form.get('password') };
 		const parsed = signInForm.safeParse(raw);
 		const email = typeof raw.email === 'string' ? raw.email.slice(0, 254) : '';
-		if (!parsed.success) return fail(400, { email, errors: fieldErrors(parsed.error), message: null });
+		if (!parsed.success)
+			return fail(400, { email, errors: fieldErrors(parsed.error), message: null });
 		const result = await signIn(parsed.data.email, parsed.data.password, event.getClientAddress());
-		if (!result.ok) return fail(result.retryAfterS ? 429 : 400, { email, errors: {} as Record<string, string>, message: result.message });
+		if (!result.ok)
+			return fail(result.retryAfterS ? 429 : 400, {
+				email,
+				errors: {} as Record<string, string>,
+				message: result.message
+			});
 		const cookie = await createSession(result.userId);
 		event.cookies.set(cookie.name, cookie.value, { path: '/', ...cookie.attributes });
 		redirect(303, safeNext(String(form.get('next') ?? '')) ?? homeFor(result.role));

@@ -34,13 +34,25 @@ export const lucia = new Lucia(new DrizzleSQLiteAdapter(db, sessions, users), {
 		name: 'detune_session',
 		attributes: { secure: secureCookies(), sameSite: 'lax' }
 	},
-	getUserAttributes: (a) => ({ email: a.email, name: a.name, role: a.role, disabled: a.disabled, unitSystem: a.unitSystem })
+	getUserAttributes: (a) => ({
+		email: a.email,
+		name: a.name,
+		role: a.role,
+		disabled: a.disabled,
+		unitSystem: a.unitSystem
+	})
 });
 
 declare module 'lucia' {
 	interface Register {
 		Lucia: typeof lucia;
-		DatabaseUserAttributes: { email: string; name: string; role: Role; disabled: boolean; unitSystem: 'metric' | 'us' };
+		DatabaseUserAttributes: {
+			email: string;
+			name: string;
+			role: Role;
+			disabled: boolean;
+			unitSystem: 'metric' | 'us';
+		};
 	}
 }
 
@@ -61,16 +73,26 @@ export async function createSession(userId: string): Promise<CookieToSet> {
 }
 
 /** Validates a session id; returns a refreshed cookie when lucia extended the session. */
-export async function validateSession(sessionId: string): Promise<{ user: SessionUser | null; session: Session | null; cookie: CookieToSet | null }> {
+export async function validateSession(
+	sessionId: string
+): Promise<{ user: SessionUser | null; session: Session | null; cookie: CookieToSet | null }> {
 	const { session, user } = await lucia.validateSession(sessionId);
 	if (!session || !user) {
 		const blank = lucia.createBlankSessionCookie();
-		return { user: null, session: null, cookie: { name: blank.name, value: blank.value, attributes: blank.attributes } };
+		return {
+			user: null,
+			session: null,
+			cookie: { name: blank.name, value: blank.value, attributes: blank.attributes }
+		};
 	}
 	if (user.disabled) {
 		await lucia.invalidateSession(session.id);
 		const blank = lucia.createBlankSessionCookie();
-		return { user: null, session: null, cookie: { name: blank.name, value: blank.value, attributes: blank.attributes } };
+		return {
+			user: null,
+			session: null,
+			cookie: { name: blank.name, value: blank.value, attributes: blank.attributes }
+		};
 	}
 	if (session.fresh) {
 		const c = lucia.createSessionCookie(session.id);
@@ -92,18 +114,30 @@ export async function endAllSessions(userId: string): Promise<void> {
 /** The one message for a wrong e-mail or password: it never says which. */
 export const SIGN_IN_FAILED = 'That e-mail and password do not match an active account.';
 
-export type SignInResult = { ok: true; userId: string; role: Role } | { ok: false; message: string; retryAfterS?: number };
+export type SignInResult =
+	{ ok: true; userId: string; role: Role } | { ok: false; message: string; retryAfterS?: number };
 
 /**
  * Checks a sign-in attempt against both throttles, then the password. Unknown address, wrong
  * password and disabled account all get the same message and take the same time.
  */
-export async function signIn(email: string, password: string, clientAddress: string): Promise<SignInResult> {
+export async function signIn(
+	email: string,
+	password: string,
+	clientAddress: string
+): Promise<SignInResult> {
 	const accountKey = email.trim().toLowerCase();
-	const wait = Math.max(accountThrottle.retryAfterMs(accountKey), addressThrottle.retryAfterMs(clientAddress));
+	const wait = Math.max(
+		accountThrottle.retryAfterMs(accountKey),
+		addressThrottle.retryAfterMs(clientAddress)
+	);
 	if (wait > 0) {
 		const minutes = Math.ceil(wait / 60_000);
-		return { ok: false, message: `Too many sign-in attempts. Wait ${minutes} minute${minutes === 1 ? '' : 's'} and try again.`, retryAfterS: Math.ceil(wait / 1000) };
+		return {
+			ok: false,
+			message: `Too many sign-in attempts. Wait ${minutes} minute${minutes === 1 ? '' : 's'} and try again.`,
+			retryAfterS: Math.ceil(wait / 1000)
+		};
 	}
 	// Each attempt counts as a failure before the (slow, asynchronous) password check, so that
 	// attempts arriving together cannot all pass the budget check above; a success takes it back.
@@ -111,7 +145,9 @@ export async function signIn(email: string, password: string, clientAddress: str
 	accountThrottle.fail(accountKey, at);
 	addressThrottle.fail(clientAddress, at);
 	const user = userQueries.byEmail(accountKey);
-	const valid = user ? await verifyPassword(user.passwordHash, password) : (await burnVerification(password), false);
+	const valid = user
+		? await verifyPassword(user.passwordHash, password)
+		: (await burnVerification(password), false);
 	if (!user || !valid || user.disabled) return { ok: false, message: SIGN_IN_FAILED };
 	accountThrottle.reset(accountKey);
 	addressThrottle.release(clientAddress, at);

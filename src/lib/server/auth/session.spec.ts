@@ -9,8 +9,26 @@ let userId: string;
 
 beforeAll(async () => {
 	await freshDatabase();
-	userId = users.create({ email: 'shift@example.com', name: 'Shift Worker', role: 'technician', passwordHash: await hashPassword('night-shift-pass'), siteIds: [] }, null);
-	users.create({ email: 'tablet@example.com', name: 'Shared Tablet', role: 'technician', passwordHash: await hashPassword('tablet-pass-2026'), siteIds: [] }, null);
+	userId = users.create(
+		{
+			email: 'shift@example.com',
+			name: 'Shift Worker',
+			role: 'technician',
+			passwordHash: await hashPassword('night-shift-pass'),
+			siteIds: []
+		},
+		null
+	);
+	users.create(
+		{
+			email: 'tablet@example.com',
+			name: 'Shared Tablet',
+			role: 'technician',
+			passwordHash: await hashPassword('tablet-pass-2026'),
+			siteIds: []
+		},
+		null
+	);
 });
 
 afterEach(() => {
@@ -67,7 +85,10 @@ describe('signing in', () => {
 		const wrong = await signIn('shift@example.com', 'wrong-password', '10.0.0.2');
 		expect(unknown).toEqual({ ok: false, message: SIGN_IN_FAILED });
 		expect(wrong).toEqual({ ok: false, message: SIGN_IN_FAILED });
-		expect(await signIn('Shift@Example.com ', 'night-shift-pass', '10.0.0.3')).toMatchObject({ ok: true, role: 'technician' });
+		expect(await signIn('Shift@Example.com ', 'night-shift-pass', '10.0.0.3')).toMatchObject({
+			ok: true,
+			role: 'technician'
+		});
 	});
 
 	it('throttles an account after five failures, whoever tries, and says how long to wait', async () => {
@@ -78,7 +99,9 @@ describe('signing in', () => {
 	});
 
 	it('holds its budget when many attempts arrive at once (none slips through while a password is being checked)', async () => {
-		const results = await Promise.all(Array.from({ length: 40 }, (_, i) => signIn('shift@example.com', `guess-${i}`, `10.2.0.${i}`)));
+		const results = await Promise.all(
+			Array.from({ length: 40 }, (_, i) => signIn('shift@example.com', `guess-${i}`, `10.2.0.${i}`))
+		);
 		const judged = results.filter((r) => r.ok === false && r.message === SIGN_IN_FAILED);
 		expect(judged).toHaveLength(5);
 		expect(results.filter((r) => r.ok === false && r.retryAfterS !== undefined)).toHaveLength(35);
@@ -89,7 +112,11 @@ describe('signing in', () => {
 	it('gives back the slot a successful sign-in reserved: a shared tablet signs in all shift long', async () => {
 		// 40 sign-ins, up to 5 at once, from one address whose budget is 30
 		for (let round = 0; round < 8; round++) {
-			const ok = await Promise.all(Array.from({ length: 5 }, () => signIn('tablet@example.com', 'tablet-pass-2026', '10.3.0.1')));
+			const ok = await Promise.all(
+				Array.from({ length: 5 }, () =>
+					signIn('tablet@example.com', 'tablet-pass-2026', '10.3.0.1')
+				)
+			);
 			expect(ok.every((r) => r.ok)).toBe(true);
 		}
 	});

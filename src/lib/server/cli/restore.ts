@@ -5,7 +5,9 @@ import { restore } from '../backup.ts';
 
 const from = process.argv[2];
 if (!from) {
-	console.error('Give the backup folder: npm run restore -- backups/<when>   (stop the server first)');
+	console.error(
+		'Give the backup folder: npm run restore -- backups/<when>   (stop the server first)'
+	);
 	process.exit(2);
 }
 const db = process.env.DATABASE_URL || DEFAULT_DATABASE_URL;

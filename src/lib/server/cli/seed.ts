@@ -6,4 +6,6 @@ const { db, sqlite, file } = openDatabase(process.env.DATABASE_URL || DEFAULT_DA
 runMigrations(db);
 const report = await seed(db);
 sqlite.close();
-console.log(`demo data in ${file}: added ${report.sites} sites, ${report.users} users, ${report.assets} assets, ${report.sources} excitation sources, ${report.checks} checks`);
+console.log(
+	`demo data in ${file}: added ${report.sites} sites, ${report.users} users, ${report.assets} assets, ${report.sources} excitation sources, ${report.checks} checks`
+);

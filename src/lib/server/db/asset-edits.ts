@@ -30,66 +30,192 @@ export class UnknownRuleSetError extends Error {
 	}
 }
 
-export function updateAsset(id: string, form: AssetForm, actorId: string, now = Date.now()): boolean {
+export function updateAsset(
+	id: string,
+	form: AssetForm,
+	actorId: string,
+	now = Date.now()
+): boolean {
 	return db.transaction((tx) => {
 		const before = tx.select().from(assets).where(eq(assets.id, id)).get();
 		if (!before) throw new Error('No such asset.');
-		if (form.ruleSetId && !tx.select({ id: ruleSets.id }).from(ruleSets).where(eq(ruleSets.id, form.ruleSetId)).get()) throw new UnknownRuleSetError();
-		const diff = changed(before as unknown as Record<string, unknown>, form as unknown as Record<string, unknown>);
+		if (
+			form.ruleSetId &&
+			!tx.select({ id: ruleSets.id }).from(ruleSets).where(eq(ruleSets.id, form.ruleSetId)).get()
+		)
+			throw new UnknownRuleSetError();
+		const diff = changed(
+			before as unknown as Record<string, unknown>,
+			form as unknown as Record<string, unknown>
+		);
 		if (!diff.any) return false;
-		tx.update(assets).set({ ...form, version: nextVersion(tx), updatedAt: now }).where(eq(assets.id, id)).run();
-		audit.record(tx, { userId: actorId, entity: 'asset', entityId: id, action: 'update', before: diff.before, after: diff.after }, now);
+		tx.update(assets)
+			.set({ ...form, version: nextVersion(tx), updatedAt: now })
+			.where(eq(assets.id, id))
+			.run();
+		audit.record(
+			tx,
+			{
+				userId: actorId,
+				entity: 'asset',
+				entityId: id,
+				action: 'update',
+				before: diff.before,
+				after: diff.after
+			},
+			now
+		);
 		refreshAsset(tx, id, now);
 		return true;
 	});
 }
 
 function touchAsset(tx: Tx, assetId: string, now: number) {
-	tx.update(assets).set({ version: nextVersion(tx), updatedAt: now }).where(eq(assets.id, assetId)).run();
+	tx.update(assets)
+		.set({ version: nextVersion(tx), updatedAt: now })
+		.where(eq(assets.id, assetId))
+		.run();
 }
 
-export function updateSource(assetId: string, sourceId: string, label: string, params: Record<string, unknown>, actorId: string, now = Date.now()): boolean {
+export function updateSource(
+	assetId: string,
+	sourceId: string,
+	label: string,
+	params: Record<string, unknown>,
+	actorId: string,
+	now = Date.now()
+): boolean {
 	return db.transaction((tx) => {
-		const before = tx.select().from(excitationSources).where(and(eq(excitationSources.id, sourceId), eq(excitationSources.assetId, assetId))).get();
+		const before = tx
+			.select()
+			.from(excitationSources)
+			.where(and(eq(excitationSources.id, sourceId), eq(excitationSources.assetId, assetId)))
+			.get();
 		if (!before) throw new Error('No such excitation source on this asset.');
-		const diff = changed({ label: before.label, params: before.params } as Record<string, unknown>, { label, params });
+		const diff = changed(
+			{ label: before.label, params: before.params } as Record<string, unknown>,
+			{ label, params }
+		);
 		if (!diff.any) return false;
-		tx.update(excitationSources).set({ label, params, version: nextVersion(tx), updatedAt: now }).where(eq(excitationSources.id, sourceId)).run();
+		tx.update(excitationSources)
+			.set({ label, params, version: nextVersion(tx), updatedAt: now })
+			.where(eq(excitationSources.id, sourceId))
+			.run();
 		touchAsset(tx, assetId, now);
-		audit.record(tx, { userId: actorId, entity: 'excitation_source', entityId: sourceId, action: `update ${before.kind} on asset`, before: { asset: assetId, ...diff.before }, after: diff.after }, now);
+		audit.record(
+			tx,
+			{
+				userId: actorId,
+				entity: 'excitation_source',
+				entityId: sourceId,
+				action: `update ${before.kind} on asset`,
+				before: { asset: assetId, ...diff.before },
+				after: diff.after
+			},
+			now
+		);
 		refreshAsset(tx, assetId, now);
 		return true;
 	});
 }
 
-export function addSource(assetId: string, kind: string, label: string, params: Record<string, unknown>, actorId: string, now = Date.now()): string {
+export function addSource(
+	assetId: string,
+	kind: string,
+	label: string,
+	params: Record<string, unknown>,
+	actorId: string,
+	now = Date.now()
+): string {
 	const id = crypto.randomUUID();
 	db.transaction((tx) => {
-		const order = tx.select({ id: excitationSources.id }).from(excitationSources).where(eq(excitationSources.assetId, assetId)).all().length;
-		tx.insert(excitationSources).values({ id, assetId, kind, label, params, sortOrder: order, version: nextVersion(tx), createdAt: now, updatedAt: now }).run();
+		const order = tx
+			.select({ id: excitationSources.id })
+			.from(excitationSources)
+			.where(eq(excitationSources.assetId, assetId))
+			.all().length;
+		tx.insert(excitationSources)
+			.values({
+				id,
+				assetId,
+				kind,
+				label,
+				params,
+				sortOrder: order,
+				version: nextVersion(tx),
+				createdAt: now,
+				updatedAt: now
+			})
+			.run();
 		touchAsset(tx, assetId, now);
-		audit.record(tx, { userId: actorId, entity: 'excitation_source', entityId: id, action: `add ${kind}`, after: { asset: assetId, label, params } }, now);
+		audit.record(
+			tx,
+			{
+				userId: actorId,
+				entity: 'excitation_source',
+				entityId: id,
+				action: `add ${kind}`,
+				after: { asset: assetId, label, params }
+			},
+			now
+		);
 		refreshAsset(tx, assetId, now);
 	});
 	return id;
 }
 
-export function deleteSource(assetId: string, sourceId: string, actorId: string, now = Date.now()): void {
+export function deleteSource(
+	assetId: string,
+	sourceId: string,
+	actorId: string,
+	now = Date.now()
+): void {
 	db.transaction((tx) => {
-		const before = tx.select().from(excitationSources).where(and(eq(excitationSources.id, sourceId), eq(excitationSources.assetId, assetId))).get();
+		const before = tx
+			.select()
+			.from(excitationSources)
+			.where(and(eq(excitationSources.id, sourceId), eq(excitationSources.assetId, assetId)))
+			.get();
 		if (!before) throw new Error('No such excitation source on this asset.');
 		tx.delete(excitationSources).where(eq(excitationSources.id, sourceId)).run();
 		touchAsset(tx, assetId, now);
-		audit.record(tx, { userId: actorId, entity: 'excitation_source', entityId: sourceId, action: `remove ${before.kind}`, before: { asset: assetId, label: before.label, params: before.params } }, now);
+		audit.record(
+			tx,
+			{
+				userId: actorId,
+				entity: 'excitation_source',
+				entityId: sourceId,
+				action: `remove ${before.kind}`,
+				before: { asset: assetId, label: before.label, params: before.params }
+			},
+			now
+		);
 		refreshAsset(tx, assetId, now);
 	});
 }
 
-export function markReviewed(assetId: string, checkId: string, comment: string, actorId: string, now = Date.now()): void {
+export function markReviewed(
+	assetId: string,
+	checkId: string,
+	comment: string,
+	actorId: string,
+	now = Date.now()
+): void {
 	db.transaction((tx) => {
-		const c = tx.select().from(checks).where(and(eq(checks.id, checkId), eq(checks.assetId, assetId))).get();
+		const c = tx
+			.select()
+			.from(checks)
+			.where(and(eq(checks.id, checkId), eq(checks.assetId, assetId)))
+			.get();
 		if (!c) throw new Error('No such check on this asset.');
-		tx.update(checks).set({ reviewedBy: actorId, reviewedAt: now, reviewComment: comment }).where(eq(checks.id, checkId)).run();
-		audit.record(tx, { userId: actorId, entity: 'check', entityId: checkId, action: 'review', after: { comment } }, now);
+		tx.update(checks)
+			.set({ reviewedBy: actorId, reviewedAt: now, reviewComment: comment })
+			.where(eq(checks.id, checkId))
+			.run();
+		audit.record(
+			tx,
+			{ userId: actorId, entity: 'check', entityId: checkId, action: 'review', after: { comment } },
+			now
+		);
 	});
 }

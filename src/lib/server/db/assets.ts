@@ -7,17 +7,33 @@ import { FLEET_WIDE, type Role } from '../../roles.ts';
 /** The site ids a user may read: every site for fleet-wide roles, else their assignments. */
 export function visibleSiteIds(user: { id: string; role: Role }): string[] | 'all' {
 	if (FLEET_WIDE.includes(user.role)) return 'all';
-	return db.select({ siteId: userSites.siteId }).from(userSites).where(eq(userSites.userId, user.id)).all().map((r) => r.siteId);
+	return db
+		.select({ siteId: userSites.siteId })
+		.from(userSites)
+		.where(eq(userSites.userId, user.id))
+		.all()
+		.map((r) => r.siteId);
 }
 
 /** Whether a site is inside a user's scope (from {@link visibleSiteIds}). */
-export const inScope = (scope: string[] | 'all', siteId: string): boolean => scope === 'all' || scope.includes(siteId);
+export const inScope = (scope: string[] | 'all', siteId: string): boolean =>
+	scope === 'all' || scope.includes(siteId);
 
 export function listVisible(user: { id: string; role: Role }) {
 	const scope = visibleSiteIds(user);
 	if (scope !== 'all' && scope.length === 0) return [];
 	return db
-		.select({ id: assets.id, tag: assets.tag, name: assets.name, site: sites.name, area: areas.name, machineKind: assets.machineKind, driveType: assets.driveType, minRpm: assets.minRpm, maxRpm: assets.maxRpm })
+		.select({
+			id: assets.id,
+			tag: assets.tag,
+			name: assets.name,
+			site: sites.name,
+			area: areas.name,
+			machineKind: assets.machineKind,
+			driveType: assets.driveType,
+			minRpm: assets.minRpm,
+			maxRpm: assets.maxRpm
+		})
 		.from(assets)
 		.innerJoin(sites, eq(sites.id, assets.siteId))
 		.leftJoin(areas, eq(areas.id, assets.areaId))
@@ -27,13 +43,26 @@ export function listVisible(user: { id: string; role: Role }) {
 }
 
 export function counts() {
-	const a = db.select({ n: sql<number>`count(*)` }).from(assets).get()?.n ?? 0;
-	const c = db.select({ n: sql<number>`count(*)` }).from(checks).get()?.n ?? 0;
+	const a =
+		db
+			.select({ n: sql<number>`count(*)` })
+			.from(assets)
+			.get()?.n ?? 0;
+	const c =
+		db
+			.select({ n: sql<number>`count(*)` })
+			.from(checks)
+			.get()?.n ?? 0;
 	return { assets: a, checks: c };
 }
 
 export function bySite(siteId: string) {
-	return db.select().from(assets).where(and(eq(assets.siteId, siteId))).orderBy(asc(assets.tag)).all();
+	return db
+		.select()
+		.from(assets)
+		.where(and(eq(assets.siteId, siteId)))
+		.orderBy(asc(assets.tag))
+		.all();
 }
 
 export function byId(id: string) {
@@ -45,8 +74,17 @@ export function sheet(id: string) {
 	const asset = byId(id);
 	if (!asset) return null;
 	const site = db.select().from(sites).where(eq(sites.id, asset.siteId)).get()!;
-	const area = asset.areaId ? (db.select().from(areas).where(eq(areas.id, asset.areaId)).get() ?? null) : null;
-	const sources = db.select().from(excitationSources).where(eq(excitationSources.assetId, id)).orderBy(asc(excitationSources.sortOrder)).all();
-	const ruleSet = asset.ruleSetId ? (db.select().from(ruleSets).where(eq(ruleSets.id, asset.ruleSetId)).get() ?? null) : null;
+	const area = asset.areaId
+		? (db.select().from(areas).where(eq(areas.id, asset.areaId)).get() ?? null)
+		: null;
+	const sources = db
+		.select()
+		.from(excitationSources)
+		.where(eq(excitationSources.assetId, id))
+		.orderBy(asc(excitationSources.sortOrder))
+		.all();
+	const ruleSet = asset.ruleSetId
+		? (db.select().from(ruleSets).where(eq(ruleSets.id, asset.ruleSetId)).get() ?? null)
+		: null;
 	return { asset, site, area, sources, ruleSet };
 }

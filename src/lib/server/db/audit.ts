@@ -17,13 +17,28 @@ export interface AuditEntry {
 /** Writes one entry inside the caller's transaction. */
 export function record(tx: Tx, entry: AuditEntry, at = Date.now()): void {
 	tx.insert(auditLog)
-		.values({ at, userId: entry.userId, entity: entry.entity, entityId: entry.entityId, action: entry.action, before: entry.before ?? null, after: entry.after ?? null })
+		.values({
+			at,
+			userId: entry.userId,
+			entity: entry.entity,
+			entityId: entry.entityId,
+			action: entry.action,
+			before: entry.before ?? null,
+			after: entry.after ?? null
+		})
 		.run();
 }
 
 export function forEntity(entity: AuditEntry['entity'], entityId: string, limit = 100) {
 	return db
-		.select({ id: auditLog.id, at: auditLog.at, action: auditLog.action, before: auditLog.before, after: auditLog.after, userName: users.name })
+		.select({
+			id: auditLog.id,
+			at: auditLog.at,
+			action: auditLog.action,
+			before: auditLog.before,
+			after: auditLog.after,
+			userName: users.name
+		})
 		.from(auditLog)
 		.leftJoin(users, eq(users.id, auditLog.userId))
 		.where(and(eq(auditLog.entity, entity), eq(auditLog.entityId, entityId)))
@@ -34,7 +49,16 @@ export function forEntity(entity: AuditEntry['entity'], entityId: string, limit 
 
 export function recent(limit = 200) {
 	return db
-		.select({ id: auditLog.id, at: auditLog.at, entity: auditLog.entity, entityId: auditLog.entityId, action: auditLog.action, before: auditLog.before, after: auditLog.after, userName: users.name })
+		.select({
+			id: auditLog.id,
+			at: auditLog.at,
+			entity: auditLog.entity,
+			entityId: auditLog.entityId,
+			action: auditLog.action,
+			before: auditLog.before,
+			after: auditLog.after,
+			userName: users.name
+		})
 		.from(auditLog)
 		.leftJoin(users, eq(users.id, auditLog.userId))
 		.orderBy(desc(auditLog.at), desc(auditLog.id))
@@ -45,7 +69,15 @@ export function recent(limit = 200) {
 /** Changes to an asset and to its excitation sources, newest first. */
 export function forAsset(assetId: string, limit = 100) {
 	return db
-		.select({ id: auditLog.id, at: auditLog.at, entity: auditLog.entity, action: auditLog.action, before: auditLog.before, after: auditLog.after, userName: users.name })
+		.select({
+			id: auditLog.id,
+			at: auditLog.at,
+			entity: auditLog.entity,
+			action: auditLog.action,
+			before: auditLog.before,
+			after: auditLog.after,
+			userName: users.name
+		})
 		.from(auditLog)
 		.leftJoin(users, eq(users.id, auditLog.userId))
 		.where(

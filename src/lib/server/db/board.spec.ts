@@ -21,16 +21,22 @@ describe('the Margin board query', () => {
 		expect(r.counts.clear + r.counts.tight + r.counts.conflict + r.counts.unchecked).toBe(40);
 		const ranks = r.rows.map((x) => ['unchecked', 'clear', 'tight', 'conflict'].indexOf(x.verdict));
 		expect([...ranks].sort((a, b) => b - a)).toEqual(ranks);
-		const conflicts = r.rows.filter((x) => x.verdict === 'conflict').map((x) => x.worstMarginOverRangePct ?? Infinity);
+		const conflicts = r.rows
+			.filter((x) => x.verdict === 'conflict')
+			.map((x) => x.worstMarginOverRangePct ?? Infinity);
 		expect([...conflicts].sort((a, b) => a - b)).toEqual(conflicts);
 	});
 
 	it('filters by site and verdict, searches tag and name, and pages', () => {
 		const site = demoId('site:KRW');
 		const r = query(q({ site, verdict: 'conflict' }), 'all');
-		expect(r.rows.every((x) => x.site === 'Kettle River Water Works' && x.verdict === 'conflict')).toBe(true);
+		expect(
+			r.rows.every((x) => x.site === 'Kettle River Water Works' && x.verdict === 'conflict')
+		).toBe(true);
 		expect(r.total).toBe(r.counts.conflict);
-		expect(query(q({ q: 'raw water' }), 'all').rows.map((x) => x.tag)).toEqual(expect.arrayContaining(['KRW-RWP-101', 'KRW-RWP-104']));
+		expect(query(q({ q: 'raw water' }), 'all').rows.map((x) => x.tag)).toEqual(
+			expect.arrayContaining(['KRW-RWP-101', 'KRW-RWP-104'])
+		);
 		expect(query(q({ q: '%' }), 'all').total).toBe(0); // a wildcard is searched as a character
 		const p1 = query(q({ size: '10' }), 'all');
 		const p2 = query(q({ size: '10', page: '2' }), 'all');
@@ -51,7 +57,9 @@ describe('the Margin board query', () => {
 			expect(up.at(-1)!.site).toBe(db.select().from(sites).where(eq(sites.id, a)).get()!.name);
 			const sameSite = up.filter((r) => r.site === 'Aardvark Works').map((r) => r.tag);
 			expect([...sameSite].sort()).toEqual(sameSite);
-			expect(query(q({ sort: 'site', dir: 'desc' }), 'all').rows[0].site).not.toBe('Aardvark Works');
+			expect(query(q({ sort: 'site', dir: 'desc' }), 'all').rows[0].site).not.toBe(
+				'Aardvark Works'
+			);
 		} finally {
 			updateSite(b, { name: original.name, recheckDays: original.recheckDays }, admin);
 		}
@@ -69,11 +77,15 @@ describe('the Margin board query', () => {
 		const desc = query(q({ sort: 'tag', dir: 'desc' }), 'all').rows.map((x) => x.tag);
 		expect(asc).toEqual([...asc].sort());
 		expect(desc).toEqual([...asc].sort().reverse().slice(0, desc.length));
-		expect(query(q(), [demoId('site:LBM')]).rows.every((x) => x.site === 'Larkspur Board Mill')).toBe(true);
+		expect(
+			query(q(), [demoId('site:LBM')]).rows.every((x) => x.site === 'Larkspur Board Mill')
+		).toBe(true);
 	});
 
 	it('refuses bad parameters with a message', () => {
-		expect(boardQuery.safeParse({ verdict: 'awful' }).error?.issues[0].message).toMatch(/verdict must be one of/);
+		expect(boardQuery.safeParse({ verdict: 'awful' }).error?.issues[0].message).toMatch(
+			/verdict must be one of/
+		);
 		expect(boardQuery.safeParse({ page: '0' }).error?.issues[0].message).toBe('page starts at 1');
 		expect(boardQuery.safeParse({ nonsense: '1' }).success).toBe(false);
 	});

@@ -23,18 +23,40 @@ function staleExpr(bind: Bind, now: number): SQL<number> {
 /** `contains` as a LIKE pattern: `%`, `_` and the escape character are searched as themselves. */
 const searchPattern = (text: string) => `%${text.replace(/[\\%_]/g, (m) => `\\${m}`)}%`;
 
-function conditions(q: BoardQuery, now: number, scope: string[] | 'all', withVerdict: boolean, bind: Bind = asValue): SQL | undefined {
+function conditions(
+	q: BoardQuery,
+	now: number,
+	scope: string[] | 'all',
+	withVerdict: boolean,
+	bind: Bind = asValue
+): SQL | undefined {
 	const c: (SQL | undefined)[] = [];
-	if (scope !== 'all') c.push(scope.length ? sql`${assetStatus.siteId} in (${sql.join(scope.map((id, i) => sql`${bind(`scope${i}`, id)}`), sql`, `)})` : sql`0`);
+	if (scope !== 'all')
+		c.push(
+			scope.length
+				? sql`${assetStatus.siteId} in (${sql.join(
+						scope.map((id, i) => sql`${bind(`scope${i}`, id)}`),
+						sql`, `
+					)})`
+				: sql`0`
+		);
 	if (q.site) c.push(sql`${assetStatus.siteId} = ${bind('site', q.site)}`);
 	if (q.area) c.push(sql`${assetStatus.areaId} = ${bind('area', q.area)}`);
 	if (q.kind) c.push(sql`${assetStatus.machineKind} = ${bind('kind', q.kind)}`);
 	if (withVerdict && q.verdict) c.push(sql`${assetStatus.verdict} = ${bind('verdict', q.verdict)}`);
 	if (q.stale === 'yes') c.push(sql`${assetStatus.staleAfter} < ${bind('now', now)}`);
-	if (q.stale === 'no') c.push(sql`(${assetStatus.staleAfter} is null or ${assetStatus.staleAfter} >= ${bind('now', now)})`);
+	if (q.stale === 'no')
+		c.push(
+			sql`(${assetStatus.staleAfter} is null or ${assetStatus.staleAfter} >= ${bind('now', now)})`
+		);
 	if (q.q) {
 		const pattern = searchPattern(q.q);
-		c.push(or(sql`${assetStatus.tag} like ${bind('pattern', pattern)} escape '\\'`, sql`${assetStatus.name} like ${bind('pattern', pattern)} escape '\\'`));
+		c.push(
+			or(
+				sql`${assetStatus.tag} like ${bind('pattern', pattern)} escape '\\'`,
+				sql`${assetStatus.name} like ${bind('pattern', pattern)} escape '\\'`
+			)
+		);
 	}
 	return c.length ? and(...c) : undefined;
 }
@@ -52,12 +74,23 @@ function values(q: BoardQuery, now: number, scope: string[] | 'all'): Record<str
 }
 
 const shapeOf = (q: BoardQuery, scope: string[] | 'all') =>
-	[scope === 'all' ? 'all' : scope.length, !!q.site, !!q.area, !!q.kind, q.verdict ? 1 : 0, q.stale ?? '', !!q.q, q.sort, q.dir].join('|');
+	[
+		scope === 'all' ? 'all' : scope.length,
+		!!q.site,
+		!!q.area,
+		!!q.kind,
+		q.verdict ? 1 : 0,
+		q.stale ?? '',
+		!!q.q,
+		q.sort,
+		q.dir
+	].join('|');
 
 function ordering(q: BoardQuery): SQL[] {
 	const d = q.dir === 'desc' ? desc : asc;
 	// SQLite puts NULLs first when ascending; unchecked assets (no figures) go last either way
-	const nullable = (col: AnyColumn): SQL[] => (q.dir === 'desc' ? [desc(col)] : [sql`${col} is null`, asc(col)]);
+	const nullable = (col: AnyColumn): SQL[] =>
+		q.dir === 'desc' ? [desc(col)] : [sql`${col} is null`, asc(col)];
 	switch (q.sort) {
 		case 'tag':
 			return [d(assetStatus.tag)];
@@ -65,7 +98,10 @@ function ordering(q: BoardQuery): SQL[] {
 			return [d(assetStatus.name), asc(assetStatus.tag)];
 		case 'site':
 			// by the site's name (a lookup by key per row; sites are few), then the tag
-			return [d(sql`(select ${sites.name} from ${sites} where ${sites.id} = ${assetStatus.siteId})`), asc(assetStatus.tag)];
+			return [
+				d(sql`(select ${sites.name} from ${sites} where ${sites.id} = ${assetStatus.siteId})`),
+				asc(assetStatus.tag)
+			];
 		case 'checked':
 			return [...nullable(assetStatus.checkedAt), asc(assetStatus.tag)];
 		case 'atSpeed':
@@ -73,13 +109,20 @@ function ordering(q: BoardQuery): SQL[] {
 		case 'overRange':
 			return [...nullable(assetStatus.worstMarginOverRangePct), asc(assetStatus.tag)];
 		case 'verdict':
-			return [q.dir === 'desc' ? asc(assetStatus.verdictRank) : desc(assetStatus.verdictRank), asc(assetStatus.tag)];
+			return [
+				q.dir === 'desc' ? asc(assetStatus.verdictRank) : desc(assetStatus.verdictRank),
+				asc(assetStatus.tag)
+			];
 		case 'followUps':
 			return [d(assetStatus.openFollowUps), asc(assetStatus.tag)];
 		default:
 			// worst first: verdict, then the smallest margin over the range (every checked asset has
 			// one; unchecked ones rank 0 and come last), then the tag. Matches status_worst_idx.
-			return [desc(assetStatus.verdictRank), asc(assetStatus.worstMarginOverRangePct), asc(assetStatus.tag)];
+			return [
+				desc(assetStatus.verdictRank),
+				asc(assetStatus.worstMarginOverRangePct),
+				asc(assetStatus.tag)
+			];
 	}
 }
 
@@ -109,23 +152,51 @@ function base(now: number, bind: Bind = asValue) {
 type BaseRow = Awaited<ReturnType<ReturnType<typeof base>['all']>>[number];
 
 /** The page's ids as one JSON text, so that each lookup is one statement prepared once. */
-const idsIn = (col: AnyColumn) => sql`${col} in (select value from json_each(${sql.placeholder('ids')}))`;
-const siteLookup = () => db.select({ id: sites.id, name: sites.name }).from(sites).where(idsIn(sites.id));
-const areaLookup = () => db.select({ id: areas.id, name: areas.name }).from(areas).where(idsIn(areas.id));
-const speedLookup = () => db.select({ id: assets.id, minRpm: assets.minRpm, maxRpm: assets.maxRpm, driveType: assets.driveType }).from(assets).where(idsIn(assets.id));
-let lookups: { sites: ReturnType<ReturnType<typeof siteLookup>['prepare']>; areas: ReturnType<ReturnType<typeof areaLookup>['prepare']>; speeds: ReturnType<ReturnType<typeof speedLookup>['prepare']> } | null = null;
+const idsIn = (col: AnyColumn) =>
+	sql`${col} in (select value from json_each(${sql.placeholder('ids')}))`;
+const siteLookup = () =>
+	db.select({ id: sites.id, name: sites.name }).from(sites).where(idsIn(sites.id));
+const areaLookup = () =>
+	db.select({ id: areas.id, name: areas.name }).from(areas).where(idsIn(areas.id));
+const speedLookup = () =>
+	db
+		.select({
+			id: assets.id,
+			minRpm: assets.minRpm,
+			maxRpm: assets.maxRpm,
+			driveType: assets.driveType
+		})
+		.from(assets)
+		.where(idsIn(assets.id));
+let lookups: {
+	sites: ReturnType<ReturnType<typeof siteLookup>['prepare']>;
+	areas: ReturnType<ReturnType<typeof areaLookup>['prepare']>;
+	speeds: ReturnType<ReturnType<typeof speedLookup>['prepare']>;
+} | null = null;
 
 /** Adds site and area names and the speed range to a page of rows (three small lookups by key). */
 function complete(rows: BaseRow[]): BoardRow[] {
 	if (rows.length === 0) return [];
-	lookups ??= { sites: siteLookup().prepare(), areas: areaLookup().prepare(), speeds: speedLookup().prepare() };
+	lookups ??= {
+		sites: siteLookup().prepare(),
+		areas: areaLookup().prepare(),
+		speeds: speedLookup().prepare()
+	};
 	const { sites: siteIds, areas: areaIds, assets: assetIds } = completionIds(rows);
 	const siteNames = new Map(lookups.sites.all({ ids: siteIds }).map((r) => [r.id, r.name]));
 	const areaNames = new Map(lookups.areas.all({ ids: areaIds }).map((r) => [r.id, r.name]));
 	const speeds = new Map(lookups.speeds.all({ ids: assetIds }).map((r) => [r.id, r]));
 	return rows.map(({ siteId, areaId, ...r }) => {
 		const sp = speeds.get(r.id);
-		return { ...r, site: siteNames.get(siteId) ?? '', area: areaId ? (areaNames.get(areaId) ?? null) : null, minRpm: sp?.minRpm ?? 0, maxRpm: sp?.maxRpm ?? 0, driveType: sp?.driveType ?? 'fixed', stale: r.stale === 1 } as BoardRow;
+		return {
+			...r,
+			site: siteNames.get(siteId) ?? '',
+			area: areaId ? (areaNames.get(areaId) ?? null) : null,
+			minRpm: sp?.minRpm ?? 0,
+			maxRpm: sp?.maxRpm ?? 0,
+			driveType: sp?.driveType ?? 'fixed',
+			stale: r.stale === 1
+		} as BoardRow;
 	});
 }
 
@@ -137,7 +208,11 @@ function completionIds(rows: { id: string; siteId: string; areaId: string | null
 		siteIds.add(r.siteId);
 		if (r.areaId !== null) areaIds.add(r.areaId);
 	}
-	return { sites: JSON.stringify([...siteIds]), areas: JSON.stringify([...areaIds]), assets: JSON.stringify(rows.map((r) => r.id)) };
+	return {
+		sites: JSON.stringify([...siteIds]),
+		areas: JSON.stringify([...areaIds]),
+		assets: JSON.stringify(rows.map((r) => r.id))
+	};
 }
 
 function rowsStatement(q: BoardQuery, scope: string[] | 'all', bind: Bind, now: number) {
@@ -150,20 +225,30 @@ function rowsStatement(q: BoardQuery, scope: string[] | 'all', bind: Bind, now: 
 
 function countsStatement(q: BoardQuery, scope: string[] | 'all', bind: Bind, now: number) {
 	return db
-		.select({ verdict: assetStatus.verdict, n: sql<number>`count(*)`, stale: sql<number>`sum(${staleExpr(bind, now)})` })
+		.select({
+			verdict: assetStatus.verdict,
+			n: sql<number>`count(*)`,
+			stale: sql<number>`sum(${staleExpr(bind, now)})`
+		})
 		.from(assetStatus)
 		.where(conditions(q, now, scope, false, bind))
 		.groupBy(assetStatus.verdict);
 }
 
-type Prepared = { rows: ReturnType<ReturnType<typeof rowsStatement>['prepare']>; counts: ReturnType<ReturnType<typeof countsStatement>['prepare']> };
+type Prepared = {
+	rows: ReturnType<ReturnType<typeof rowsStatement>['prepare']>;
+	counts: ReturnType<ReturnType<typeof countsStatement>['prepare']>;
+};
 const prepared = new Map<string, Prepared>();
 
 function statementsFor(q: BoardQuery, scope: string[] | 'all'): Prepared {
 	const key = shapeOf(q, scope);
 	let p = prepared.get(key);
 	if (!p) {
-		p = { rows: rowsStatement(q, scope, asPlaceholder, 0).prepare(), counts: countsStatement(q, scope, asPlaceholder, 0).prepare() };
+		p = {
+			rows: rowsStatement(q, scope, asPlaceholder, 0).prepare(),
+			counts: countsStatement(q, scope, asPlaceholder, 0).prepare()
+		};
 		if (prepared.size > 500) prepared.clear();
 		prepared.set(key, p);
 	}
@@ -181,13 +266,18 @@ export function query(q: BoardQuery, scope: string[] | 'all', now = Date.now()):
 		counts[g.verdict] = g.n;
 		staleCount += g.stale ?? 0;
 	}
-	const total = q.verdict ? counts[q.verdict] : counts.clear + counts.tight + counts.conflict + counts.unchecked;
+	const total = q.verdict
+		? counts[q.verdict]
+		: counts.clear + counts.tight + counts.conflict + counts.unchecked;
 	return { rows, total, page: q.page, pageSize: q.size, counts, staleCount };
 }
 
 /** Every row of the filtered list, for CSV export. */
 export function all(q: BoardQuery, scope: string[] | 'all', now = Date.now()): BoardRow[] {
-	const rows = base(now).where(conditions(q, now, scope, true)).orderBy(...ordering(q)).all();
+	const rows = base(now)
+		.where(conditions(q, now, scope, true))
+		.orderBy(...ordering(q))
+		.all();
 	const out: BoardRow[] = [];
 	for (let i = 0; i < rows.length; i += 500) out.push(...complete(rows.slice(i, i + 500)));
 	return out;
@@ -196,15 +286,23 @@ export function all(q: BoardQuery, scope: string[] | 'all', now = Date.now()): B
 export function filterOptions() {
 	return {
 		sites: db.select({ id: sites.id, name: sites.name }).from(sites).orderBy(asc(sites.name)).all(),
-		areas: db.select({ id: areas.id, name: areas.name, siteId: areas.siteId }).from(areas).orderBy(asc(areas.name)).all()
+		areas: db
+			.select({ id: areas.id, name: areas.name, siteId: areas.siteId })
+			.from(areas)
+			.orderBy(asc(areas.name))
+			.all()
 	};
 }
 
 /** The page-completion lookups (sites, areas, speeds) and their ids, for the benchmark's bare-SQL comparison. */
-export const completionSql = () => [siteLookup(), areaLookup(), speedLookup()].map((q) => q.toSQL().sql);
+export const completionSql = () =>
+	[siteLookup(), areaLookup(), speedLookup()].map((q) => q.toSQL().sql);
 export { completionIds };
 
 /** The two statements the board runs (rows, counts), for the benchmark's bare-SQL comparison. */
 export function sqlOf(q: BoardQuery, scope: string[] | 'all', now = Date.now()) {
-	return [rowsStatement(q, scope, asValue, now).toSQL(), countsStatement(q, scope, asValue, now).toSQL()];
+	return [
+		rowsStatement(q, scope, asValue, now).toSQL(),
+		countsStatement(q, scope, asValue, now).toSQL()
+	];
 }

@@ -16,7 +16,12 @@ export function modesOf(checkId: string) {
 }
 
 export function count(): number {
-	return db.select({ n: sql<number>`count(*)` }).from(checks).get()?.n ?? 0;
+	return (
+		db
+			.select({ n: sql<number>`count(*)` })
+			.from(checks)
+			.get()?.n ?? 0
+	);
 }
 
 /** The latest check of each asset, newest first (what a supervisor looks at before the full board). */
@@ -52,7 +57,12 @@ export function latestPerAsset(limit = 500) {
 }
 
 export function forAsset(assetId: string) {
-	return db.select().from(checks).where(eq(checks.assetId, assetId)).orderBy(desc(checks.checkedAt)).all();
+	return db
+		.select()
+		.from(checks)
+		.where(eq(checks.assetId, assetId))
+		.orderBy(desc(checks.checkedAt))
+		.all();
 }
 
 export function byIds(ids: string[]) {

@@ -23,38 +23,110 @@ beforeAll(async () => {
 
 const received = async (subject: RegExp, n: number) => {
 	for (let i = 0; i < 50; i++) {
-		const rows = db.select().from(mail).where(eq(mail.status, 'received')).all().filter((m) => subject.test(m.subject));
+		const rows = db
+			.select()
+			.from(mail)
+			.where(eq(mail.status, 'received'))
+			.all()
+			.filter((m) => subject.test(m.subject));
 		if (rows.length >= n) return rows;
 		await new Promise((r) => setTimeout(r, 50));
 	}
-	return db.select().from(mail).where(eq(mail.status, 'received')).all().filter((m) => subject.test(m.subject));
+	return db
+		.select()
+		.from(mail)
+		.where(eq(mail.status, 'received'))
+		.all()
+		.filter((m) => subject.test(m.subject));
 };
 
 describe('follow-ups', () => {
 	it('suggests the engine’s remedy and closes on a newer clear check only', () => {
-		const id = fu.create({ assetId, checkId: null, title: 'Stiffen the motor stand', assigneeId: tech.id, dueDate: '2026-12-20', priority: 'high', notes: '' }, planner, Date.now() - 1000);
+		const id = fu.create(
+			{
+				assetId,
+				checkId: null,
+				title: 'Stiffen the motor stand',
+				assigneeId: tech.id,
+				dueDate: '2026-12-20',
+				priority: 'high',
+				notes: ''
+			},
+			planner,
+			Date.now() - 1000
+		);
 		const row = fu.byId(id)!;
 		expect(row.status).toBe('scheduled');
 		expect(row.remedy).toMatchObject({ verdict: expect.any(String) });
-		const base = { assetId, checkedAt: Date.now(), measuredRpm: 1000, driveSetpointHz: null, notes: '', replacesCheckId: null, device: { verdict: 'clear', verdictAtSpeed: 'clear', worstMarginAtSpeedPct: null, worstMarginOverRangePct: null } };
+		const base = {
+			assetId,
+			checkedAt: Date.now(),
+			measuredRpm: 1000,
+			driveSetpointHz: null,
+			notes: '',
+			replacesCheckId: null,
+			device: {
+				verdict: 'clear',
+				verdictAtSpeed: 'clear',
+				worstMarginAtSpeedPct: null,
+				worstMarginOverRangePct: null
+			}
+		};
 		// a conflict check leaves it open
-		push(tech, [{ ...base, id: crypto.randomUUID(), modes: [{ frequencyHz: 17.2, dampingRatio: null, direction: null, location: null, origin: 'typed' }] }]);
+		push(tech, [
+			{
+				...base,
+				id: crypto.randomUUID(),
+				modes: [
+					{
+						frequencyHz: 17.2,
+						dampingRatio: null,
+						direction: null,
+						location: null,
+						origin: 'typed'
+					}
+				]
+			}
+		]);
 		expect(fu.byId(id)!.status).toBe('scheduled');
 		// a clear one (the mode moved far above every excitation) retests it
 		const clear = crypto.randomUUID();
-		const r = push(tech, [{ ...base, id: clear, modes: [{ frequencyHz: 300, dampingRatio: null, direction: null, location: null, origin: 'typed' }] }]);
+		const r = push(tech, [
+			{
+				...base,
+				id: clear,
+				modes: [
+					{ frequencyHz: 300, dampingRatio: null, direction: null, location: null, origin: 'typed' }
+				]
+			}
+		]);
 		expect(r.response.results[0]).toMatchObject({ status: 'applied', verdict: 'clear' });
 		expect(fu.byId(id)!).toMatchObject({ status: 'retested', retestCheckId: clear });
 		expect(() => fu.move(id, 'open', planner)).toThrow(/closed by a clear retest/);
 	});
 
 	it('sends exactly one overdue mail however often the reminder job runs', async () => {
-		const id = fu.create({ assetId, checkId: null, title: 'Program the skip band', assigneeId: tech.id, dueDate: '2026-01-05', priority: 'normal', notes: '' }, planner);
+		const id = fu.create(
+			{
+				assetId,
+				checkId: null,
+				title: 'Program the skip band',
+				assigneeId: tech.id,
+				dueDate: '2026-01-05',
+				priority: 'normal',
+				notes: ''
+			},
+			planner
+		);
 		const first = await runReminders();
 		await runReminders();
 		await runReminders();
 		expect(first.sent).toBeGreaterThanOrEqual(1);
-		const sent = db.select().from(mail).all().filter((m) => m.dedupeKey === `overdue:${id}:2026-01-05`);
+		const sent = db
+			.select()
+			.from(mail)
+			.all()
+			.filter((m) => m.dedupeKey === `overdue:${id}:2026-01-05`);
 		expect(sent).toHaveLength(1);
 		const got = await received(/^Overdue: KRW-RWP-101 — Program the skip band$/, 1);
 		expect(got).toHaveLength(1);

@@ -11,7 +11,6 @@ import * as audit from './audit.ts';
 import type { FollowUpCreate, FollowUpUpdate } from '../../schemas/follow-up.ts';
 import type { Tx } from './client.ts';
 
-
 export class FollowUpError extends Error {}
 
 const columns = {
@@ -36,17 +35,27 @@ const columns = {
 };
 
 function select() {
-	return db.select(columns).from(followUps).innerJoin(assets, eq(assets.id, followUps.assetId)).innerJoin(sites, eq(sites.id, assets.siteId)).leftJoin(users, eq(users.id, followUps.assigneeId));
+	return db
+		.select(columns)
+		.from(followUps)
+		.innerJoin(assets, eq(assets.id, followUps.assetId))
+		.innerJoin(sites, eq(sites.id, assets.siteId))
+		.leftJoin(users, eq(users.id, followUps.assigneeId));
 }
 
 export type FollowUpRow = Awaited<ReturnType<ReturnType<typeof select>['all']>>[number];
 
-export function list(filter: { status?: string; assigneeId?: string; overdueOn?: string; assetId?: string } = {}) {
+export function list(
+	filter: { status?: string; assigneeId?: string; overdueOn?: string; assetId?: string } = {}
+) {
 	const c = [];
 	if (filter.status) c.push(eq(followUps.status, filter.status as 'open'));
 	if (filter.assigneeId) c.push(eq(followUps.assigneeId, filter.assigneeId));
 	if (filter.assetId) c.push(eq(followUps.assetId, filter.assetId));
-	if (filter.overdueOn) c.push(and(lt(followUps.dueDate, filter.overdueOn), inArray(followUps.status, ['open', 'scheduled'])));
+	if (filter.overdueOn)
+		c.push(
+			and(lt(followUps.dueDate, filter.overdueOn), inArray(followUps.status, ['open', 'scheduled']))
+		);
 	return select()
 		.where(c.length ? and(...c) : undefined)
 		.orderBy(sql`${followUps.dueDate} is null`, asc(followUps.dueDate), desc(followUps.createdAt))
@@ -58,8 +67,19 @@ export function byId(id: string) {
 }
 
 /** The remedy the engine suggests for a check: skip bands in the three drive conventions, stiffness or mass change, speed limits. */
-export function suggestRemedy(checkId: string | null, assetId: string): Record<string, unknown> | null {
-	const check = checkId ? db.select().from(checks).where(eq(checks.id, checkId)).get() : db.select().from(checks).where(eq(checks.assetId, assetId)).orderBy(desc(checks.checkedAt)).limit(1).get();
+export function suggestRemedy(
+	checkId: string | null,
+	assetId: string
+): Record<string, unknown> | null {
+	const check = checkId
+		? db.select().from(checks).where(eq(checks.id, checkId)).get()
+		: db
+				.select()
+				.from(checks)
+				.where(eq(checks.assetId, assetId))
+				.orderBy(desc(checks.checkedAt))
+				.limit(1)
+				.get();
 	if (!check) return null;
 	const result = check.result as { bands?: unknown; remedies?: unknown; warnings?: unknown } | null;
 	return {
@@ -77,52 +97,173 @@ export function create(input: FollowUpCreate, actorId: string, now = Date.now())
 	const id = crypto.randomUUID();
 	const remedy = suggestRemedy(input.checkId, input.assetId);
 	db.transaction((tx) => {
-		if (!tx.select({ id: assets.id }).from(assets).where(eq(assets.id, input.assetId)).get()) throw new FollowUpError('No such asset.');
-		if (input.checkId && !tx.select({ id: checks.id }).from(checks).where(and(eq(checks.id, input.checkId), eq(checks.assetId, input.assetId))).get()) throw new FollowUpError('That check is not of this asset.');
-		if (input.assigneeId && !tx.select({ id: users.id }).from(users).where(and(eq(users.id, input.assigneeId), eq(users.disabled, false))).get()) throw new FollowUpError('Choose an active user to assign.');
+		if (!tx.select({ id: assets.id }).from(assets).where(eq(assets.id, input.assetId)).get())
+			throw new FollowUpError('No such asset.');
+		if (
+			input.checkId &&
+			!tx
+				.select({ id: checks.id })
+				.from(checks)
+				.where(and(eq(checks.id, input.checkId), eq(checks.assetId, input.assetId)))
+				.get()
+		)
+			throw new FollowUpError('That check is not of this asset.');
+		if (
+			input.assigneeId &&
+			!tx
+				.select({ id: users.id })
+				.from(users)
+				.where(and(eq(users.id, input.assigneeId), eq(users.disabled, false)))
+				.get()
+		)
+			throw new FollowUpError('Choose an active user to assign.');
 		tx.insert(followUps)
-			.values({ id, assetId: input.assetId, checkId: input.checkId, createdBy: actorId, assigneeId: input.assigneeId, title: input.title, remedy, status: input.dueDate ? 'scheduled' : 'open', priority: input.priority, dueDate: input.dueDate, notes: input.notes, createdAt: now, updatedAt: now })
+			.values({
+				id,
+				assetId: input.assetId,
+				checkId: input.checkId,
+				createdBy: actorId,
+				assigneeId: input.assigneeId,
+				title: input.title,
+				remedy,
+				status: input.dueDate ? 'scheduled' : 'open',
+				priority: input.priority,
+				dueDate: input.dueDate,
+				notes: input.notes,
+				createdAt: now,
+				updatedAt: now
+			})
 			.run();
-		audit.record(tx, { userId: actorId, entity: 'follow_up', entityId: id, action: 'create', after: { ...input } }, now);
+		audit.record(
+			tx,
+			{ userId: actorId, entity: 'follow_up', entityId: id, action: 'create', after: { ...input } },
+			now
+		);
 		refreshAsset(tx, input.assetId, now);
 	});
 	return id;
 }
 
-export function update(input: FollowUpUpdate, actorId: string, now = Date.now()): { assigneeChanged: boolean } {
+export function update(
+	input: FollowUpUpdate,
+	actorId: string,
+	now = Date.now()
+): { assigneeChanged: boolean } {
 	return db.transaction((tx) => {
 		const before = tx.select().from(followUps).where(eq(followUps.id, input.id)).get();
 		if (!before) throw new FollowUpError('No such follow-up.');
-		if (before.status === 'retested') throw new FollowUpError('This follow-up is closed by a clear retest.');
-		if (input.assigneeId && !tx.select({ id: users.id }).from(users).where(and(eq(users.id, input.assigneeId), eq(users.disabled, false))).get()) throw new FollowUpError('Choose an active user to assign.');
+		if (before.status === 'retested')
+			throw new FollowUpError('This follow-up is closed by a clear retest.');
+		if (
+			input.assigneeId &&
+			!tx
+				.select({ id: users.id })
+				.from(users)
+				.where(and(eq(users.id, input.assigneeId), eq(users.disabled, false)))
+				.get()
+		)
+			throw new FollowUpError('Choose an active user to assign.');
 		const status = before.status === 'open' && input.dueDate ? 'scheduled' : before.status;
-		tx.update(followUps).set({ assigneeId: input.assigneeId, dueDate: input.dueDate, priority: input.priority, notes: input.notes, status, updatedAt: now }).where(eq(followUps.id, input.id)).run();
-		audit.record(tx, { userId: actorId, entity: 'follow_up', entityId: input.id, action: 'update', before: { assigneeId: before.assigneeId, dueDate: before.dueDate, priority: before.priority, status: before.status }, after: { assigneeId: input.assigneeId, dueDate: input.dueDate, priority: input.priority, status } }, now);
+		tx.update(followUps)
+			.set({
+				assigneeId: input.assigneeId,
+				dueDate: input.dueDate,
+				priority: input.priority,
+				notes: input.notes,
+				status,
+				updatedAt: now
+			})
+			.where(eq(followUps.id, input.id))
+			.run();
+		audit.record(
+			tx,
+			{
+				userId: actorId,
+				entity: 'follow_up',
+				entityId: input.id,
+				action: 'update',
+				before: {
+					assigneeId: before.assigneeId,
+					dueDate: before.dueDate,
+					priority: before.priority,
+					status: before.status
+				},
+				after: {
+					assigneeId: input.assigneeId,
+					dueDate: input.dueDate,
+					priority: input.priority,
+					status
+				}
+			},
+			now
+		);
 		return { assigneeChanged: before.assigneeId !== input.assigneeId && input.assigneeId !== null };
 	});
 }
 
-export function move(id: string, status: 'open' | 'scheduled' | 'done', actorId: string, now = Date.now()): void {
+export function move(
+	id: string,
+	status: 'open' | 'scheduled' | 'done',
+	actorId: string,
+	now = Date.now()
+): void {
 	db.transaction((tx) => {
 		const before = tx.select().from(followUps).where(eq(followUps.id, id)).get();
 		if (!before) throw new FollowUpError('No such follow-up.');
-		if (before.status === 'retested') throw new FollowUpError('This follow-up is closed by a clear retest.');
+		if (before.status === 'retested')
+			throw new FollowUpError('This follow-up is closed by a clear retest.');
 		tx.update(followUps).set({ status, updatedAt: now }).where(eq(followUps.id, id)).run();
-		audit.record(tx, { userId: actorId, entity: 'follow_up', entityId: id, action: `status ${before.status} → ${status}`, before: { status: before.status }, after: { status } }, now);
+		audit.record(
+			tx,
+			{
+				userId: actorId,
+				entity: 'follow_up',
+				entityId: id,
+				action: `status ${before.status} → ${status}`,
+				before: { status: before.status },
+				after: { status }
+			},
+			now
+		);
 		refreshAsset(tx, before.assetId, now);
 	});
 }
 
 /** A new clear check closes the asset's follow-ups that were made before it (in the check's transaction). */
-export function retestedBy(tx: Tx, assetId: string, checkId: string, checkedAt: number, now = Date.now()): number {
+export function retestedBy(
+	tx: Tx,
+	assetId: string,
+	checkId: string,
+	checkedAt: number,
+	now = Date.now()
+): number {
 	const open = tx
 		.select({ id: followUps.id })
 		.from(followUps)
-		.where(and(eq(followUps.assetId, assetId), ne(followUps.status, 'retested'), lt(followUps.createdAt, checkedAt)))
+		.where(
+			and(
+				eq(followUps.assetId, assetId),
+				ne(followUps.status, 'retested'),
+				lt(followUps.createdAt, checkedAt)
+			)
+		)
 		.all();
 	for (const f of open) {
-		tx.update(followUps).set({ status: 'retested', retestCheckId: checkId, updatedAt: now }).where(eq(followUps.id, f.id)).run();
-		audit.record(tx, { userId: null, entity: 'follow_up', entityId: f.id, action: 'retested by a clear check', after: { checkId } }, now);
+		tx.update(followUps)
+			.set({ status: 'retested', retestCheckId: checkId, updatedAt: now })
+			.where(eq(followUps.id, f.id))
+			.run();
+		audit.record(
+			tx,
+			{
+				userId: null,
+				entity: 'follow_up',
+				entityId: f.id,
+				action: 'retested by a clear check',
+				after: { checkId }
+			},
+			now
+		);
 	}
 	return open.length;
 }
@@ -130,7 +271,13 @@ export function retestedBy(tx: Tx, assetId: string, checkId: string, checkedAt: 
 /** Follow-ups with a due date, for the reminder job. */
 export function due(beforeOrOn: string) {
 	return select()
-		.where(and(inArray(followUps.status, ['open', 'scheduled']), sql`${followUps.dueDate} is not null`, sql`${followUps.dueDate} <= ${beforeOrOn}`, sql`${followUps.assigneeId} is not null`))
+		.where(
+			and(
+				inArray(followUps.status, ['open', 'scheduled']),
+				sql`${followUps.dueDate} is not null`,
+				sql`${followUps.dueDate} <= ${beforeOrOn}`,
+				sql`${followUps.assigneeId} is not null`
+			)
+		)
 		.all();
 }
-

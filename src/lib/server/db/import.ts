@@ -45,7 +45,9 @@ export const TEMPLATE = [
 	'KRW-RWP-105,Raw water pump 5,KRW,Raw Water Intake,pump,vfd,720,1180,1180,6,1,3,Pump structures 15 %\\, vane pass 20 %,1;2,5,,,,9,25.4,115,0,60,',
 	'LBM-EXF-130,Dryer exhaust fan,LBM,Dryer Section,fan,fixed,1180,1180,1180,6,1,3,,1;2,,9,,,,,,,60,'
 ]
-	.map((l) => l.replace('Pump structures 15 %\\, vane pass 20 %', '"Pump structures 15 %, vane pass 20 %"'))
+	.map((l) =>
+		l.replace('Pump structures 15 %\\, vane pass 20 %', '"Pump structures 15 %, vane pass 20 %"')
+	)
 	.join('\r\n');
 
 export interface RowError {
@@ -63,19 +65,55 @@ interface ValidRow {
 	sources: { kind: string; label: string; params: Record<string, unknown> }[];
 }
 
-const COLUMN_OF: Record<string, string> = { name: 'name', machineKind: 'machine_kind', driveType: 'drive_type', minRpm: 'min_rpm', maxRpm: 'max_rpm', nominalRpm: 'nominal_rpm', motorPoles: 'motor_poles', driveRatio: 'drive_ratio', skipBands: 'skip_bands', ruleSetId: 'rule_set' };
+const COLUMN_OF: Record<string, string> = {
+	name: 'name',
+	machineKind: 'machine_kind',
+	driveType: 'drive_type',
+	minRpm: 'min_rpm',
+	maxRpm: 'max_rpm',
+	nominalRpm: 'nominal_rpm',
+	motorPoles: 'motor_poles',
+	driveRatio: 'drive_ratio',
+	skipBands: 'skip_bands',
+	ruleSetId: 'rule_set'
+};
 
 export function validate(text: string): { rows: ValidRow[]; errors: RowError[]; total: number } {
-	const parsed = Papa.parse<Record<string, string>>(text.replace(/^\uFEFF/, ''), { header: true, skipEmptyLines: 'greedy', transformHeader: (h) => h.trim().toLowerCase() });
+	const parsed = Papa.parse<Record<string, string>>(text.replace(/^\uFEFF/, ''), {
+		header: true,
+		skipEmptyLines: 'greedy',
+		transformHeader: (h) => h.trim().toLowerCase()
+	});
 	const errors: RowError[] = [];
 	const headers = parsed.meta.fields ?? [];
 	const known = new Set<string>(IMPORT_COLUMNS.map((c) => c[0]));
-	for (const h of headers) if (!known.has(h)) errors.push({ row: 1, column: h, message: `Unknown column “${h}”; the template lists the columns.` });
-	for (const need of ['tag', 'name', 'site_code', 'min_rpm', 'max_rpm']) if (!headers.includes(need)) errors.push({ row: 1, column: need, message: `The column “${need}” is missing.` });
-	for (const e of parsed.errors) errors.push({ row: (e.row ?? 0) + 2, column: '', message: e.message });
+	for (const h of headers)
+		if (!known.has(h))
+			errors.push({
+				row: 1,
+				column: h,
+				message: `Unknown column “${h}”; the template lists the columns.`
+			});
+	for (const need of ['tag', 'name', 'site_code', 'min_rpm', 'max_rpm'])
+		if (!headers.includes(need))
+			errors.push({ row: 1, column: need, message: `The column “${need}” is missing.` });
+	for (const e of parsed.errors)
+		errors.push({ row: (e.row ?? 0) + 2, column: '', message: e.message });
 	if (errors.length) return { rows: [], errors, total: parsed.data.length };
-	const siteByCode = new Map(db.select().from(sites).all().map((s) => [s.code.toUpperCase(), s]));
-	const ruleByName = new Map(db.select().from(ruleSets).all().map((r) => [r.name.toLowerCase(), r.id]));
+	const siteByCode = new Map(
+		db
+			.select()
+			.from(sites)
+			.all()
+			.map((s) => [s.code.toUpperCase(), s])
+	);
+	const ruleByName = new Map(
+		db
+			.select()
+			.from(ruleSets)
+			.all()
+			.map((r) => [r.name.toLowerCase(), r.id])
+	);
 	const seen = new Map<string, number>();
 	const rows: ValidRow[] = [];
 	parsed.data.forEach((raw, i) => {
@@ -83,7 +121,8 @@ export function validate(text: string): { rows: ValidRow[]; errors: RowError[]; 
 		const get = (k: string) => (raw[k] ?? '').trim();
 		const fail = (column: string, message: string) => errors.push({ row, column, message });
 		const tag = get('tag');
-		if (!/^[A-Za-z0-9][A-Za-z0-9._/-]{1,39}$/.test(tag)) return fail('tag', 'Tag: 2–40 letters, digits, dots, dashes or slashes.');
+		if (!/^[A-Za-z0-9][A-Za-z0-9._/-]{1,39}$/.test(tag))
+			return fail('tag', 'Tag: 2–40 letters, digits, dots, dashes or slashes.');
 		if (seen.has(tag)) return fail('tag', `Tag ${tag} is also on row ${seen.get(tag)}.`);
 		seen.set(tag, row);
 		const site = siteByCode.get(get('site_code').toUpperCase());
@@ -109,7 +148,11 @@ export function validate(text: string): { rows: ValidRow[]; errors: RowError[]; 
 			return fail(COLUMN_OF[String(issue.path[0])] ?? String(issue.path[0]), issue.message);
 		}
 		const sources: ValidRow['sources'] = [];
-		const add = (kind: keyof typeof sourceParams, column: string, params: Record<string, unknown>) => {
+		const add = (
+			kind: keyof typeof sourceParams,
+			column: string,
+			params: Record<string, unknown>
+		) => {
 			const p = sourceParams[kind].safeParse(params);
 			if (!p.success) {
 				fail(column, p.error.issues[0].message);
@@ -119,10 +162,23 @@ export function validate(text: string): { rows: ValidRow[]; errors: RowError[]; 
 			return true;
 		};
 		const n = (k: string) => (get(k) === '' ? undefined : Number(get(k).replace(',', '.')));
-		if (get('shaft_orders') && !add('shaft', 'shaft_orders', { orders: get('shaft_orders').split(/[;\s]+/).filter(Boolean).map(Number) })) return;
+		if (
+			get('shaft_orders') &&
+			!add('shaft', 'shaft_orders', {
+				orders: get('shaft_orders')
+					.split(/[;\s]+/)
+					.filter(Boolean)
+					.map(Number)
+			})
+		)
+			return;
 		if (get('vane_count') && !add('vane', 'vane_count', { count: n('vane_count') })) return;
 		if (get('blade_count') && !add('blade', 'blade_count', { count: n('blade_count') })) return;
-		if ((get('gear_teeth') || get('gear_mating_teeth')) && !add('gear', 'gear_teeth', { teeth: n('gear_teeth'), matingTeeth: n('gear_mating_teeth') })) return;
+		if (
+			(get('gear_teeth') || get('gear_mating_teeth')) &&
+			!add('gear', 'gear_teeth', { teeth: n('gear_teeth'), matingTeeth: n('gear_mating_teeth') })
+		)
+			return;
 		if (
 			(get('bearing_elements') || get('bearing_element_mm') || get('bearing_pitch_mm')) &&
 			!add('bearing', 'bearing_elements', {
@@ -133,15 +189,36 @@ export function validate(text: string): { rows: ValidRow[]; errors: RowError[]; 
 			})
 		)
 			return;
-		if (get('line_hz') && !add('line', 'line_hz', { lineFrequencyHz: n('line_hz'), drive: form.data.driveType === 'vfd' && form.data.motorPoles ? { poles: form.data.motorPoles, motorRpmPerShaftRpm: form.data.driveRatio } : null })) return;
+		if (
+			get('line_hz') &&
+			!add('line', 'line_hz', {
+				lineFrequencyHz: n('line_hz'),
+				drive:
+					form.data.driveType === 'vfd' && form.data.motorPoles
+						? { poles: form.data.motorPoles, motorRpmPerShaftRpm: form.data.driveRatio }
+						: null
+			})
+		)
+			return;
 		if (get('fixed_hz') && !add('fixed', 'fixed_hz', { frequencyHz: n('fixed_hz') })) return;
-		rows.push({ row, tag, siteId: site.id, areaName: get('area') || null, asset: form.data, sources });
+		rows.push({
+			row,
+			tag,
+			siteId: site.id,
+			areaName: get('area') || null,
+			asset: form.data,
+			sources
+		});
 	});
 	return { rows: errors.length ? [] : rows, errors, total: parsed.data.length };
 }
 
 /** Imports all rows or none; returns how many were added and updated. */
-export function run(text: string, actorId: string, now = Date.now()): { errors: RowError[]; added: number; updated: number } {
+export function run(
+	text: string,
+	actorId: string,
+	now = Date.now()
+): { errors: RowError[]; added: number; updated: number } {
 	const { rows, errors } = validate(text);
 	if (errors.length) return { errors, added: 0, updated: 0 };
 	let added = 0;
@@ -151,24 +228,80 @@ export function run(text: string, actorId: string, now = Date.now()): { errors: 
 		for (const r of rows) {
 			let areaId: string | null = null;
 			if (r.areaName) {
-				const area = tx.select().from(areas).all().find((a) => a.siteId === r.siteId && a.name.toLowerCase() === r.areaName!.toLowerCase());
+				const area = tx
+					.select()
+					.from(areas)
+					.all()
+					.find((a) => a.siteId === r.siteId && a.name.toLowerCase() === r.areaName!.toLowerCase());
 				areaId = area?.id ?? crypto.randomUUID();
-				if (!area) tx.insert(areas).values({ id: areaId, siteId: r.siteId, name: r.areaName, version, createdAt: now, updatedAt: now }).run();
+				if (!area)
+					tx.insert(areas)
+						.values({
+							id: areaId,
+							siteId: r.siteId,
+							name: r.areaName,
+							version,
+							createdAt: now,
+							updatedAt: now
+						})
+						.run();
 			}
 			const existing = tx.select().from(assets).where(eq(assets.tag, r.tag)).get();
 			const id = existing?.id ?? crypto.randomUUID();
 			if (existing) {
-				tx.update(assets).set({ ...r.asset, siteId: r.siteId, areaId, version, updatedAt: now }).where(eq(assets.id, id)).run();
+				tx.update(assets)
+					.set({ ...r.asset, siteId: r.siteId, areaId, version, updatedAt: now })
+					.where(eq(assets.id, id))
+					.run();
 				updated++;
 			} else {
-				tx.insert(assets).values({ id, tag: r.tag, ...r.asset, siteId: r.siteId, areaId, version, createdAt: now, updatedAt: now }).run();
+				tx.insert(assets)
+					.values({
+						id,
+						tag: r.tag,
+						...r.asset,
+						siteId: r.siteId,
+						areaId,
+						version,
+						createdAt: now,
+						updatedAt: now
+					})
+					.run();
 				added++;
 			}
 			if (r.sources.length || !existing) {
 				tx.delete(excitationSources).where(eq(excitationSources.assetId, id)).run();
-				r.sources.forEach((s, i) => tx.insert(excitationSources).values({ id: crypto.randomUUID(), assetId: id, kind: s.kind, label: s.label, params: s.params, sortOrder: i, version, createdAt: now, updatedAt: now }).run());
+				r.sources.forEach((s, i) =>
+					tx
+						.insert(excitationSources)
+						.values({
+							id: crypto.randomUUID(),
+							assetId: id,
+							kind: s.kind,
+							label: s.label,
+							params: s.params,
+							sortOrder: i,
+							version,
+							createdAt: now,
+							updatedAt: now
+						})
+						.run()
+				);
 			}
-			audit.record(tx, { userId: actorId, entity: 'asset', entityId: id, action: existing ? 'import (update)' : 'import (new)', before: existing ? { name: existing.name, minRpm: existing.minRpm, maxRpm: existing.maxRpm } : null, after: { ...r.asset, sources: r.sources.length } }, now);
+			audit.record(
+				tx,
+				{
+					userId: actorId,
+					entity: 'asset',
+					entityId: id,
+					action: existing ? 'import (update)' : 'import (new)',
+					before: existing
+						? { name: existing.name, minRpm: existing.minRpm, maxRpm: existing.maxRpm }
+						: null,
+					after: { ...r.asset, sources: r.sources.length }
+				},
+				now
+			);
 			refreshAsset(tx, id, now);
 		}
 	});

@@ -8,5 +8,10 @@ export function byId(id: string) {
 }
 
 export function forAsset(assetId: string) {
-	return db.select().from(recordings).where(eq(recordings.assetId, assetId)).orderBy(desc(recordings.createdAt)).all();
+	return db
+		.select()
+		.from(recordings)
+		.where(eq(recordings.assetId, assetId))
+		.orderBy(desc(recordings.createdAt))
+		.all();
 }

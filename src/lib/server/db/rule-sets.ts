@@ -24,20 +24,59 @@ export function list() {
 		.all();
 }
 
-export function save(id: string | null, form: RuleSetForm, actorId: string, now = Date.now()): { id: string; recomputed: number } {
+export function save(
+	id: string | null,
+	form: RuleSetForm,
+	actorId: string,
+	now = Date.now()
+): { id: string; recomputed: number } {
 	return db.transaction((tx) => {
 		const version = nextVersion(tx);
-		const values = { name: form.name, kind: form.kind, percent: form.kind === 'fixed' ? form.percent : null, perKind: form.kind === 'fixed' && Object.keys(form.perKind).length ? form.perKind : null, source: form.source, edition: form.edition };
+		const values = {
+			name: form.name,
+			kind: form.kind,
+			percent: form.kind === 'fixed' ? form.percent : null,
+			perKind: form.kind === 'fixed' && Object.keys(form.perKind).length ? form.perKind : null,
+			source: form.source,
+			edition: form.edition
+		};
 		if (id === null) {
 			const newId = crypto.randomUUID();
-			tx.insert(ruleSets).values({ id: newId, ...values, version, createdAt: now, updatedAt: now }).run();
-			audit.record(tx, { userId: actorId, entity: 'rule_set', entityId: newId, action: 'create', after: values }, now);
+			tx.insert(ruleSets)
+				.values({ id: newId, ...values, version, createdAt: now, updatedAt: now })
+				.run();
+			audit.record(
+				tx,
+				{ userId: actorId, entity: 'rule_set', entityId: newId, action: 'create', after: values },
+				now
+			);
 			return { id: newId, recomputed: 0 };
 		}
 		const before = tx.select().from(ruleSets).where(eq(ruleSets.id, id)).get();
 		if (!before) throw new Error('No such rule set.');
-		tx.update(ruleSets).set({ ...values, version, updatedAt: now }).where(eq(ruleSets.id, id)).run();
-		audit.record(tx, { userId: actorId, entity: 'rule_set', entityId: id, action: 'update', before: { name: before.name, kind: before.kind, percent: before.percent, perKind: before.perKind, source: before.source, edition: before.edition }, after: values }, now);
+		tx.update(ruleSets)
+			.set({ ...values, version, updatedAt: now })
+			.where(eq(ruleSets.id, id))
+			.run();
+		audit.record(
+			tx,
+			{
+				userId: actorId,
+				entity: 'rule_set',
+				entityId: id,
+				action: 'update',
+				before: {
+					name: before.name,
+					kind: before.kind,
+					percent: before.percent,
+					perKind: before.perKind,
+					source: before.source,
+					edition: before.edition
+				},
+				after: values
+			},
+			now
+		);
 		return { id, recomputed: refreshRuleSet(tx, id, now) };
 	});
 }

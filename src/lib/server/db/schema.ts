@@ -5,7 +5,15 @@
  * `updatedAt`; deletions of syncable rows are kept in `deletions` so a pull can report them.
  * Times are integers in milliseconds since the epoch (UTC).
  */
-import { sqliteTable, text, integer, real, index, uniqueIndex, primaryKey } from 'drizzle-orm/sqlite-core';
+import {
+	sqliteTable,
+	text,
+	integer,
+	real,
+	index,
+	uniqueIndex,
+	primaryKey
+} from 'drizzle-orm/sqlite-core';
 
 import { ROLES } from '../../roles.ts';
 export { ROLES, type Role } from '../../roles.ts';
@@ -24,7 +32,9 @@ export const users = sqliteTable(
 		role: text('role', { enum: ROLES }).notNull(),
 		passwordHash: text('password_hash').notNull(),
 		disabled: integer('disabled', { mode: 'boolean' }).notNull().default(false),
-		unitSystem: text('unit_system', { enum: ['metric', 'us'] }).notNull().default('metric'),
+		unitSystem: text('unit_system', { enum: ['metric', 'us'] })
+			.notNull()
+			.default('metric'),
 		...timestamps
 	},
 	(t) => [uniqueIndex('users_email_idx').on(t.email)]
@@ -122,7 +132,11 @@ export const assets = sqliteTable(
 		version: integer('version').notNull().default(0),
 		...timestamps
 	},
-	(t) => [uniqueIndex('assets_tag_idx').on(t.tag), index('assets_site_idx').on(t.siteId, t.areaId), index('assets_version_idx').on(t.version)]
+	(t) => [
+		uniqueIndex('assets_tag_idx').on(t.tag),
+		index('assets_site_idx').on(t.siteId, t.areaId),
+		index('assets_version_idx').on(t.version)
+	]
 );
 
 export const excitationSources = sqliteTable(
@@ -201,11 +215,20 @@ export const checks = sqliteTable(
 		reviewedAt: integer('reviewed_at'),
 		reviewComment: text('review_comment')
 	},
-	(t) => [index('checks_asset_idx').on(t.assetId, t.checkedAt), index('checks_user_idx').on(t.userId)]
+	(t) => [
+		index('checks_asset_idx').on(t.assetId, t.checkedAt),
+		index('checks_user_idx').on(t.userId)
+	]
 );
 
-export { DIRECTIONS_LIST as DIRECTIONS, MODE_ORIGINS_LIST as MODE_ORIGINS } from '../../schemas/shared-enums.ts';
-import { DIRECTIONS_LIST as DIRECTIONS, MODE_ORIGINS_LIST as MODE_ORIGINS } from '../../schemas/shared-enums.ts';
+export {
+	DIRECTIONS_LIST as DIRECTIONS,
+	MODE_ORIGINS_LIST as MODE_ORIGINS
+} from '../../schemas/shared-enums.ts';
+import {
+	DIRECTIONS_LIST as DIRECTIONS,
+	MODE_ORIGINS_LIST as MODE_ORIGINS
+} from '../../schemas/shared-enums.ts';
 
 export const modes = sqliteTable(
 	'modes',
@@ -272,7 +295,10 @@ export const followUps = sqliteTable(
 		retestCheckId: text('retest_check_id').references(() => checks.id),
 		...timestamps
 	},
-	(t) => [index('follow_ups_asset_idx').on(t.assetId, t.status), index('follow_ups_assignee_idx').on(t.assigneeId, t.status)]
+	(t) => [
+		index('follow_ups_asset_idx').on(t.assetId, t.status),
+		index('follow_ups_assignee_idx').on(t.assigneeId, t.status)
+	]
 );
 
 /** Outgoing mail as sent, and — in development — every message the local SMTP catcher received. */

@@ -11,14 +11,22 @@ beforeAll(async () => {
 	await freshDatabase();
 });
 
-const count = (t: typeof users | typeof assets | typeof excitationSources) => db.select({ n: sql<number>`count(*)` }).from(t).get()!.n;
+const count = (t: typeof users | typeof assets | typeof excitationSources) =>
+	db
+		.select({ n: sql<number>`count(*)` })
+		.from(t)
+		.get()!.n;
 
 describe('demo seed', () => {
 	it('builds two sites with about 40 assets and one user per role, and is idempotent', async () => {
 		const first = await seed(db);
 		expect(first.sites).toBe(2);
 		expect(first.assets).toBeGreaterThanOrEqual(36);
-		const roles = db.select({ role: users.role }).from(users).all().map((u) => u.role);
+		const roles = db
+			.select({ role: users.role })
+			.from(users)
+			.all()
+			.map((u) => u.role);
 		expect(new Set(roles)).toEqual(new Set(['technician', 'supervisor', 'planner', 'admin']));
 		const before = [count(users), count(assets), count(excitationSources)];
 		const second = await seed(db);
@@ -32,6 +40,7 @@ describe('demo seed', () => {
 		const byAsset = new Map<string, typeof rows>();
 		for (const r of rows) byAsset.set(r.assetId, [...(byAsset.get(r.assetId) ?? []), r]);
 		expect(byAsset.size).toBe(count(assets));
-		for (const list of byAsset.values()) expect(excitationCatalogue(toEngineSources(list)).length).toBeGreaterThan(2);
+		for (const list of byAsset.values())
+			expect(excitationCatalogue(toEngineSources(list)).length).toBeGreaterThan(2);
 	});
 });

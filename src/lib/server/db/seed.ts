@@ -5,10 +5,26 @@
 import { createHash } from 'node:crypto';
 import { eq, sql } from 'drizzle-orm';
 import type { Db } from './client.ts';
-import { areas, assets, checks, excitationSources, modes, ruleSets, sites, userSites, users } from './schema.ts';
+import {
+	areas,
+	assets,
+	checks,
+	excitationSources,
+	modes,
+	ruleSets,
+	sites,
+	userSites,
+	users
+} from './schema.ts';
 import { computeCheck } from '../../checks/compute.ts';
 import { refreshAsset } from './status.ts';
-import { DEMO_ASSETS, DEMO_PASSWORDS, DEMO_RULE_SETS, DEMO_SITES, DEMO_USERS } from './demo-data.ts';
+import {
+	DEMO_ASSETS,
+	DEMO_PASSWORDS,
+	DEMO_RULE_SETS,
+	DEMO_SITES,
+	DEMO_USERS
+} from './demo-data.ts';
 import { sourceParams } from '../../schemas/excitation.ts';
 import { hashPassword } from '../auth/password.ts';
 import { nextVersion } from './versions.ts';
@@ -41,7 +57,12 @@ function prng(seed: number) {
 }
 
 export function isEmpty(db: Db): boolean {
-	return (db.select({ n: sql<number>`count(*)` }).from(users).get()?.n ?? 0) === 0;
+	return (
+		(db
+			.select({ n: sql<number>`count(*)` })
+			.from(users)
+			.get()?.n ?? 0) === 0
+	);
 }
 
 export async function seed(db: Db, now = Date.now()): Promise<SeedReport> {
@@ -53,14 +74,48 @@ export async function seed(db: Db, now = Date.now()): Promise<SeedReport> {
 		const version = nextVersion(tx);
 		for (const s of DEMO_SITES) {
 			const siteId = demoId(`site:${s.code}`);
-			report.sites += tx.insert(sites).values({ id: siteId, code: s.code, name: s.name, recheckDays: s.recheckDays, lineFrequencyHz: s.lineFrequencyHz, version, createdAt: now, updatedAt: now }).onConflictDoNothing().run().changes;
+			report.sites += tx
+				.insert(sites)
+				.values({
+					id: siteId,
+					code: s.code,
+					name: s.name,
+					recheckDays: s.recheckDays,
+					lineFrequencyHz: s.lineFrequencyHz,
+					version,
+					createdAt: now,
+					updatedAt: now
+				})
+				.onConflictDoNothing()
+				.run().changes;
 			for (const a of s.areas) {
-				tx.insert(areas).values({ id: demoId(`area:${s.code}:${a}`), siteId, name: a, version, createdAt: now, updatedAt: now }).onConflictDoNothing().run();
+				tx.insert(areas)
+					.values({
+						id: demoId(`area:${s.code}:${a}`),
+						siteId,
+						name: a,
+						version,
+						createdAt: now,
+						updatedAt: now
+					})
+					.onConflictDoNothing()
+					.run();
 			}
 		}
 		for (const r of DEMO_RULE_SETS) {
 			tx.insert(ruleSets)
-				.values({ id: demoId(`rule:${r.key}`), name: r.name, kind: r.kind, percent: r.percent, perKind: r.perKind, source: r.source, edition: r.edition, version, createdAt: now, updatedAt: now })
+				.values({
+					id: demoId(`rule:${r.key}`),
+					name: r.name,
+					kind: r.kind,
+					percent: r.percent,
+					perKind: r.perKind,
+					source: r.source,
+					edition: r.edition,
+					version,
+					createdAt: now,
+					updatedAt: now
+				})
 				.onConflictDoNothing()
 				.run();
 		}
@@ -68,10 +123,22 @@ export async function seed(db: Db, now = Date.now()): Promise<SeedReport> {
 			const id = demoId(`user:${u.email}`);
 			report.users += tx
 				.insert(users)
-				.values({ id, email: u.email, name: u.name, role: u.role, passwordHash: hashes.get(u.email) as string, createdAt: now, updatedAt: now })
+				.values({
+					id,
+					email: u.email,
+					name: u.name,
+					role: u.role,
+					passwordHash: hashes.get(u.email) as string,
+					createdAt: now,
+					updatedAt: now
+				})
 				.onConflictDoNothing()
 				.run().changes;
-			for (const code of u.sites) tx.insert(userSites).values({ userId: id, siteId: demoId(`site:${code}`) }).onConflictDoNothing().run();
+			for (const code of u.sites)
+				tx.insert(userSites)
+					.values({ userId: id, siteId: demoId(`site:${code}`) })
+					.onConflictDoNothing()
+					.run();
 		}
 		for (const a of DEMO_ASSETS) {
 			const assetId = demoId(`asset:${a.tag}`);
@@ -102,7 +169,17 @@ export async function seed(db: Db, now = Date.now()): Promise<SeedReport> {
 				const params = schema.parse(s.params); // the demo must satisfy the same schema as user input
 				report.sources += tx
 					.insert(excitationSources)
-					.values({ id: demoId(`source:${a.tag}:${i}`), assetId, kind: s.kind, label: s.label ?? '', params, sortOrder: i, version, createdAt: now, updatedAt: now })
+					.values({
+						id: demoId(`source:${a.tag}:${i}`),
+						assetId,
+						kind: s.kind,
+						label: s.label ?? '',
+						params,
+						sortOrder: i,
+						version,
+						createdAt: now,
+						updatedAt: now
+					})
 					.onConflictDoNothing()
 					.run().changes;
 			});
@@ -112,7 +189,12 @@ export async function seed(db: Db, now = Date.now()): Promise<SeedReport> {
 	return report;
 }
 
-type DemoMode = { frequencyHz: number; dampingRatio: number | null; direction: 'horizontal' | 'vertical' | 'axial'; location: string };
+type DemoMode = {
+	frequencyHz: number;
+	dampingRatio: number | null;
+	direction: 'horizontal' | 'vertical' | 'axial';
+	location: string;
+};
 
 /**
  * The demo's natural frequencies for one check. The scenario wants a believable mix: about a
@@ -120,8 +202,18 @@ type DemoMode = { frequencyHz: number; dampingRatio: number | null; direction: '
  * clear — the last two moved, with the engine's own remedy figures, to just outside (clear) or
  * just inside (tight) the margin the asset's rule asks.
  */
-function demoModes(a: (typeof DEMO_ASSETS)[number], index: number, drift: number, evaluate: (m: DemoMode[]) => ReturnType<typeof computeCheck>): DemoMode[] {
-	const base: DemoMode[] = a.modes.map((m) => ({ frequencyHz: +(m.hz * drift).toFixed(2), dampingRatio: m.zeta ?? null, direction: m.direction, location: m.location }));
+function demoModes(
+	a: (typeof DEMO_ASSETS)[number],
+	index: number,
+	drift: number,
+	evaluate: (m: DemoMode[]) => ReturnType<typeof computeCheck>
+): DemoMode[] {
+	const base: DemoMode[] = a.modes.map((m) => ({
+		frequencyHz: +(m.hz * drift).toFixed(2),
+		dampingRatio: m.zeta ?? null,
+		direction: m.direction,
+		location: m.location
+	}));
 	const target = index % 4 === 0 ? 'conflict' : index % 4 === 1 ? 'tight' : 'clear';
 	if (target === 'conflict') return base;
 	const remedies = evaluate(base).remedies;
@@ -133,7 +225,8 @@ function demoModes(a: (typeof DEMO_ASSETS)[number], index: number, drift: number
 		const goUp = up - m.frequencyHz < m.frequencyHz - down;
 		const edge = goUp ? up : down;
 		// clear: 4 % past the edge; tight: 4 % short of it, inside the margin but more than halfway out
-		const f = target === 'clear' ? (goUp ? edge * 1.04 : edge / 1.04) : goUp ? edge / 1.04 : edge * 1.04;
+		const f =
+			target === 'clear' ? (goUp ? edge * 1.04 : edge / 1.04) : goUp ? edge / 1.04 : edge * 1.04;
 		return { ...m, frequencyHz: +f.toFixed(2) };
 	});
 	return moved;
@@ -151,14 +244,21 @@ function seedChecks(tx: Parameters<Parameters<Db['transaction']>[0]>[0], now: nu
 		const assetId = demoId(`asset:${a.tag}`);
 		const tech = DEMO_USERS.find((u) => u.role === 'technician' && u.sites.includes(a.site))!;
 		const userId = demoId(`user:${tech.email}`);
-		const sources = tx.select().from(excitationSources).where(eq(excitationSources.assetId, assetId)).all();
+		const sources = tx
+			.select()
+			.from(excitationSources)
+			.where(eq(excitationSources.assetId, assetId))
+			.all();
 		const rs = DEMO_RULE_SETS.find((r) => r.key === a.ruleSet)!;
 		const ages = index % 7 === 2 ? [200] : index % 3 === 0 ? [112, 58, 9] : [96, 21];
 		ages.forEach((age, k) => {
 			const id = demoId(`check:${a.tag}:${k}`);
 			if (tx.select({ id: checks.id }).from(checks).where(eq(checks.id, id)).get()) return;
 			const checkedAt = now - age * DAY - Math.floor(rnd() * 8 * 3_600_000);
-			const rpm = a.minRpm === a.maxRpm ? a.minRpm : Math.round(a.minRpm + (0.35 + 0.6 * rnd()) * (a.maxRpm - a.minRpm));
+			const rpm =
+				a.minRpm === a.maxRpm
+					? a.minRpm
+					: Math.round(a.minRpm + (0.35 + 0.6 * rnd()) * (a.maxRpm - a.minRpm));
 			const drift = 1 + (ages.length - 1 - k) * 0.012 * (rnd() - 0.3);
 			const assetForCheck = { ...a, skipBands: 3, sources };
 			const rule = { kind: rs.kind, percent: rs.percent, perKind: rs.perKind };
@@ -181,10 +281,26 @@ function seedChecks(tx: Parameters<Parameters<Db['transaction']>[0]>[0], now: nu
 					worstMarginAtSpeedPct: sm.worstMarginAtSpeedPct,
 					worstMarginOverRangePct: sm.worstMarginOverRangePct,
 					worstPair: sm.worstPair,
-					result: { pairs: c.result.pairs, envelope: c.result.envelope, bands: c.bands.bands, warnings: c.bands.warnings, remedies: c.remedies } as unknown as Record<string, unknown>
+					result: {
+						pairs: c.result.pairs,
+						envelope: c.result.envelope,
+						bands: c.bands.bands,
+						warnings: c.bands.warnings,
+						remedies: c.remedies
+					} as unknown as Record<string, unknown>
 				})
 				.run();
-			ms.forEach((m, j) => tx.insert(modes).values({ id: demoId(`mode:${id}:${j}`), checkId: id, ...m, origin: m.dampingRatio ? 'recording' : 'typed' }).run());
+			ms.forEach((m, j) =>
+				tx
+					.insert(modes)
+					.values({
+						id: demoId(`mode:${id}:${j}`),
+						checkId: id,
+						...m,
+						origin: m.dampingRatio ? 'recording' : 'typed'
+					})
+					.run()
+			);
 			added++;
 		});
 	});

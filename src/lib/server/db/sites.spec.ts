@@ -15,16 +15,24 @@ let krw: { id: string; recheckDays: number };
 beforeAll(async () => {
 	await freshDatabase({ demo: true });
 	admin = db.select().from(users).where(eq(users.email, 'admin@example.com')).get()!.id;
-	tech = { id: db.select().from(users).where(eq(users.email, 'tech@example.com')).get()!.id, role: 'technician' };
+	tech = {
+		id: db.select().from(users).where(eq(users.email, 'tech@example.com')).get()!.id,
+		role: 'technician'
+	};
 	krw = db.select().from(sites).where(eq(sites.code, 'KRW')).get()!;
 });
 
-const staleOnBoard = (siteId: string) => board.query(boardQuery.parse({ site: siteId, size: '500' }), 'all').staleCount;
+const staleOnBoard = (siteId: string) =>
+	board.query(boardQuery.parse({ site: siteId, size: '500' }), 'all').staleCount;
 
 describe('sites and areas', () => {
 	it('a shorter recheck interval flags more checks stale on the board, at once', () => {
 		const before = staleOnBoard(krw.id);
-		const r = siteQueries.updateSite(krw.id, { name: 'Kettle River Water Works', recheckDays: 7 }, admin);
+		const r = siteQueries.updateSite(
+			krw.id,
+			{ name: 'Kettle River Water Works', recheckDays: 7 },
+			admin
+		);
 		expect(r.changed).toBe(true);
 		expect(r.restaled).toBeGreaterThan(0);
 		const after = staleOnBoard(krw.id);
@@ -33,13 +41,21 @@ describe('sites and areas', () => {
 		for (const row of db.select().from(assetStatus).where(eq(assetStatus.siteId, krw.id)).all()) {
 			if (row.checkedAt !== null) expect(row.staleAfter).toBe(row.checkedAt + 7 * 86_400_000);
 		}
-		siteQueries.updateSite(krw.id, { name: 'Kettle River Water Works', recheckDays: krw.recheckDays }, admin);
+		siteQueries.updateSite(
+			krw.id,
+			{ name: 'Kettle River Water Works', recheckDays: krw.recheckDays },
+			admin
+		);
 		expect(staleOnBoard(krw.id)).toBe(before);
 	});
 
 	it('a rename reaches the tablets in the next pull, and is in the audit log', () => {
 		const cursor = pull(tech, 0).cursor;
-		siteQueries.updateSite(krw.id, { name: 'Kettle River Water Works (North)', recheckDays: krw.recheckDays }, admin);
+		siteQueries.updateSite(
+			krw.id,
+			{ name: 'Kettle River Water Works (North)', recheckDays: krw.recheckDays },
+			admin
+		);
 		const delta = pull(tech, cursor);
 		expect(delta.full).toBe(false);
 		expect(delta.assets.length).toBeGreaterThan(0);
@@ -50,18 +66,34 @@ describe('sites and areas', () => {
 	});
 
 	it('refuses a second site with the same code and a second area with the same name', () => {
-		expect(() => siteQueries.createSite({ code: 'KRW', name: 'Another', recheckDays: 90 }, admin)).toThrow(/KRW is taken/);
-		const id = siteQueries.createSite({ code: 'OSP', name: 'Otter Springs Pumping', recheckDays: 90 }, admin);
+		expect(() =>
+			siteQueries.createSite({ code: 'KRW', name: 'Another', recheckDays: 90 }, admin)
+		).toThrow(/KRW is taken/);
+		const id = siteQueries.createSite(
+			{ code: 'OSP', name: 'Otter Springs Pumping', recheckDays: 90 },
+			admin
+		);
 		siteQueries.createArea(id, 'Intake', admin);
 		expect(() => siteQueries.createArea(id, 'intake', admin)).toThrow(/already has an area called/);
 		const second = siteQueries.createArea(id, 'Outfall', admin);
-		expect(() => siteQueries.renameArea(second, 'INTAKE', admin)).toThrow(/already has an area called/);
+		expect(() => siteQueries.renameArea(second, 'INTAKE', admin)).toThrow(
+			/already has an area called/
+		);
 		expect(siteQueries.renameArea(second, 'Outfall works', admin)).toBe(true);
-		expect(siteQueries.list().find((s) => s.id === id)?.areas.map((a) => a.name)).toEqual(['Intake', 'Outfall works']);
+		expect(
+			siteQueries
+				.list()
+				.find((s) => s.id === id)
+				?.areas.map((a) => a.name)
+		).toEqual(['Intake', 'Outfall works']);
 	});
 
 	it('says so when the site or area is gone', () => {
-		expect(() => siteQueries.updateSite('no-such-site', { name: 'X site', recheckDays: 30 }, admin)).toThrow(/does not exist/);
-		expect(() => siteQueries.renameArea('no-such-area', 'Somewhere', admin)).toThrow(/does not exist/);
+		expect(() =>
+			siteQueries.updateSite('no-such-site', { name: 'X site', recheckDays: 30 }, admin)
+		).toThrow(/does not exist/);
+		expect(() => siteQueries.renameArea('no-such-area', 'Somewhere', admin)).toThrow(
+			/does not exist/
+		);
 	});
 });

@@ -5,10 +5,19 @@
  */
 import { and, asc, desc, eq, ne, sql } from 'drizzle-orm';
 import type { Tx } from './client.ts';
-import { assetStatus, assets, checks, excitationSources, followUps, modes, ruleSets, sites, users } from './schema.ts';
+import {
+	assetStatus,
+	assets,
+	checks,
+	excitationSources,
+	followUps,
+	modes,
+	ruleSets,
+	sites,
+	users
+} from './schema.ts';
 import { computeCheck, type CheckSummary } from '../../checks/compute.ts';
 import { VERDICT_RANK } from '../../vibration/index.ts';
-
 
 export interface StatusRow {
 	latestCheckId: string | null;
@@ -26,7 +35,19 @@ function write(tx: Tx, assetId: string, row: StatusRow, now: number): void {
 			.where(and(eq(followUps.assetId, assetId), ne(followUps.status, 'retested')))
 			.get()?.n ?? 0;
 	const s = row.summary;
-	const asset = tx.select({ siteId: assets.siteId, areaId: assets.areaId, machineKind: assets.machineKind, tag: assets.tag, name: assets.name, recheckDays: sites.recheckDays }).from(assets).innerJoin(sites, eq(sites.id, assets.siteId)).where(eq(assets.id, assetId)).get();
+	const asset = tx
+		.select({
+			siteId: assets.siteId,
+			areaId: assets.areaId,
+			machineKind: assets.machineKind,
+			tag: assets.tag,
+			name: assets.name,
+			recheckDays: sites.recheckDays
+		})
+		.from(assets)
+		.innerJoin(sites, eq(sites.id, assets.siteId))
+		.where(eq(assets.id, assetId))
+		.get();
 	if (!asset) return;
 	const values = {
 		siteId: asset.siteId,
@@ -48,22 +69,45 @@ function write(tx: Tx, assetId: string, row: StatusRow, now: number): void {
 		openFollowUps,
 		updatedAt: now
 	};
-	tx.insert(assetStatus).values(values).onConflictDoUpdate({ target: assetStatus.assetId, set: values }).run();
+	tx.insert(assetStatus)
+		.values(values)
+		.onConflictDoUpdate({ target: assetStatus.assetId, set: values })
+		.run();
 }
 
 /** Re-evaluates an asset's latest check against its current data and rule set. */
 export function refreshAsset(tx: Tx, assetId: string, now = Date.now()): CheckSummary | null {
 	const asset = tx.select().from(assets).where(eq(assets.id, assetId)).get();
 	if (!asset) return null;
-	const latest = tx.select().from(checks).where(eq(checks.assetId, assetId)).orderBy(desc(checks.checkedAt), desc(checks.receivedAt)).limit(1).get();
+	const latest = tx
+		.select()
+		.from(checks)
+		.where(eq(checks.assetId, assetId))
+		.orderBy(desc(checks.checkedAt), desc(checks.receivedAt))
+		.limit(1)
+		.get();
 	if (!latest) {
-		write(tx, assetId, { latestCheckId: null, checkedAt: null, checkedBy: null, measuredRpm: null, summary: null }, now);
+		write(
+			tx,
+			assetId,
+			{ latestCheckId: null, checkedAt: null, checkedBy: null, measuredRpm: null, summary: null },
+			now
+		);
 		return null;
 	}
-	const sources = tx.select().from(excitationSources).where(eq(excitationSources.assetId, assetId)).orderBy(asc(excitationSources.sortOrder)).all();
-	const rule = asset.ruleSetId ? (tx.select().from(ruleSets).where(eq(ruleSets.id, asset.ruleSetId)).get() ?? null) : null;
+	const sources = tx
+		.select()
+		.from(excitationSources)
+		.where(eq(excitationSources.assetId, assetId))
+		.orderBy(asc(excitationSources.sortOrder))
+		.all();
+	const rule = asset.ruleSetId
+		? (tx.select().from(ruleSets).where(eq(ruleSets.id, asset.ruleSetId)).get() ?? null)
+		: null;
 	const m = tx.select().from(modes).where(eq(modes.checkId, latest.id)).all();
-	const by = tx.select({ name: users.name }).from(users).where(eq(users.id, latest.userId)).get()?.name ?? null;
+	const by =
+		tx.select({ name: users.name }).from(users).where(eq(users.id, latest.userId)).get()?.name ??
+		null;
 	let summary: CheckSummary | null = null;
 	try {
 		summary = computeCheck(
@@ -73,22 +117,60 @@ export function refreshAsset(tx: Tx, assetId: string, now = Date.now()): CheckSu
 			m.map((x) => ({ frequencyHz: x.frequencyHz, dampingRatio: x.dampingRatio }))
 		).summary;
 	} catch (e) {
-		console.warn(`[detune] asset ${asset.tag}: latest check cannot be re-evaluated: ${(e as Error).message}`);
+		console.warn(
+			`[detune] asset ${asset.tag}: latest check cannot be re-evaluated: ${(e as Error).message}`
+		);
 	}
-	write(tx, assetId, { latestCheckId: latest.id, checkedAt: latest.checkedAt, checkedBy: by, measuredRpm: latest.measuredRpm, summary }, now);
+	write(
+		tx,
+		assetId,
+		{
+			latestCheckId: latest.id,
+			checkedAt: latest.checkedAt,
+			checkedBy: by,
+			measuredRpm: latest.measuredRpm,
+			summary
+		},
+		now
+	);
 	return summary;
 }
 
 /** After a new check: the status moves only when it is the asset's latest. */
-export function afterCheck(tx: Tx, assetId: string, check: { id: string; checkedAt: number; measuredRpm: number | null; userName: string | null }, summary: CheckSummary, now = Date.now()): void {
-	const current = tx.select({ checkedAt: assetStatus.checkedAt }).from(assetStatus).where(eq(assetStatus.assetId, assetId)).get();
+export function afterCheck(
+	tx: Tx,
+	assetId: string,
+	check: { id: string; checkedAt: number; measuredRpm: number | null; userName: string | null },
+	summary: CheckSummary,
+	now = Date.now()
+): void {
+	const current = tx
+		.select({ checkedAt: assetStatus.checkedAt })
+		.from(assetStatus)
+		.where(eq(assetStatus.assetId, assetId))
+		.get();
 	if (current?.checkedAt && current.checkedAt > check.checkedAt) return;
-	write(tx, assetId, { latestCheckId: check.id, checkedAt: check.checkedAt, checkedBy: check.userName, measuredRpm: check.measuredRpm, summary }, now);
+	write(
+		tx,
+		assetId,
+		{
+			latestCheckId: check.id,
+			checkedAt: check.checkedAt,
+			checkedBy: check.userName,
+			measuredRpm: check.measuredRpm,
+			summary
+		},
+		now
+	);
 }
 
 /** After a rule-set change: every asset it governs. */
 export function refreshRuleSet(tx: Tx, ruleSetId: string, now = Date.now()): number {
-	const ids = tx.select({ id: assets.id }).from(assets).where(eq(assets.ruleSetId, ruleSetId)).all();
+	const ids = tx
+		.select({ id: assets.id })
+		.from(assets)
+		.where(eq(assets.ruleSetId, ruleSetId))
+		.all();
 	for (const { id } of ids) refreshAsset(tx, id, now);
 	return ids.length;
 }

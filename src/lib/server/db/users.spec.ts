@@ -8,8 +8,14 @@ let a2: string;
 
 beforeAll(async () => {
 	await freshDatabase();
-	a1 = users.create({ email: 'a1@example.com', name: 'Admin One', role: 'admin', passwordHash: 'x', siteIds: [] }, null);
-	a2 = users.create({ email: 'a2@example.com', name: 'Admin Two', role: 'admin', passwordHash: 'x', siteIds: [] }, null);
+	a1 = users.create(
+		{ email: 'a1@example.com', name: 'Admin One', role: 'admin', passwordHash: 'x', siteIds: [] },
+		null
+	);
+	a2 = users.create(
+		{ email: 'a2@example.com', name: 'Admin Two', role: 'admin', passwordHash: 'x', siteIds: [] },
+		null
+	);
 });
 
 describe('users', () => {
@@ -23,13 +29,29 @@ describe('users', () => {
 	});
 
 	it('refuses a second account for the same address, whatever its case', () => {
-		expect(() => users.create({ email: 'A1@example.com', name: 'Dup', role: 'technician', passwordHash: 'x', siteIds: [] }, null)).toThrow(users.DuplicateEmailError);
+		expect(() =>
+			users.create(
+				{
+					email: 'A1@example.com',
+					name: 'Dup',
+					role: 'technician',
+					passwordHash: 'x',
+					siteIds: []
+				},
+				null
+			)
+		).toThrow(users.DuplicateEmailError);
 	});
 
 	it('audits every change with before and after', () => {
 		users.update(a2, { name: 'Admin Deux' }, a2);
 		const entries = audit.forEntity('user', a2);
-		expect(entries[0]).toMatchObject({ action: 'update', before: { name: 'Admin Two' }, after: { name: 'Admin Deux' }, userName: 'Admin Deux' });
+		expect(entries[0]).toMatchObject({
+			action: 'update',
+			before: { name: 'Admin Two' },
+			after: { name: 'Admin Deux' },
+			userName: 'Admin Deux'
+		});
 		expect(entries.map((e) => e.action)).toContain('create');
 	});
 });

@@ -27,10 +27,13 @@ export class UnknownSiteError extends Error {
 	}
 }
 
-
 function checkSites(tx: Tx, siteIds: string[]): void {
 	if (siteIds.length === 0) return;
-	const found = tx.select({ id: sites.id }).from(sites).where(inArray(sites.id, siteIds)).all().length;
+	const found = tx
+		.select({ id: sites.id })
+		.from(sites)
+		.where(inArray(sites.id, siteIds))
+		.all().length;
 	if (found !== new Set(siteIds).size) throw new UnknownSiteError();
 }
 
@@ -64,17 +67,30 @@ export function byId(id: string): User | undefined {
 }
 
 export function siteIdsOf(userId: string): string[] {
-	return db.select({ siteId: userSites.siteId }).from(userSites).where(eq(userSites.userId, userId)).all().map((r) => r.siteId);
+	return db
+		.select({ siteId: userSites.siteId })
+		.from(userSites)
+		.where(eq(userSites.userId, userId))
+		.all()
+		.map((r) => r.siteId);
 }
 
 export function list(): PublicUser[] {
 	const rows = db.select(publicColumns).from(users).orderBy(asc(users.name)).all();
 	const links = db.select().from(userSites).all();
-	return rows.map((u) => ({ ...u, siteIds: links.filter((l) => l.userId === u.id).map((l) => l.siteId) }));
+	return rows.map((u) => ({
+		...u,
+		siteIds: links.filter((l) => l.userId === u.id).map((l) => l.siteId)
+	}));
 }
 
 export function byRole(role: Role) {
-	return db.select(publicColumns).from(users).where(and(eq(users.role, role), eq(users.disabled, false))).orderBy(asc(users.name)).all();
+	return db
+		.select(publicColumns)
+		.from(users)
+		.where(and(eq(users.role, role), eq(users.disabled, false)))
+		.orderBy(asc(users.name))
+		.all();
 }
 
 function activeAdminsOtherThan(id: string): number {
@@ -98,29 +114,68 @@ export function create(input: NewUser, actorId: string | null, now = Date.now())
 	const id = crypto.randomUUID();
 	const email = input.email.trim().toLowerCase();
 	db.transaction((tx) => {
-		if (tx.select({ id: users.id }).from(users).where(eq(users.email, email)).get()) throw new DuplicateEmailError(email);
+		if (tx.select({ id: users.id }).from(users).where(eq(users.email, email)).get())
+			throw new DuplicateEmailError(email);
 		checkSites(tx, input.siteIds);
-		tx.insert(users).values({ id, email, name: input.name, role: input.role, passwordHash: input.passwordHash, createdAt: now, updatedAt: now }).run();
+		tx.insert(users)
+			.values({
+				id,
+				email,
+				name: input.name,
+				role: input.role,
+				passwordHash: input.passwordHash,
+				createdAt: now,
+				updatedAt: now
+			})
+			.run();
 		for (const siteId of input.siteIds) tx.insert(userSites).values({ userId: id, siteId }).run();
-		audit.record(tx, { userId: actorId, entity: 'user', entityId: id, action: 'create', after: { email, name: input.name, role: input.role, siteIds: input.siteIds } }, now);
+		audit.record(
+			tx,
+			{
+				userId: actorId,
+				entity: 'user',
+				entityId: id,
+				action: 'create',
+				after: { email, name: input.name, role: input.role, siteIds: input.siteIds }
+			},
+			now
+		);
 	});
 	return id;
 }
 
-export function update(id: string, changes: { role?: Role; name?: string; siteIds?: string[] }, actorId: string, now = Date.now()): void {
+export function update(
+	id: string,
+	changes: { role?: Role; name?: string; siteIds?: string[] },
+	actorId: string,
+	now = Date.now()
+): void {
 	db.transaction((tx) => {
 		const before = tx.select().from(users).where(eq(users.id, id)).get();
 		if (!before) throw new UnknownUserError();
 		if (changes.siteIds) checkSites(tx, changes.siteIds);
-		if (changes.role && changes.role !== 'admin' && before.role === 'admin' && !before.disabled && activeAdminsOtherThan(id) === 0) throw new LastAdminError();
-		const beforeSites = tx.select().from(userSites).where(eq(userSites.userId, id)).all().map((r) => r.siteId);
+		if (
+			changes.role &&
+			changes.role !== 'admin' &&
+			before.role === 'admin' &&
+			!before.disabled &&
+			activeAdminsOtherThan(id) === 0
+		)
+			throw new LastAdminError();
+		const beforeSites = tx
+			.select()
+			.from(userSites)
+			.where(eq(userSites.userId, id))
+			.all()
+			.map((r) => r.siteId);
 		tx.update(users)
 			.set({ role: changes.role ?? before.role, name: changes.name ?? before.name, updatedAt: now })
 			.where(eq(users.id, id))
 			.run();
 		if (changes.siteIds) {
 			tx.delete(userSites).where(eq(userSites.userId, id)).run();
-			for (const siteId of changes.siteIds) tx.insert(userSites).values({ userId: id, siteId }).run();
+			for (const siteId of changes.siteIds)
+				tx.insert(userSites).values({ userId: id, siteId }).run();
 		}
 		audit.record(
 			tx,
@@ -130,20 +185,41 @@ export function update(id: string, changes: { role?: Role; name?: string; siteId
 				entityId: id,
 				action: 'update',
 				before: { role: before.role, name: before.name, siteIds: beforeSites },
-				after: { role: changes.role ?? before.role, name: changes.name ?? before.name, siteIds: changes.siteIds ?? beforeSites }
+				after: {
+					role: changes.role ?? before.role,
+					name: changes.name ?? before.name,
+					siteIds: changes.siteIds ?? beforeSites
+				}
 			},
 			now
 		);
 	});
 }
 
-export function setDisabled(id: string, disabled: boolean, actorId: string, now = Date.now()): void {
+export function setDisabled(
+	id: string,
+	disabled: boolean,
+	actorId: string,
+	now = Date.now()
+): void {
 	db.transaction((tx) => {
 		const before = tx.select().from(users).where(eq(users.id, id)).get();
 		if (!before) throw new UnknownUserError();
-		if (disabled && before.role === 'admin' && !before.disabled && activeAdminsOtherThan(id) === 0) throw new LastAdminError();
+		if (disabled && before.role === 'admin' && !before.disabled && activeAdminsOtherThan(id) === 0)
+			throw new LastAdminError();
 		tx.update(users).set({ disabled, updatedAt: now }).where(eq(users.id, id)).run();
-		audit.record(tx, { userId: actorId, entity: 'user', entityId: id, action: disabled ? 'disable' : 'enable', before: { disabled: before.disabled }, after: { disabled } }, now);
+		audit.record(
+			tx,
+			{
+				userId: actorId,
+				entity: 'user',
+				entityId: id,
+				action: disabled ? 'disable' : 'enable',
+				before: { disabled: before.disabled },
+				after: { disabled }
+			},
+			now
+		);
 	});
 }
 
@@ -153,14 +229,31 @@ export function setUnitSystem(id: string, unitSystem: 'metric' | 'us', now = Dat
 	if (r.changes === 0) throw new UnknownUserError();
 }
 
-export function setPasswordHash(id: string, passwordHash: string, actorId: string, now = Date.now()): void {
+export function setPasswordHash(
+	id: string,
+	passwordHash: string,
+	actorId: string,
+	now = Date.now()
+): void {
 	db.transaction((tx) => {
-		const result = tx.update(users).set({ passwordHash, updatedAt: now }).where(eq(users.id, id)).run();
+		const result = tx
+			.update(users)
+			.set({ passwordHash, updatedAt: now })
+			.where(eq(users.id, id))
+			.run();
 		if (result.changes === 0) throw new UnknownUserError();
-		audit.record(tx, { userId: actorId, entity: 'user', entityId: id, action: 'reset-password' }, now);
+		audit.record(
+			tx,
+			{ userId: actorId, entity: 'user', entityId: id, action: 'reset-password' },
+			now
+		);
 	});
 }
 
 export function allSites() {
-	return db.select({ id: sites.id, code: sites.code, name: sites.name }).from(sites).orderBy(asc(sites.name)).all();
+	return db
+		.select({ id: sites.id, code: sites.code, name: sites.name })
+		.from(sites)
+		.orderBy(asc(sites.name))
+		.all();
 }

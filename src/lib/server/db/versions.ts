@@ -15,9 +15,15 @@ export function nextVersion(tx: Tx): number {
 		.set({ version: sql`${syncState.version} + 1` })
 		.where(eq(syncState.id, 1))
 		.run();
-	return (tx.select({ v: syncState.version }).from(syncState).where(eq(syncState.id, 1)).get() as { v: number }).v;
+	return (
+		tx.select({ v: syncState.version }).from(syncState).where(eq(syncState.id, 1)).get() as {
+			v: number;
+		}
+	).v;
 }
 
 export function currentVersion(tx: Pick<Db, 'select'>): number {
-	return tx.select({ v: syncState.version }).from(syncState).where(eq(syncState.id, 1)).get()?.v ?? 0;
+	return (
+		tx.select({ v: syncState.version }).from(syncState).where(eq(syncState.id, 1)).get()?.v ?? 0
+	);
 }

@@ -32,7 +32,9 @@ function transport(): Transporter {
 					host: setting('SMTP_HOST'),
 					port: Number(setting('SMTP_PORT') ?? 587),
 					secure: setting('SMTP_SECURE') === 'true',
-					auth: setting('SMTP_USER') ? { user: setting('SMTP_USER') as string, pass: setting('SMTP_PASSWORD') ?? '' } : undefined
+					auth: setting('SMTP_USER')
+						? { user: setting('SMTP_USER') as string, pass: setting('SMTP_PASSWORD') ?? '' }
+						: undefined
 				}
 			: { host: '127.0.0.1', port: localPort(), secure: false, ignoreTLS: true }
 	);
@@ -60,16 +62,36 @@ export async function send(m: Outgoing): Promise<'sent' | 'duplicate' | 'failed'
 	const id = crypto.randomUUID();
 	const inserted = db
 		.insert(mail)
-		.values({ id, dedupeKey: m.dedupeKey, kind: m.kind, toAddress: m.to, subject: m.subject, textBody: m.text, htmlBody: m.html, status: 'queued', createdAt: Date.now() })
+		.values({
+			id,
+			dedupeKey: m.dedupeKey,
+			kind: m.kind,
+			toAddress: m.to,
+			subject: m.subject,
+			textBody: m.text,
+			htmlBody: m.html,
+			status: 'queued',
+			createdAt: Date.now()
+		})
 		.onConflictDoNothing()
 		.run();
 	if (inserted.changes === 0) return 'duplicate';
 	try {
-		await transport().sendMail({ from: fromAddress(), to: m.to, subject: m.subject, text: m.text, html: m.html, headers: { 'X-Detune-Kind': m.kind } });
+		await transport().sendMail({
+			from: fromAddress(),
+			to: m.to,
+			subject: m.subject,
+			text: m.text,
+			html: m.html,
+			headers: { 'X-Detune-Kind': m.kind }
+		});
 		db.update(mail).set({ status: 'sent' }).where(eq(mail.id, id)).run();
 		return 'sent';
 	} catch (e) {
-		db.update(mail).set({ status: 'failed', error: (e as Error).message }).where(eq(mail.id, id)).run();
+		db.update(mail)
+			.set({ status: 'failed', error: (e as Error).message })
+			.where(eq(mail.id, id))
+			.run();
 		console.error('[detune] mail failed:', (e as Error).message);
 		return 'failed';
 	}
@@ -91,20 +113,26 @@ export function decodeQuotedPrintable(s: string): string {
 /** The subject and the text/plain part of a raw message (enough for the mailbox page). */
 export function readMessage(raw: string): { subject: string; text: string } {
 	const [head] = raw.split(/\r?\n\r?\n/, 1);
-	const subject = /^Subject: (.*(?:\r?\n[ \t].*)*)/im.exec(head)?.[1]?.replace(/\r?\n[ \t]/g, ' ') ?? '';
+	const subject =
+		/^Subject: (.*(?:\r?\n[ \t].*)*)/im.exec(head)?.[1]?.replace(/\r?\n[ \t]/g, ' ') ?? '';
 	const parts = raw.split(/\r?\n--[^\r\n]+\r?\n/);
 	const plain = parts.find((p) => /^Content-Type: text\/plain/im.test(p)) ?? raw;
 	const [partHead, ...rest] = plain.split(/\r?\n\r?\n/);
 	let body = rest.join('\n\n').replace(/\r?\n--[^\r\n]+--\s*$/, '');
-	if (/Content-Transfer-Encoding: quoted-printable/i.test(partHead)) body = decodeQuotedPrintable(body);
+	if (/Content-Transfer-Encoding: quoted-printable/i.test(partHead))
+		body = decodeQuotedPrintable(body);
 	return { subject: decodeWords(subject), text: body.trim() };
 }
 
 function decodeWords(s: string): string {
 	// whitespace between two encoded words is folding, not text (RFC 2047 §6.2)
-	return s.replace(/\?=\s+=\?/g, '?==?').replace(/=\?utf-8\?([QB])\?([^?]*)\?=/gi, (_m, enc: string, data: string) =>
-		enc.toUpperCase() === 'B' ? new TextDecoder().decode(Uint8Array.from(atob(data), (c) => c.charCodeAt(0))) : decodeQuotedPrintable(data.replace(/_/g, ' '))
-	);
+	return s
+		.replace(/\?=\s+=\?/g, '?==?')
+		.replace(/=\?utf-8\?([QB])\?([^?]*)\?=/gi, (_m, enc: string, data: string) =>
+			enc.toUpperCase() === 'B'
+				? new TextDecoder().decode(Uint8Array.from(atob(data), (c) => c.charCodeAt(0)))
+				: decodeQuotedPrintable(data.replace(/_/g, ' '))
+		);
 }
 
 let catcher: SMTPServer | null = null;
@@ -124,7 +152,18 @@ export function startCatcher(): Promise<void> {
 				const raw = Buffer.concat(chunks).toString('utf8');
 				const { subject, text } = readMessage(raw);
 				const to = session.envelope.rcptTo.map((r) => r.address).join(', ');
-				db.insert(mail).values({ id: crypto.randomUUID(), kind: 'received', toAddress: to, subject, textBody: text, raw, status: 'received', createdAt: Date.now() }).run();
+				db.insert(mail)
+					.values({
+						id: crypto.randomUUID(),
+						kind: 'received',
+						toAddress: to,
+						subject,
+						textBody: text,
+						raw,
+						status: 'received',
+						createdAt: Date.now()
+					})
+					.run();
 				callback();
 			});
 		}

@@ -19,7 +19,11 @@ export async function runReminders(now = Date.now()): Promise<{ sent: number; sk
 	for (const f of followUps.due(soon)) {
 		if (!f.assigneeEmail || !f.dueDate) continue;
 		const kind = f.dueDate < today ? 'overdue' : 'due-soon';
-		const r = await send({ ...followUpMail(kind, f), to: f.assigneeEmail, dedupeKey: `${kind}:${f.id}:${f.dueDate}` });
+		const r = await send({
+			...followUpMail(kind, f),
+			to: f.assigneeEmail,
+			dedupeKey: `${kind}:${f.id}:${f.dueDate}`
+		});
 		if (r === 'sent') sent++;
 		else skipped++;
 	}

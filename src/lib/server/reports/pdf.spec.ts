@@ -24,7 +24,13 @@ const textOf = async (pdf: Buffer) => {
 describe('PDF reports', () => {
 	it('a check report holds the asset tag, every margin, the verdict and the cautions', async () => {
 		const asset = db.select().from(assets).where(eq(assets.tag, 'KRW-RWP-103')).get()!;
-		const check = db.select().from(checks).where(eq(checks.assetId, asset.id)).orderBy(desc(checks.checkedAt)).limit(1).get()!;
+		const check = db
+			.select()
+			.from(checks)
+			.where(eq(checks.assetId, asset.id))
+			.orderBy(desc(checks.checkedAt))
+			.limit(1)
+			.get()!;
 		const r = await checkReport(check.id);
 		expect(r!.pdf.subarray(0, 5).toString()).toBe('%PDF-');
 		const text = await textOf(r!.pdf);
@@ -34,7 +40,9 @@ describe('PDF reports', () => {
 			{ ...sheet.asset, sources: sheet.sources },
 			sheet.ruleSet,
 			check.measuredRpm,
-			checkQueries.modesOf(check.id).map((m) => ({ frequencyHz: m.frequencyHz, dampingRatio: m.dampingRatio }))
+			checkQueries
+				.modesOf(check.id)
+				.map((m) => ({ frequencyHz: m.frequencyHz, dampingRatio: m.dampingRatio }))
 		);
 		expect(c.result.pairs.length).toBeGreaterThan(3);
 		for (const p of c.result.pairs) {

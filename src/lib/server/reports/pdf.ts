@@ -22,7 +22,8 @@ const ink = '#111318';
 const muted = '#4a505c';
 const accent = '#0b6e69';
 const pct = (v: number | null) => (v === null ? '-' : `${v.toFixed(1)} %`);
-const when = (t: number | null) => (t === null ? '-' : new Date(t).toISOString().replace('T', ' ').slice(0, 16) + ' UTC');
+const when = (t: number | null) =>
+	t === null ? '-' : new Date(t).toISOString().replace('T', ' ').slice(0, 16) + ' UTC';
 
 function toBuffer(doc: PDFKit.PDFDocument): Promise<Buffer> {
 	return new Promise((resolve, reject) => {
@@ -36,7 +37,16 @@ function toBuffer(doc: PDFKit.PDFDocument): Promise<Buffer> {
 
 function heading(doc: PDFKit.PDFDocument, text: string) {
 	if (doc.y > 720) doc.addPage();
-	doc.moveDown(0.6).font('Helvetica-Bold').fontSize(13).fillColor(accent).text(text).moveDown(0.2).font('Helvetica').fontSize(9.5).fillColor(ink);
+	doc
+		.moveDown(0.6)
+		.font('Helvetica-Bold')
+		.fontSize(13)
+		.fillColor(accent)
+		.text(text)
+		.moveDown(0.2)
+		.font('Helvetica')
+		.fontSize(9.5)
+		.fillColor(ink);
 }
 
 function table(doc: PDFKit.PDFDocument, head: string[], rows: string[][], widths: number[]) {
@@ -61,7 +71,14 @@ function table(doc: PDFKit.PDFDocument, head: string[], rows: string[][], widths
 }
 
 /** Frequency against speed: excitation lines, natural frequencies with their margin bands, the range, the speed. */
-function diagram(doc: PDFKit.PDFDocument, c: ComputedCheck, minRpm: number, maxRpm: number, measured: number | null, modes: number[]) {
+function diagram(
+	doc: PDFKit.PDFDocument,
+	c: ComputedCheck,
+	minRpm: number,
+	maxRpm: number,
+	measured: number | null,
+	modes: number[]
+) {
 	if (doc.y > 520) doc.addPage();
 	const X = doc.page.margins.left + 40;
 	const Y = doc.y + 10;
@@ -74,21 +91,58 @@ function diagram(doc: PDFKit.PDFDocument, c: ComputedCheck, minRpm: number, maxR
 	const sy = (f: number) => Y + H - (Math.min(f, yMax) / yMax) * H;
 	doc.save();
 	doc.rect(sx(minRpm), Y, Math.max(1, sx(maxRpm) - sx(minRpm)), H).fill('#e9ebe5');
-	for (const b of c.bands.bands) doc.rect(sx(b.lowRpm), Y, Math.max(1, sx(b.highRpm) - sx(b.lowRpm)), H).fillOpacity(0.35).fill('#f9dcd9').fillOpacity(1);
+	for (const b of c.bands.bands)
+		doc
+			.rect(sx(b.lowRpm), Y, Math.max(1, sx(b.highRpm) - sx(b.lowRpm)), H)
+			.fillOpacity(0.35)
+			.fill('#f9dcd9')
+			.fillOpacity(1);
 	modes.forEach((fn, i) => {
-		const req = Math.max(0, ...c.result.pairs.filter((p) => p.modeIndex === i).map((p) => p.requiredOverRangePct)) / 100;
+		const req =
+			Math.max(
+				0,
+				...c.result.pairs.filter((p) => p.modeIndex === i).map((p) => p.requiredOverRangePct)
+			) / 100;
 		const lo = fn / (1 + req);
 		const hi = req < 1 ? fn / (1 - req) : yMax;
-		doc.rect(X, sy(hi), W, Math.max(0.5, sy(lo) - sy(hi))).fillOpacity(0.25).fill('#f5b451').fillOpacity(1);
-		doc.moveTo(X, sy(fn)).lineTo(X + W, sy(fn)).lineWidth(1.5).stroke('#8a4b00');
-		doc.fontSize(7).fillColor(ink).text(`${fn.toFixed(1)} Hz`, X + W + 2, sy(fn) - 3);
+		doc
+			.rect(X, sy(hi), W, Math.max(0.5, sy(lo) - sy(hi)))
+			.fillOpacity(0.25)
+			.fill('#f5b451')
+			.fillOpacity(1);
+		doc
+			.moveTo(X, sy(fn))
+			.lineTo(X + W, sy(fn))
+			.lineWidth(1.5)
+			.stroke('#8a4b00');
+		doc
+			.fontSize(7)
+			.fillColor(ink)
+			.text(`${fn.toFixed(1)} Hz`, X + W + 2, sy(fn) - 3);
 	});
 	doc.rect(X, Y, W, H).clip();
 	for (const l of c.result.lines) {
-		if (l.order !== null) doc.moveTo(sx(x0), sy((l.order * x0) / 60)).lineTo(sx(x1), sy((l.order * x1) / 60)).lineWidth(0.8).stroke(accent);
-		else doc.moveTo(X, sy(l.fixedHz as number)).lineTo(X + W, sy(l.fixedHz as number)).dash(3, { space: 2 }).lineWidth(0.8).stroke(accent).undash();
+		if (l.order !== null)
+			doc
+				.moveTo(sx(x0), sy((l.order * x0) / 60))
+				.lineTo(sx(x1), sy((l.order * x1) / 60))
+				.lineWidth(0.8)
+				.stroke(accent);
+		else
+			doc
+				.moveTo(X, sy(l.fixedHz as number))
+				.lineTo(X + W, sy(l.fixedHz as number))
+				.dash(3, { space: 2 })
+				.lineWidth(0.8)
+				.stroke(accent)
+				.undash();
 	}
-	if (measured !== null) doc.moveTo(sx(measured), Y).lineTo(sx(measured), Y + H).lineWidth(1.5).stroke(ink);
+	if (measured !== null)
+		doc
+			.moveTo(sx(measured), Y)
+			.lineTo(sx(measured), Y + H)
+			.lineWidth(1.5)
+			.stroke(ink);
 	doc.restore();
 	doc.rect(X, Y, W, H).lineWidth(0.5).stroke(muted);
 	doc.fontSize(7.5).fillColor(muted);
@@ -103,7 +157,14 @@ function diagram(doc: PDFKit.PDFDocument, c: ComputedCheck, minRpm: number, maxR
 	doc.fillColor(ink).fontSize(9.5);
 	doc.x = doc.page.margins.left;
 	doc.y = Y + H + 30;
-	doc.fontSize(8).fillColor(muted).text('Lines: excitation orders (solid) and fixed frequencies (dashed). Bands: each natural frequency with its required margin. Grey: the speed range; red: avoidance bands; black: the measured speed.').fillColor(ink).fontSize(9.5);
+	doc
+		.fontSize(8)
+		.fillColor(muted)
+		.text(
+			'Lines: excitation orders (solid) and fixed frequencies (dashed). Bands: each natural frequency with its required margin. Grey: the speed range; red: avoidance bands; black: the measured speed.'
+		)
+		.fillColor(ink)
+		.fontSize(9.5);
 }
 
 function cautions(doc: PDFKit.PDFDocument) {
@@ -117,8 +178,13 @@ function loadCheck(checkId: string) {
 	const sheet = assetQueries.sheet(check.assetId);
 	if (!sheet) return null;
 	const modes = checkQueries.modesOf(check.id);
-	const by = db.select({ name: users.name }).from(users).where(eq(users.id, check.userId)).get()?.name ?? 'unknown';
-	const reviewer = check.reviewedBy ? (db.select({ name: users.name }).from(users).where(eq(users.id, check.reviewedBy)).get()?.name ?? null) : null;
+	const by =
+		db.select({ name: users.name }).from(users).where(eq(users.id, check.userId)).get()?.name ??
+		'unknown';
+	const reviewer = check.reviewedBy
+		? (db.select({ name: users.name }).from(users).where(eq(users.id, check.reviewedBy)).get()
+				?.name ?? null)
+		: null;
 	const c = computeCheck(
 		{ ...sheet.asset, sources: sheet.sources },
 		sheet.ruleSet,
@@ -131,48 +197,119 @@ function loadCheck(checkId: string) {
 function checkSection(doc: PDFKit.PDFDocument, d: NonNullable<ReturnType<typeof loadCheck>>) {
 	const { check, sheet, modes, c } = d;
 	heading(doc, `Check of ${when(check.checkedAt)}`);
-	doc.text(`Measured by ${d.by}; received ${when(check.receivedAt)}; measured speed ${check.measuredRpm ?? '-'} rpm.`);
-	doc.text(d.reviewer ? `Reviewed by ${d.reviewer} on ${when(check.reviewedAt)}${check.reviewComment ? `: ${check.reviewComment}` : ''}.` : 'Not reviewed yet.');
-	doc.text(`Rule: ${sheet.ruleSet ? `${sheet.ruleSet.name} (${sheet.ruleSet.source}${sheet.ruleSet.edition ? `, ${sheet.ruleSet.edition}` : ''})` : 'Detune default 10 % (common practice)'}. Margin = |fn - fe| / fe.`);
-	doc.moveDown(0.3).font('Helvetica-Bold').fontSize(12).text(`Verdict over the speed range: ${c.result.verdict.toUpperCase()}   at the measured speed: ${c.result.verdictAtSpeed.toUpperCase()}`).font('Helvetica').fontSize(9.5);
+	doc.text(
+		`Measured by ${d.by}; received ${when(check.receivedAt)}; measured speed ${check.measuredRpm ?? '-'} rpm.`
+	);
+	doc.text(
+		d.reviewer
+			? `Reviewed by ${d.reviewer} on ${when(check.reviewedAt)}${check.reviewComment ? `: ${check.reviewComment}` : ''}.`
+			: 'Not reviewed yet.'
+	);
+	doc.text(
+		`Rule: ${sheet.ruleSet ? `${sheet.ruleSet.name} (${sheet.ruleSet.source}${sheet.ruleSet.edition ? `, ${sheet.ruleSet.edition}` : ''})` : 'Detune default 10 % (common practice)'}. Margin = |fn - fe| / fe.`
+	);
+	doc
+		.moveDown(0.3)
+		.font('Helvetica-Bold')
+		.fontSize(12)
+		.text(
+			`Verdict over the speed range: ${c.result.verdict.toUpperCase()}   at the measured speed: ${c.result.verdictAtSpeed.toUpperCase()}`
+		)
+		.font('Helvetica')
+		.fontSize(9.5);
 	heading(doc, 'Natural frequencies');
 	table(
 		doc,
 		['Frequency', 'Damping ratio', 'Direction', 'Location', 'From'],
-		modes.map((m) => [`${m.frequencyHz.toFixed(2)} Hz`, m.dampingRatio === null ? '-' : m.dampingRatio.toFixed(4), m.direction ?? '-', m.location ?? '-', m.origin]),
+		modes.map((m) => [
+			`${m.frequencyHz.toFixed(2)} Hz`,
+			m.dampingRatio === null ? '-' : m.dampingRatio.toFixed(4),
+			m.direction ?? '-',
+			m.location ?? '-',
+			m.origin
+		]),
 		[80, 80, 80, 170, 80]
 	);
 	heading(doc, 'Separation margins');
 	const pairs = [...c.result.pairs].sort((a, b) => comparePairs(a, b, 'range'));
 	table(
 		doc,
-		['Natural freq.', 'Excitation', 'At speed', 'Margin at speed', 'Required', 'Margin over range', 'Required', 'Verdict'],
-		pairs.map((p) => [`${p.naturalHz.toFixed(2)} Hz`, p.label, p.excitationHz === null ? '-' : `${p.excitationHz.toFixed(2)} Hz`, pct(p.marginAtSpeedPct), pct(p.requiredAtSpeedPct), pct(p.marginOverRangePct), pct(p.requiredOverRangePct), p.verdictOverRange]),
+		[
+			'Natural freq.',
+			'Excitation',
+			'At speed',
+			'Margin at speed',
+			'Required',
+			'Margin over range',
+			'Required',
+			'Verdict'
+		],
+		pairs.map((p) => [
+			`${p.naturalHz.toFixed(2)} Hz`,
+			p.label,
+			p.excitationHz === null ? '-' : `${p.excitationHz.toFixed(2)} Hz`,
+			pct(p.marginAtSpeedPct),
+			pct(p.requiredAtSpeedPct),
+			pct(p.marginOverRangePct),
+			pct(p.requiredOverRangePct),
+			p.verdictOverRange
+		]),
 		[62, 96, 58, 60, 50, 62, 50, 52]
 	);
 	heading(doc, 'Avoidance bands');
 	if (c.bands.bands.length === 0) doc.text('No speed in the range is inside a required margin.');
-	for (const b of c.bands.bands) doc.text(`Shaft ${b.lowRpm.toFixed(0)}-${b.highRpm.toFixed(0)} rpm; motor ${b.motorLowRpm.toFixed(0)}-${b.motorHighRpm.toFixed(0)} rpm${b.driveLowHz !== null ? `; drive ${b.driveLowHz.toFixed(1)}-${(b.driveHighHz as number).toFixed(1)} Hz` : ''}`);
+	for (const b of c.bands.bands)
+		doc.text(
+			`Shaft ${b.lowRpm.toFixed(0)}-${b.highRpm.toFixed(0)} rpm; motor ${b.motorLowRpm.toFixed(0)}-${b.motorHighRpm.toFixed(0)} rpm${b.driveLowHz !== null ? `; drive ${b.driveLowHz.toFixed(1)}-${(b.driveHighHz as number).toFixed(1)} Hz` : ''}`
+		);
 	for (const w of c.bands.warnings) doc.text(w);
-	if (c.bands.bands.length) doc.fontSize(8).fillColor(muted).text(c.bands.slipNote).fillColor(ink).fontSize(9.5);
+	if (c.bands.bands.length)
+		doc.fontSize(8).fillColor(muted).text(c.bands.slipNote).fillColor(ink).fontSize(9.5);
 	heading(doc, 'Interference diagram');
-	diagram(doc, c, sheet.asset.minRpm, sheet.asset.maxRpm, check.measuredRpm, modes.map((m) => m.frequencyHz));
+	diagram(
+		doc,
+		c,
+		sheet.asset.minRpm,
+		sheet.asset.maxRpm,
+		check.measuredRpm,
+		modes.map((m) => m.frequencyHz)
+	);
 }
 
-function assetHeader(doc: PDFKit.PDFDocument, sheet: NonNullable<ReturnType<typeof assetQueries.sheet>>, title: string) {
+function assetHeader(
+	doc: PDFKit.PDFDocument,
+	sheet: NonNullable<ReturnType<typeof assetQueries.sheet>>,
+	title: string
+) {
 	doc.font('Helvetica-Bold').fontSize(18).fillColor(ink).text(`Detune - ${title}`);
-	doc.font('Helvetica').fontSize(9).fillColor(muted).text(`Generated ${when(Date.now())}`).fillColor(ink).fontSize(9.5);
+	doc
+		.font('Helvetica')
+		.fontSize(9)
+		.fillColor(muted)
+		.text(`Generated ${when(Date.now())}`)
+		.fillColor(ink)
+		.fontSize(9.5);
 	heading(doc, `${sheet.asset.tag} - ${sheet.asset.name}`);
 	const a = sheet.asset;
-	doc.text(`Site: ${sheet.site.name}${sheet.area ? ` / ${sheet.area.name}` : ''}. Machine: ${a.machineKind}, ${a.driveType === 'vfd' ? 'variable-speed drive' : 'fixed speed'}.`);
-	doc.text(`Speed range: ${a.minRpm === a.maxRpm ? `${a.minRpm} rpm` : `${a.minRpm}-${a.maxRpm} rpm`}${a.nominalRpm ? `, nominal ${a.nominalRpm} rpm` : ''}. Motor poles ${a.motorPoles ?? '-'}, drive ratio ${a.driveRatio}, skip bands ${a.skipBands}.`);
-	doc.text(`Excitation sources: ${sheet.sources.map((s) => `${s.kind}${s.label ? ` (${s.label})` : ''} ${JSON.stringify(s.params)}`).join('; ')}`);
+	doc.text(
+		`Site: ${sheet.site.name}${sheet.area ? ` / ${sheet.area.name}` : ''}. Machine: ${a.machineKind}, ${a.driveType === 'vfd' ? 'variable-speed drive' : 'fixed speed'}.`
+	);
+	doc.text(
+		`Speed range: ${a.minRpm === a.maxRpm ? `${a.minRpm} rpm` : `${a.minRpm}-${a.maxRpm} rpm`}${a.nominalRpm ? `, nominal ${a.nominalRpm} rpm` : ''}. Motor poles ${a.motorPoles ?? '-'}, drive ratio ${a.driveRatio}, skip bands ${a.skipBands}.`
+	);
+	doc.text(
+		`Excitation sources: ${sheet.sources.map((s) => `${s.kind}${s.label ? ` (${s.label})` : ''} ${JSON.stringify(s.params)}`).join('; ')}`
+	);
 }
 
 export async function checkReport(checkId: string): Promise<{ pdf: Buffer; tag: string } | null> {
 	const d = loadCheck(checkId);
 	if (!d) return null;
-	const doc = new PDFDocument({ size: 'A4', margin: 48, info: { Title: `Detune check ${d.sheet.asset.tag}`, Author: 'Detune' } });
+	const doc = new PDFDocument({
+		size: 'A4',
+		margin: 48,
+		info: { Title: `Detune check ${d.sheet.asset.tag}`, Author: 'Detune' }
+	});
 	assetHeader(doc, d.sheet, 'resonance check report');
 	checkSection(doc, d);
 	cautions(doc);
@@ -182,12 +319,33 @@ export async function checkReport(checkId: string): Promise<{ pdf: Buffer; tag: 
 export async function assetReport(assetId: string): Promise<{ pdf: Buffer; tag: string } | null> {
 	const sheet = assetQueries.sheet(assetId);
 	if (!sheet) return null;
-	const history = db.select().from(checks).where(eq(checks.assetId, assetId)).orderBy(desc(checks.checkedAt)).all();
-	const doc = new PDFDocument({ size: 'A4', margin: 48, info: { Title: `Detune asset ${sheet.asset.tag}`, Author: 'Detune' } });
+	const history = db
+		.select()
+		.from(checks)
+		.where(eq(checks.assetId, assetId))
+		.orderBy(desc(checks.checkedAt))
+		.all();
+	const doc = new PDFDocument({
+		size: 'A4',
+		margin: 48,
+		info: { Title: `Detune asset ${sheet.asset.tag}`, Author: 'Detune' }
+	});
 	assetHeader(doc, sheet, 'asset resonance report');
 	heading(doc, 'Check history');
 	if (history.length === 0) doc.text('No checks yet.');
-	else table(doc, ['When', 'Speed', 'Worst at speed', 'Worst over range', 'Verdict'], history.map((h) => [when(h.checkedAt), `${h.measuredRpm ?? '-'} rpm`, pct(h.worstMarginAtSpeedPct), pct(h.worstMarginOverRangePct), h.verdict]), [130, 70, 90, 100, 80]);
+	else
+		table(
+			doc,
+			['When', 'Speed', 'Worst at speed', 'Worst over range', 'Verdict'],
+			history.map((h) => [
+				when(h.checkedAt),
+				`${h.measuredRpm ?? '-'} rpm`,
+				pct(h.worstMarginAtSpeedPct),
+				pct(h.worstMarginOverRangePct),
+				h.verdict
+			]),
+			[130, 70, 90, 100, 80]
+		);
 	const latest = history[0] ? loadCheck(history[0].id) : null;
 	if (latest) checkSection(doc, latest);
 	cautions(doc);

@@ -18,7 +18,8 @@ export function pull(user: { id: string; role: Role }, since: number): PullRespo
 		// a cursor from another database (restored backup, new server) is ahead of ours: start over
 		const full = since <= 0 || since > cursor;
 		const scope = visibleSiteIds(user);
-		const siteFilter = scope === 'all' ? undefined : inArray(assets.siteId, scope.length ? scope : ['-']);
+		const siteFilter =
+			scope === 'all' ? undefined : inArray(assets.siteId, scope.length ? scope : ['-']);
 		const changedSourceAssets = full
 			? []
 			: tx
@@ -50,13 +51,32 @@ export function pull(user: { id: string; role: Role }, since: number): PullRespo
 			.innerJoin(sites, eq(sites.id, assets.siteId))
 			.leftJoin(areas, eq(areas.id, assets.areaId))
 			// an asset is sent again when it, one of its sources, its site or its area changed (a rename)
-			.where(and(siteFilter, full ? undefined : or(gt(assets.version, since), gt(sites.version, since), gt(areas.version, since), changedSourceAssets.length ? inArray(assets.id, changedSourceAssets) : undefined)))
+			.where(
+				and(
+					siteFilter,
+					full
+						? undefined
+						: or(
+								gt(assets.version, since),
+								gt(sites.version, since),
+								gt(areas.version, since),
+								changedSourceAssets.length ? inArray(assets.id, changedSourceAssets) : undefined
+							)
+				)
+			)
 			.orderBy(asc(assets.tag))
 			.all();
 		const ids = rows.map((r) => r.id);
 		const sources = ids.length
 			? tx
-					.select({ id: excitationSources.id, assetId: excitationSources.assetId, kind: excitationSources.kind, label: excitationSources.label, params: excitationSources.params, sortOrder: excitationSources.sortOrder })
+					.select({
+						id: excitationSources.id,
+						assetId: excitationSources.assetId,
+						kind: excitationSources.kind,
+						label: excitationSources.label,
+						params: excitationSources.params,
+						sortOrder: excitationSources.sortOrder
+					})
 					.from(excitationSources)
 					.where(inArray(excitationSources.assetId, ids))
 					.orderBy(asc(excitationSources.sortOrder))
@@ -65,7 +85,13 @@ export function pull(user: { id: string; role: Role }, since: number): PullRespo
 		const byAsset = new Map<string, PulledAsset['sources']>();
 		for (const s of sources) {
 			const list = byAsset.get(s.assetId) ?? [];
-			list.push({ id: s.id, kind: s.kind, label: s.label, params: s.params as Record<string, unknown>, sortOrder: s.sortOrder });
+			list.push({
+				id: s.id,
+				kind: s.kind,
+				label: s.label,
+				params: s.params as Record<string, unknown>,
+				sortOrder: s.sortOrder
+			});
 			byAsset.set(s.assetId, list);
 		}
 		const rules = tx
@@ -73,7 +99,16 @@ export function pull(user: { id: string; role: Role }, since: number): PullRespo
 			.from(ruleSets)
 			.where(full ? undefined : gt(ruleSets.version, since))
 			.all()
-			.map((r) => ({ id: r.id, name: r.name, kind: r.kind, percent: r.percent, perKind: r.perKind ?? null, source: r.source, edition: r.edition, version: r.version }));
+			.map((r) => ({
+				id: r.id,
+				name: r.name,
+				kind: r.kind,
+				percent: r.percent,
+				perKind: r.perKind ?? null,
+				source: r.source,
+				edition: r.edition,
+				version: r.version
+			}));
 		const deleted = full
 			? []
 			: tx
@@ -81,7 +116,10 @@ export function pull(user: { id: string; role: Role }, since: number): PullRespo
 					.from(deletions)
 					.where(gt(deletions.version, since))
 					.all()
-					.filter((d): d is { entity: 'asset' | 'rule_set'; id: string } => d.entity === 'asset' || d.entity === 'rule_set');
+					.filter(
+						(d): d is { entity: 'asset' | 'rule_set'; id: string } =>
+							d.entity === 'asset' || d.entity === 'rule_set'
+					);
 		return {
 			cursor,
 			full,

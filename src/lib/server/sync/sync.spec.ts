@@ -13,7 +13,10 @@ let otherSiteAsset: string;
 
 beforeAll(async () => {
 	await freshDatabase({ demo: true });
-	tech = { id: db.select().from(users).where(eq(users.email, 'tech@example.com')).get()!.id, role: 'technician' };
+	tech = {
+		id: db.select().from(users).where(eq(users.email, 'tech@example.com')).get()!.id,
+		role: 'technician'
+	};
 	assetId = demoId('asset:KRW-RWP-103');
 	otherSiteAsset = demoId('asset:LBM-IDF-110');
 });
@@ -26,8 +29,21 @@ const item = (over: Record<string, unknown> = {}) => ({
 	driveSetpointHz: null,
 	notes: '',
 	replacesCheckId: null,
-	modes: [{ frequencyHz: 24.6, dampingRatio: 0.03, direction: 'horizontal', location: 'Motor top', origin: 'typed' }],
-	device: { verdict: 'conflict', verdictAtSpeed: 'clear', worstMarginAtSpeedPct: 34.18, worstMarginOverRangePct: 0 },
+	modes: [
+		{
+			frequencyHz: 24.6,
+			dampingRatio: 0.03,
+			direction: 'horizontal',
+			location: 'Motor top',
+			origin: 'typed'
+		}
+	],
+	device: {
+		verdict: 'conflict',
+		verdictAtSpeed: 'clear',
+		worstMarginAtSpeedPct: 34.18,
+		worstMarginOverRangePct: 0
+	},
 	...over
 });
 
@@ -46,7 +62,10 @@ describe('pull', () => {
 
 	it('sends an asset again after it changed, and a full sync for a cursor from the future', () => {
 		const { cursor } = pull(tech, 0);
-		db.update(assets).set({ version: cursor + 1, name: 'Raw water pump 3 (rebuilt)' }).where(eq(assets.id, assetId)).run();
+		db.update(assets)
+			.set({ version: cursor + 1, name: 'Raw water pump 3 (rebuilt)' })
+			.where(eq(assets.id, assetId))
+			.run();
 		db.run(`update sync_state set version = ${cursor + 1}`);
 		const delta = pull(tech, cursor);
 		expect(delta.assets.map((a) => a.name)).toEqual(['Raw water pump 3 (rebuilt)']);
@@ -71,14 +90,33 @@ describe('push', () => {
 
 	it('rejects a bad item with its reason and still applies the good ones', () => {
 		const good = item();
-		const r = push(tech, [item({ measuredRpm: -5 }), { nonsense: true }, item({ assetId: otherSiteAsset }), good]);
-		expect(r.response.results.map((x) => x.status)).toEqual(['rejected', 'rejected', 'rejected', 'applied']);
-		expect(r.response.results[0].reason).toMatch(/measuredRpm: measured speed must be greater than zero/);
+		const r = push(tech, [
+			item({ measuredRpm: -5 }),
+			{ nonsense: true },
+			item({ assetId: otherSiteAsset }),
+			good
+		]);
+		expect(r.response.results.map((x) => x.status)).toEqual([
+			'rejected',
+			'rejected',
+			'rejected',
+			'applied'
+		]);
+		expect(r.response.results[0].reason).toMatch(
+			/measuredRpm: measured speed must be greater than zero/
+		);
 		expect(r.response.results[2].reason).toMatch(/not on your sites/);
 	});
 
 	it('keeps what the device showed when it differs from the server', () => {
-		const it1 = item({ device: { verdict: 'clear', verdictAtSpeed: 'clear', worstMarginAtSpeedPct: 50, worstMarginOverRangePct: 50 } });
+		const it1 = item({
+			device: {
+				verdict: 'clear',
+				verdictAtSpeed: 'clear',
+				worstMarginAtSpeedPct: 50,
+				worstMarginOverRangePct: 50
+			}
+		});
 		push(tech, [it1]);
 		const row = db.select().from(checks).where(eq(checks.id, it1.id)).get()!;
 		expect(row.resultDiffers).toBe(true);

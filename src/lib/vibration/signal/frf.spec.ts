@@ -7,13 +7,21 @@ import { magnification } from '../oscillator.ts';
  * Hammer hits (half-sine force pulses) through an SDOF system, integrated with ODEX (an independent
  * integrator from the registry). Returns force and displacement sampled at fs.
  */
-function impactRecord(fs: number, seconds: number, f: number, zeta: number, hitsAt: number[], amplitudes: number[] = []) {
+function impactRecord(
+	fs: number,
+	seconds: number,
+	f: number,
+	zeta: number,
+	hitsAt: number[],
+	amplitudes: number[] = []
+) {
 	const w = 2 * Math.PI * f;
 	const pulse = 0.002;
 	const F = (t: number) => {
 		let v = 0;
 		hitsAt.forEach((t0, i) => {
-			if (t >= t0 && t < t0 + pulse) v += (amplitudes[i] ?? 1) * Math.sin((Math.PI * (t - t0)) / pulse);
+			if (t >= t0 && t < t0 + pulse)
+				v += (amplitudes[i] ?? 1) * Math.sin((Math.PI * (t - t0)) / pulse);
 		});
 		return v;
 	};
@@ -50,14 +58,20 @@ describe('two-channel impact analysis', () => {
 		expect(m.coherence).toBeGreaterThan(0.95);
 		// |H| at the peak ≈ (1/k)·peak DMF, with k = ω² for unit mass
 		const k = (2 * Math.PI * f) ** 2;
-		expect(Math.abs(m.amplitude * k - magnification(Math.sqrt(1 - 2 * zeta * zeta), zeta)) / (1 / (2 * zeta))).toBeLessThan(0.1);
+		expect(
+			Math.abs(m.amplitude * k - magnification(Math.sqrt(1 - 2 * zeta * zeta), zeta)) /
+				(1 / (2 * zeta))
+		).toBeLessThan(0.1);
 	});
 
 	it('rejects a double hit and averages the clean ones', () => {
 		const fs = 2048;
 		const { force, x } = impactRecord(fs, 12, 45, 0.02, [0.5, 4.5, 4.515, 8.5]);
 		const r = analyzeImpact(force, x, fs);
-		expect(r.hits.filter((h) => !h.accepted).map((h) => h.reason)).toEqual(['double hit', 'double hit (second strike)']);
+		expect(r.hits.filter((h) => !h.accepted).map((h) => h.reason)).toEqual([
+			'double hit',
+			'double hit (second strike)'
+		]);
 		expect(r.averages).toBe(2);
 	});
 
@@ -73,7 +87,11 @@ describe('two-channel impact analysis', () => {
 	});
 
 	it('refuses a flat force channel and mismatched channels', () => {
-		expect(() => analyzeImpact(new Float64Array(128), new Float64Array(128), 100)).toThrow(/at least one hammer hit/);
-		expect(() => analyzeImpact(new Float64Array(128), new Float64Array(100), 100)).toThrow(/response channel must be as long as the force channel/);
+		expect(() => analyzeImpact(new Float64Array(128), new Float64Array(128), 100)).toThrow(
+			/at least one hammer hit/
+		);
+		expect(() => analyzeImpact(new Float64Array(128), new Float64Array(100), 100)).toThrow(
+			/response channel must be as long as the force channel/
+		);
 	});
 });

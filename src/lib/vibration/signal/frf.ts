@@ -75,30 +75,60 @@ export function detectHits(force: ArrayLike<number>, trigger: number, doubleWind
 	return hits;
 }
 
-export function analyzeImpact(force: ArrayLike<number>, response: ArrayLike<number>, sampleRateHz: number, options: ImpactOptions = {}): ImpactResult {
+export function analyzeImpact(
+	force: ArrayLike<number>,
+	response: ArrayLike<number>,
+	sampleRateHz: number,
+	options: ImpactOptions = {}
+): ImpactResult {
 	const fs = positive('sampleRateHz', sampleRateHz);
 	integerAtLeast('number of samples', force.length, 64);
-	if (response.length !== force.length) throw new VibrationInputError('response channel', `as long as the force channel (${force.length} samples)`, response.length);
+	if (response.length !== force.length)
+		throw new VibrationInputError(
+			'response channel',
+			`as long as the force channel (${force.length} samples)`,
+			response.length
+		);
 	for (let i = 0; i < force.length; i++) {
-		if (!Number.isFinite(force[i])) throw new VibrationInputError(`force[${i}]`, 'a finite number', force[i]);
-		if (!Number.isFinite(response[i])) throw new VibrationInputError(`response[${i}]`, 'a finite number', response[i]);
+		if (!Number.isFinite(force[i]))
+			throw new VibrationInputError(`force[${i}]`, 'a finite number', force[i]);
+		if (!Number.isFinite(response[i]))
+			throw new VibrationInputError(`response[${i}]`, 'a finite number', response[i]);
 	}
 	const progress = options.onProgress ?? (() => {});
 	const trigger = positive('trigger', options.trigger ?? 0.1);
 	const tauW = options.exponentialWindowS ?? null;
 	// provisional hits to size the segments: each hit gets the time until the next one
 	const provisional = detectHits(force, trigger, 1);
-	if (provisional.length === 0) throw new VibrationInputError('force channel', 'a recording with at least one hammer hit (it is flat)', 'flat');
+	if (provisional.length === 0)
+		throw new VibrationInputError(
+			'force channel',
+			'a recording with at least one hammer hit (it is flat)',
+			'flat'
+		);
 	const starts = provisional.map((h) => h.index);
-	const spacing = starts.length > 1 ? Math.min(...starts.slice(1).map((s, i) => s - starts[i])) : force.length - starts[0];
+	const spacing =
+		starts.length > 1
+			? Math.min(...starts.slice(1).map((s, i) => s - starts[i]))
+			: force.length - starts[0];
 	// strikes closer than a tenth of the usual spacing (or 20 pulse widths) are one double hit
 	const widest = Math.max(...provisional.map((h) => h.width));
 	const gaps = starts.slice(1).map((s, i) => s - starts[i]);
-	const typical = gaps.length ? gaps.sort((a, b) => a - b)[Math.floor(gaps.length / 2)] : force.length;
+	const typical = gaps.length
+		? gaps.sort((a, b) => a - b)[Math.floor(gaps.length / 2)]
+		: force.length;
 	const hits = detectHits(force, trigger, Math.max(20 * widest, Math.floor(typical / 10)));
 	const acceptedHits = hits.filter((h) => h.accepted);
-	if (acceptedHits.length === 0) throw new VibrationInputError('force channel', 'at least one clean hit (every hit was a double hit)', hits.length);
-	const usable = hits.length > 1 ? Math.max(64, Math.min(...acceptedHits.map((h) => nextHitGap(h, hits, force.length)))) : force.length - acceptedHits[0].index;
+	if (acceptedHits.length === 0)
+		throw new VibrationInputError(
+			'force channel',
+			'at least one clean hit (every hit was a double hit)',
+			hits.length
+		);
+	const usable =
+		hits.length > 1
+			? Math.max(64, Math.min(...acceptedHits.map((h) => nextHitGap(h, hits, force.length))))
+			: force.length - acceptedHits[0].index;
 	let seg = 1;
 	while (seg * 2 <= Math.max(64, Math.min(spacing, usable))) seg *= 2;
 	const pre = Math.floor((options.preTrigger ?? 0.05) * seg);
@@ -135,7 +165,8 @@ export function analyzeImpact(force: ArrayLike<number>, response: ArrayLike<numb
 		averages++;
 		progress(averages / acceptedHits.length / 2);
 	}
-	if (averages === 0) throw new VibrationInputError('force channel', 'a hit with a full segment after it', 0);
+	if (averages === 0)
+		throw new VibrationInputError('force channel', 'a hit with a full segment after it', 0);
 	const mag = new Float64Array(half + 1);
 	const coh = new Float64Array(half + 1);
 	for (let k = 0; k <= half; k++) {
@@ -162,13 +193,31 @@ export function analyzeImpact(force: ArrayLike<number>, response: ArrayLike<numb
 		const flags: FrfMode['flags'] = [];
 		if (coh[p.bin] < 0.9) flags.push('low-coherence');
 		if (hp && (hp[1] - hp[0]) * df < 5 * resolution) flags.push('coarse-resolution');
-		return { frequencyHz: f, dampingRatio: zeta && zeta > 0 ? zeta : null, qFactor: zeta && zeta > 0 ? 1 / (2 * zeta) : null, amplitude: ip.height, coherence: coh[p.bin], flags };
+		return {
+			frequencyHz: f,
+			dampingRatio: zeta && zeta > 0 ? zeta : null,
+			qFactor: zeta && zeta > 0 ? 1 / (2 * zeta) : null,
+			amplitude: ip.height,
+			coherence: coh[p.bin],
+			flags
+		};
 	});
 	modes.sort((a, b) => b.amplitude - a.amplitude);
-	const dec = bucketMax(kMax + 1, 2048, (k) => mag[k], (k) => k * df);
+	const dec = bucketMax(
+		kMax + 1,
+		2048,
+		(k) => mag[k],
+		(k) => k * df
+	);
 	const cohDec = dec.x.map((fx) => coh[Math.round(fx / df)]);
 	progress(1);
-	return { hits, averages, resolutionHz: resolution, modes, frf: { frequencyHz: dec.x, magnitude: dec.y, coherence: cohDec } };
+	return {
+		hits,
+		averages,
+		resolutionHz: resolution,
+		modes,
+		frf: { frequencyHz: dec.x, magnitude: dec.y, coherence: cohDec }
+	};
 }
 
 function nextHitGap(h: Hit, hits: Hit[], length: number): number {

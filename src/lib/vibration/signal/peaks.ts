@@ -13,7 +13,13 @@ export interface Peak {
  * between the peak and the nearest higher ground on each side). Linear time: nearest higher
  * samples from a monotonic stack, range minima from block minima.
  */
-export function findPeaks(mag: ArrayLike<number>, from: number, to: number, minHeight: number, minSeparation = 1): Peak[] {
+export function findPeaks(
+	mag: ArrayLike<number>,
+	from: number,
+	to: number,
+	minHeight: number,
+	minSeparation = 1
+): Peak[] {
 	const n = mag.length;
 	const lo = Math.max(1, from);
 	const hi = Math.min(n - 1, to);
@@ -24,7 +30,8 @@ export function findPeaks(mag: ArrayLike<number>, from: number, to: number, minH
 		if (h < minHeight || !(h > mag[k - 1] && h >= mag[k + 1])) continue;
 		// a ripple on the flank of a taller peak within `minSeparation` bins is not a peak of its own
 		let top = true;
-		for (let j = Math.max(0, k - sep); j <= Math.min(n - 1, k + sep) && top; j++) if (mag[j] > h) top = false;
+		for (let j = Math.max(0, k - sep); j <= Math.min(n - 1, k + sep) && top; j++)
+			if (mag[j] > h) top = false;
 		if (top) cands.push(k);
 	}
 	if (cands.length === 0) return [];
@@ -77,7 +84,10 @@ export function findPeaks(mag: ArrayLike<number>, from: number, to: number, minH
  * maximum (Gaussian interpolation; exact for a Gaussian peak, better than 1 % of a bin for the
  * Lorentzian of a lightly damped mode on a zero-padded grid). Returns the fractional bin.
  */
-export function interpolatePeak(mag: ArrayLike<number>, bin: number): { bin: number; height: number } {
+export function interpolatePeak(
+	mag: ArrayLike<number>,
+	bin: number
+): { bin: number; height: number } {
 	if (bin <= 0 || bin >= mag.length - 1) return { bin, height: mag[bin] };
 	const a = Math.log(Math.max(mag[bin - 1], 1e-300));
 	const b = Math.log(Math.max(mag[bin], 1e-300));
@@ -93,7 +103,11 @@ export function interpolatePeak(mag: ArrayLike<number>, bin: number): { bin: num
  * linear interpolation between bins. Null on a side where the curve rises again (another mode)
  * before reaching half power.
  */
-export function halfPowerBins(mag: ArrayLike<number>, bin: number, height: number): [number, number] | null {
+export function halfPowerBins(
+	mag: ArrayLike<number>,
+	bin: number,
+	height: number
+): [number, number] | null {
 	const target = height / Math.SQRT2;
 	let left: number | null = null;
 	for (let i = bin; i > 0; i--) {

@@ -11,7 +11,12 @@ function noise(seed: number) {
 }
 
 /** Closed-form free decay of a sum of modes (the SDOF free response, Rao §2.6). */
-function ringdown(fs: number, seconds: number, modes: { f: number; zeta: number; a: number }[], extra: (t: number) => number = () => 0): Float64Array {
+function ringdown(
+	fs: number,
+	seconds: number,
+	modes: { f: number; zeta: number; a: number }[],
+	extra: (t: number) => number = () => 0
+): Float64Array {
 	const n = Math.round(fs * seconds);
 	const x = new Float64Array(n);
 	for (let i = 0; i < n; i++) {
@@ -85,8 +90,13 @@ describe('ring-down analysis of synthetic recordings (closed form)', () => {
 			expect(r.modes.length).toBeGreaterThanOrEqual(set.length);
 			set.forEach((m, i) => {
 				const got = r.modes[i];
-				expect(Math.abs(got.frequencyHz - fd(m.f, m.zeta)) / m.f, `mode ${m.f}`).toBeLessThan(0.005);
-				expect(Math.abs((got.dampingRatio as number) - m.zeta) / m.zeta, `ζ of ${m.f}`).toBeLessThan(0.2);
+				expect(Math.abs(got.frequencyHz - fd(m.f, m.zeta)) / m.f, `mode ${m.f}`).toBeLessThan(
+					0.005
+				);
+				expect(
+					Math.abs((got.dampingRatio as number) - m.zeta) / m.zeta,
+					`ζ of ${m.f}`
+				).toBeLessThan(0.2);
 			});
 		}
 	});
@@ -94,7 +104,12 @@ describe('ring-down analysis of synthetic recordings (closed form)', () => {
 	it('holds up with 2 % noise and a 60 Hz line tone, which it reports as a tone, not a mode', () => {
 		const fs = 2048;
 		const r0 = noise(7);
-		const x = ringdown(fs, 8, [{ f: 24, zeta: 0.015, a: 1 }], (t) => 0.05 * Math.sin(2 * Math.PI * 60 * t) + 0.02 * r0());
+		const x = ringdown(
+			fs,
+			8,
+			[{ f: 24, zeta: 0.015, a: 1 }],
+			(t) => 0.05 * Math.sin(2 * Math.PI * 60 * t) + 0.02 * r0()
+		);
 		const r = analyzeRingdown(x, fs);
 		const m = r.modes[0];
 		expect(Math.abs(m.frequencyHz - 24) / 24).toBeLessThan(0.005);
@@ -122,7 +137,9 @@ describe('ring-down analysis of synthetic recordings (closed form)', () => {
 
 	it('flags clipping and a double hit', () => {
 		const fs = 2048;
-		const clipped = ringdown(fs, 6, [{ f: 30, zeta: 0.02, a: 1 }]).map((v) => Math.max(-0.6, Math.min(0.6, v)));
+		const clipped = ringdown(fs, 6, [{ f: 30, zeta: 0.02, a: 1 }]).map((v) =>
+			Math.max(-0.6, Math.min(0.6, v))
+		);
 		expect(isClipped(clipped)).toBe(true);
 		expect(analyzeRingdown(clipped, fs).flags).toContain('clipping');
 		const clean = ringdown(fs, 6, [{ f: 30, zeta: 0.02, a: 1 }]);
@@ -148,7 +165,9 @@ describe('ring-down analysis of synthetic recordings (closed form)', () => {
 
 	it('reports progress and chart data', () => {
 		const seen: number[] = [];
-		const r = analyzeRingdown(ringdown(1024, 4, [{ f: 20, zeta: 0.02, a: 1 }]), 1024, { onProgress: (p) => seen.push(p) });
+		const r = analyzeRingdown(ringdown(1024, 4, [{ f: 20, zeta: 0.02, a: 1 }]), 1024, {
+			onProgress: (p) => seen.push(p)
+		});
 		expect(seen.at(-1)).toBe(1);
 		expect(seen.every((p, i) => i === 0 || p >= seen[i - 1])).toBe(true);
 		expect(r.spectrum.frequencyHz.length).toBeLessThanOrEqual(2048);
@@ -157,8 +176,12 @@ describe('ring-down analysis of synthetic recordings (closed form)', () => {
 	});
 
 	it('refuses bad input with a message', () => {
-		expect(() => analyzeRingdown([1, 2, 3], 100)).toThrow(/number of samples must be a whole number of at least 64/);
-		expect(() => analyzeRingdown(new Float64Array(100), 0)).toThrow(/sampleRateHz must be greater than zero/);
+		expect(() => analyzeRingdown([1, 2, 3], 100)).toThrow(
+			/number of samples must be a whole number of at least 64/
+		);
+		expect(() => analyzeRingdown(new Float64Array(100), 0)).toThrow(
+			/sampleRateHz must be greater than zero/
+		);
 		const withNaN = new Float64Array(100).fill(1);
 		withNaN[42] = NaN;
 		expect(() => analyzeRingdown(withNaN, 100)).toThrow(/samples\[42\] must be a finite number/);
@@ -187,7 +210,12 @@ describe('against an independent integrator', () => {
 		const x = new Float64Array(n);
 		let y = [0, 0];
 		for (let i = 1; i < n; i++) {
-			y = solver.solve((t, s) => [s[1], -2 * zeta * w * s[1] - w * w * s[0] + F(t)], (i - 1) / fs, y, i / fs).y;
+			y = solver.solve(
+				(t, s) => [s[1], -2 * zeta * w * s[1] - w * w * s[0] + F(t)],
+				(i - 1) / fs,
+				y,
+				i / fs
+			).y;
 			x[i] = y[0];
 		}
 		const r = analyzeRingdown(x, fs);

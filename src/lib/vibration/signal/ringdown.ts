@@ -19,7 +19,13 @@ import { finite, integerAtLeast, positive, VibrationInputError } from '../errors
 import { bucketMax, magnitude, nextPow2, realFft } from './spectrum.ts';
 import { findPeaks, halfPowerBins, interpolatePeak } from './peaks.ts';
 
-export type ModeFlag = 'coarse-resolution' | 'short-record' | 'clipping' | 'double-hit' | 'damping-disagreement' | 'poor-envelope-fit';
+export type ModeFlag =
+	| 'coarse-resolution'
+	| 'short-record'
+	| 'clipping'
+	| 'double-hit'
+	| 'damping-disagreement'
+	| 'poor-envelope-fit';
 
 export const FLAG_TEXT: Record<ModeFlag, string> = {
 	'coarse-resolution': 'frequency resolution too coarse for this bandwidth: record longer',
@@ -162,7 +168,12 @@ export function hasSecondHit(x: ArrayLike<number>, sampleRateHz: number): boolea
  * passes of a centred moving average (a triangle). Returns |envelope|·2 in signal units, one value
  * per block; value k stands for sample k·D + D/2.
  */
-function demodulatedEnvelope(x: Float64Array, fs: number, f: number, L: number): { env: Float64Array; step: number } {
+function demodulatedEnvelope(
+	x: Float64Array,
+	fs: number,
+	f: number,
+	L: number
+): { env: Float64Array; step: number } {
 	const n = x.length;
 	const D = Math.max(1, Math.floor(L / 8));
 	const m = Math.floor(n / D);
@@ -255,11 +266,13 @@ function logLinearFit(env: Float64Array, fs: number, from: number, to: number, s
 }
 
 function validateSamples(samples: ArrayLike<number>): void {
-	if (!samples || typeof samples.length !== 'number') throw new VibrationInputError('samples', 'a list of numbers', samples);
+	if (!samples || typeof samples.length !== 'number')
+		throw new VibrationInputError('samples', 'a list of numbers', samples);
 	integerAtLeast('number of samples', samples.length, 64);
 	for (let i = 0; i < samples.length; i++) {
 		const v = samples[i];
-		if (typeof v !== 'number' || !Number.isFinite(v)) throw new VibrationInputError(`samples[${i}]`, 'a finite number', v);
+		if (typeof v !== 'number' || !Number.isFinite(v))
+			throw new VibrationInputError(`samples[${i}]`, 'a finite number', v);
 	}
 }
 
@@ -267,13 +280,20 @@ function validateSamples(samples: ArrayLike<number>): void {
  * The modes of a ring-down recording, strongest first. `samples` in any unit (g, m/s², mm/s …);
  * amplitudes come back in the same unit.
  */
-export function analyzeRingdown(samples: ArrayLike<number>, sampleRateHz: number, options: RingdownOptions = {}): RingdownResult {
+export function analyzeRingdown(
+	samples: ArrayLike<number>,
+	sampleRateHz: number,
+	options: RingdownOptions = {}
+): RingdownResult {
 	validateSamples(samples);
 	const fs = positive('sampleRateHz', sampleRateHz);
 	const opt = { ...DEFAULTS, ...options };
 	const maxModes = integerAtLeast('maxModes', opt.maxModes, 1);
 	const minProm = positive('minProminence', opt.minProminence);
-	const tauW = opt.exponentialWindowS === null || opt.exponentialWindowS === undefined ? null : positive('exponentialWindowS', opt.exponentialWindowS);
+	const tauW =
+		opt.exponentialWindowS === null || opt.exponentialWindowS === undefined
+			? null
+			: positive('exponentialWindowS', opt.exponentialWindowS);
 	const progress = opt.onProgress ?? (() => {});
 
 	const clipped = isClipped(samples);
@@ -282,7 +302,12 @@ export function analyzeRingdown(samples: ArrayLike<number>, sampleRateHz: number
 	// the hit: the first sample above a tenth of the largest, less a short pre-trigger
 	let max = 0;
 	for (let i = 0; i < x0.length; i++) max = Math.max(max, Math.abs(x0[i]));
-	if (max === 0) throw new VibrationInputError('samples', 'a signal that is not constant (this recording is flat)', 'flat');
+	if (max === 0)
+		throw new VibrationInputError(
+			'samples',
+			'a signal that is not constant (this recording is flat)',
+			'flat'
+		);
 	let hit = 0;
 	while (hit < x0.length && Math.abs(x0[hit]) < 0.1 * max) hit++;
 	const start = Math.max(0, hit - Math.round(0.002 * fs));
@@ -290,7 +315,10 @@ export function analyzeRingdown(samples: ArrayLike<number>, sampleRateHz: number
 	const n = x.length;
 	if (n < 64) throw new VibrationInputError('samples', 'at least 64 samples after the hit', n);
 	const doubleHit = hasSecondHit(x, fs);
-	const recordFlags: ModeFlag[] = [...(clipped ? (['clipping'] as const) : []), ...(doubleHit ? (['double-hit'] as const) : [])];
+	const recordFlags: ModeFlag[] = [
+		...(clipped ? (['clipping'] as const) : []),
+		...(doubleHit ? (['double-hit'] as const) : [])
+	];
 
 	let windowed: Float64Array = x;
 	if (tauW !== null) {
@@ -310,13 +338,21 @@ export function analyzeRingdown(samples: ArrayLike<number>, sampleRateHz: number
 	const fMin = Math.max(opt.minFrequencyHz ?? 0, 2 * resolution);
 	const fMax = Math.min(opt.maxFrequencyHz ?? Infinity, 0.45 * fs);
 	let tallest = 0;
-	for (let k = Math.ceil(fMin / df); k <= Math.floor(fMax / df) && k < mag.length; k++) tallest = Math.max(tallest, mag[k]);
-	const peaks = findPeaks(mag, Math.ceil(fMin / df), Math.floor(fMax / df), tallest * minProm, Math.round((2 * resolution) / df))
+	for (let k = Math.ceil(fMin / df); k <= Math.floor(fMax / df) && k < mag.length; k++)
+		tallest = Math.max(tallest, mag[k]);
+	const peaks = findPeaks(
+		mag,
+		Math.ceil(fMin / df),
+		Math.floor(fMax / df),
+		tallest * minProm,
+		Math.round((2 * resolution) / df)
+	)
 		.filter((p) => p.prominence >= tallest * minProm)
 		.sort((a, b) => b.prominence - a.prominence);
 	// keep peaks at least two resolution steps from a more prominent one
 	const kept: typeof peaks = [];
-	for (const p of peaks) if (kept.every((q) => Math.abs(q.bin - p.bin) * df >= 2 * resolution)) kept.push(p);
+	for (const p of peaks)
+		if (kept.every((q) => Math.abs(q.bin - p.bin) * df >= 2 * resolution)) kept.push(p);
 	const candidates = kept.slice(0, maxModes + 2);
 
 	const modes: RingdownMode[] = [];
@@ -335,7 +371,9 @@ export function analyzeRingdown(samples: ArrayLike<number>, sampleRateHz: number
 		const L = Math.min(Math.floor(n / 8), Math.max(8, Math.ceil((2 * fs) / Math.min(nearest, f))));
 		// the envelope is needed only until the mode has rung down: ten time constants by the
 		// half-power estimate (σ = π·(f₂ − f₁)), plus the filter's length at each end
-		const span = hpHz ? Math.min(n, Math.ceil((fs * 10) / (Math.PI * (hpHz[1] - hpHz[0]))) + 8 * L) : n;
+		const span = hpHz
+			? Math.min(n, Math.ceil((fs * 10) / (Math.PI * (hpHz[1] - hpHz[0]))) + 8 * L)
+			: n;
 		const { env, step } = demodulatedEnvelope(span < n ? x.subarray(0, span) : x, fs, f, L);
 		const m = env.length;
 		// skip the filter's start-up and its end (2L samples each), then stop in the noise
@@ -345,7 +383,8 @@ export function analyzeRingdown(samples: ArrayLike<number>, sampleRateHz: number
 		let envPeak = 0;
 		for (let i = from; i < to; i++) envPeak = Math.max(envPeak, env[i]);
 		let floor = Infinity;
-		for (let i = Math.max(from, to - Math.floor(m / 10)); i < to; i++) floor = Math.min(floor, env[i]);
+		for (let i = Math.max(from, to - Math.floor(m / 10)); i < to; i++)
+			floor = Math.min(floor, env[i]);
 		if (floor < 0.1 * envPeak) {
 			let i = from;
 			while (i < to && env[i] > Math.max(3 * floor, 0.01 * envPeak)) i++;
@@ -354,13 +393,18 @@ export function analyzeRingdown(samples: ArrayLike<number>, sampleRateHz: number
 		const fit = to - from > 8 ? logLinearFit(env, fs, from, to, step) : null;
 		const sigma = fit ? -fit.slope : null;
 		const w = 2 * Math.PI * f;
-		const decayDamping = sigma !== null && sigma > 0 ? sigma / Math.hypot(sigma, w) : sigma !== null ? 0 : null;
+		const decayDamping =
+			sigma !== null && sigma > 0 ? sigma / Math.hypot(sigma, w) : sigma !== null ? 0 : null;
 		const cleanFit = fit !== null && fit.r2 >= 0.95 && fit.points >= 8;
 		// a peak whose envelope falls by less than a fifth over the whole record, and as narrow as
 		// the resolution allows, is a steady tone
-		const steady = (sigma === null || sigma * T < 0.2) && (hpHz === null || hpHz[1] - hpHz[0] < 3 * resolution);
+		const steady =
+			(sigma === null || sigma * T < 0.2) && (hpHz === null || hpHz[1] - hpHz[0] < 3 * resolution);
 		if (steady) {
-			tones.push({ frequencyHz: f, amplitude: fit ? Math.exp(fit.intercept) : (2 * ip.height) / n });
+			tones.push({
+				frequencyHz: f,
+				amplitude: fit ? Math.exp(fit.intercept) : (2 * ip.height) / n
+			});
 			return;
 		}
 		if (modes.length >= maxModes) return;
@@ -369,7 +413,13 @@ export function analyzeRingdown(samples: ArrayLike<number>, sampleRateHz: number
 		if (hpHz && hpHz[1] - hpHz[0] < 5 * resolution) flags.push('coarse-resolution');
 		if (zeta !== null && zeta > 0 && T < 6 / (zeta * w)) flags.push('short-record');
 		if (!cleanFit) flags.push('poor-envelope-fit');
-		if (hpDamping !== null && decayDamping !== null && cleanFit && Math.abs(hpDamping - decayDamping) / Math.max(hpDamping, decayDamping) > opt.disagreement) flags.push('damping-disagreement');
+		if (
+			hpDamping !== null &&
+			decayDamping !== null &&
+			cleanFit &&
+			Math.abs(hpDamping - decayDamping) / Math.max(hpDamping, decayDamping) > opt.disagreement
+		)
+			flags.push('damping-disagreement');
 		modes.push({
 			frequencyHz: f,
 			dampingRatio: zeta !== null && zeta > 0 ? zeta : null,
@@ -387,11 +437,23 @@ export function analyzeRingdown(samples: ArrayLike<number>, sampleRateHz: number
 	// chart data, decimated without building full-length arrays
 	const scale = 2 / n;
 	const kEnd = Math.min(mag.length, Math.ceil(Math.min(fMax, 0.5 * fs) / df) + 1);
-	const spectrum = bucketMax(kEnd, 2048, (k) => mag[k] * scale, (k) => k * df);
+	const spectrum = bucketMax(
+		kEnd,
+		2048,
+		(k) => mag[k] * scale,
+		(k) => k * df
+	);
 	const envW = Math.max(1, Math.floor(x0.length / 500));
 	const rms = rmsEnvelope(x0, envW);
-	const wave = bucketMax(x0.length, 2000, (i) => x0[i], (i) => i / fs);
-	const envelope = wave.x.map((t) => Math.SQRT2 * (rms[Math.min(rms.length - 1, Math.floor((t * fs) / envW))] ?? 0));
+	const wave = bucketMax(
+		x0.length,
+		2000,
+		(i) => x0[i],
+		(i) => i / fs
+	);
+	const envelope = wave.x.map(
+		(t) => Math.SQRT2 * (rms[Math.min(rms.length - 1, Math.floor((t * fs) / envW))] ?? 0)
+	);
 	progress(1);
 	return {
 		modes,

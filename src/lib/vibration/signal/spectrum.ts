@@ -15,7 +15,8 @@ export function nextPow2(n: number): number {
 
 let buffers: { size: number; input: Float64Array; out: Float64Array } | null = null;
 function buffersFor(size: number) {
-	if (!buffers || buffers.size !== size) buffers = { size, input: new Float64Array(size), out: new Float64Array(2 * size) };
+	if (!buffers || buffers.size !== size)
+		buffers = { size, input: new Float64Array(size), out: new Float64Array(2 * size) };
 	return buffers;
 }
 
@@ -43,7 +44,8 @@ export interface OneSided {
 export function realFft(x: ArrayLike<number>, nfft: number): OneSided {
 	integerAtLeast('nfft', nfft, 4);
 	if (nfft !== nextPow2(nfft)) throw new VibrationInputError('nfft', 'a power of two', nfft);
-	if (x.length > nfft) throw new VibrationInputError('nfft', `at least the signal length ${x.length}`, nfft);
+	if (x.length > nfft)
+		throw new VibrationInputError('nfft', `at least the signal length ${x.length}`, nfft);
 	const f = fftOf(nfft);
 	// work buffers are kept per size: a batch of recordings would otherwise allocate megabytes each
 	const { input, out } = buffersFor(nfft);
@@ -71,7 +73,12 @@ export function magnitude(s: OneSided): Float64Array {
  * Reduces a long series to at most `points` (x, y) pairs for a chart, each the largest |y| of its
  * bucket (so peaks survive). Values are read through functions, so no full-length array is built.
  */
-export function bucketMax(n: number, points: number, y: (i: number) => number, x: (i: number) => number): { x: number[]; y: number[] } {
+export function bucketMax(
+	n: number,
+	points: number,
+	y: (i: number) => number,
+	x: (i: number) => number
+): { x: number[]; y: number[] } {
 	const xs: number[] = [];
 	const ys: number[] = [];
 	const per = Math.max(1, n / points);

@@ -28,14 +28,27 @@ export const load: PageServerLoad = (event) => {
 		canPlan: canPlan(user.role),
 		items: followUps.list(filter),
 		assignees: users.byRole('technician').concat(users.byRole('supervisor')),
-		assets: canPlan(user.role) ? assetQueries.listVisible(user).map((a) => ({ id: a.id, tag: a.tag, name: a.name })) : [],
-		prefill: newFor ? { assetId: newFor, checkId: q.get('check') ?? '', remedy: followUps.suggestRemedy(q.get('check'), newFor) } : null
+		assets: canPlan(user.role)
+			? assetQueries.listVisible(user).map((a) => ({ id: a.id, tag: a.tag, name: a.name }))
+			: [],
+		prefill: newFor
+			? {
+					assetId: newFor,
+					checkId: q.get('check') ?? '',
+					remedy: followUps.suggestRemedy(q.get('check'), newFor)
+				}
+			: null
 	};
 };
 
 async function notifyAssignee(id: string) {
 	const f = followUps.byId(id);
-	if (f?.assigneeEmail) await send({ ...followUpMail('assignment', f), to: f.assigneeEmail, dedupeKey: `assignment:${f.id}:${f.assigneeId}` });
+	if (f?.assigneeEmail)
+		await send({
+			...followUpMail('assignment', f),
+			to: f.assigneeEmail,
+			dedupeKey: `assignment:${f.id}:${f.assigneeId}`
+		});
 }
 
 export const actions: Actions = {
@@ -43,13 +56,20 @@ export const actions: Actions = {
 		const actor = requireRole(event, PLANNERS);
 		const raw = formToObject(await event.request.formData());
 		const parsed = followUpCreate.safeParse(raw);
-		if (!parsed.success) return fail(400, { action: 'create', id: 'new', errors: fieldErrors(parsed.error) });
+		if (!parsed.success)
+			return fail(400, { action: 'create', id: 'new', errors: fieldErrors(parsed.error) });
 		try {
 			const id = followUps.create(parsed.data, actor.id);
 			if (parsed.data.assigneeId) await notifyAssignee(id);
-			return { action: 'create', id: 'new', done: 'Follow-up created.' + (parsed.data.assigneeId ? ' The assignee has been e-mailed.' : '') };
+			return {
+				action: 'create',
+				id: 'new',
+				done:
+					'Follow-up created.' + (parsed.data.assigneeId ? ' The assignee has been e-mailed.' : '')
+			};
 		} catch (e) {
-			if (e instanceof followUps.FollowUpError) return fail(400, { action: 'create', id: 'new', errors: { form: e.message } });
+			if (e instanceof followUps.FollowUpError)
+				return fail(400, { action: 'create', id: 'new', errors: { form: e.message } });
 			throw e;
 		}
 	},
@@ -57,24 +77,36 @@ export const actions: Actions = {
 		const actor = requireRole(event, PLANNERS);
 		const raw = formToObject(await event.request.formData());
 		const parsed = followUpUpdate.safeParse(raw);
-		if (!parsed.success) return fail(400, { action: 'update', id: String(raw.id ?? ''), errors: fieldErrors(parsed.error) });
+		if (!parsed.success)
+			return fail(400, {
+				action: 'update',
+				id: String(raw.id ?? ''),
+				errors: fieldErrors(parsed.error)
+			});
 		try {
 			const r = followUps.update(parsed.data, actor.id);
 			if (r.assigneeChanged) await notifyAssignee(parsed.data.id);
-			return { action: 'update', id: parsed.data.id, done: 'Saved.' + (r.assigneeChanged ? ' The assignee has been e-mailed.' : '') };
+			return {
+				action: 'update',
+				id: parsed.data.id,
+				done: 'Saved.' + (r.assigneeChanged ? ' The assignee has been e-mailed.' : '')
+			};
 		} catch (e) {
-			if (e instanceof followUps.FollowUpError) return fail(400, { action: 'update', id: parsed.data.id, errors: { form: e.message } });
+			if (e instanceof followUps.FollowUpError)
+				return fail(400, { action: 'update', id: parsed.data.id, errors: { form: e.message } });
 			throw e;
 		}
 	},
 	move: async (event) => {
 		const actor = requireRole(event, PLANNERS);
 		const parsed = followUpMove.safeParse(formToObject(await event.request.formData()));
-		if (!parsed.success) return fail(400, { action: 'move', id: '', errors: fieldErrors(parsed.error) });
+		if (!parsed.success)
+			return fail(400, { action: 'move', id: '', errors: fieldErrors(parsed.error) });
 		try {
 			followUps.move(parsed.data.id, parsed.data.status, actor.id);
 		} catch (e) {
-			if (e instanceof followUps.FollowUpError) return fail(400, { action: 'move', id: parsed.data.id, errors: { form: e.message } });
+			if (e instanceof followUps.FollowUpError)
+				return fail(400, { action: 'move', id: parsed.data.id, errors: { form: e.message } });
 			throw e;
 		}
 		return { action: 'move', id: parsed.data.id, done: `Marked ${parsed.data.status}.` };
@@ -82,6 +114,10 @@ export const actions: Actions = {
 	remind: async (event) => {
 		requireRole(event, PLANNERS);
 		const r = await runReminders();
-		return { action: 'remind', id: 'all', done: `Reminders: ${r.sent} sent, ${r.skipped} already sent before.` };
+		return {
+			action: 'remind',
+			id: 'all',
+			done: `Reminders: ${r.sent} sent, ${r.skipped} already sent before.`
+		};
 	}
 };

@@ -37,7 +37,12 @@ export const actions: Actions = {
 		if (!parsed.success) return fail(400, { id: id ?? 'new', errors: fieldErrors(parsed.error) });
 		try {
 			const r = await inTurn(() => rules.save(id, parsed.data, actor.id));
-			return { id: id ?? 'new', done: id ? `Saved; ${r.recomputed} asset verdict${r.recomputed === 1 ? '' : 's'} recomputed.` : 'Rule set created.' };
+			return {
+				id: id ?? 'new',
+				done: id
+					? `Saved; ${r.recomputed} asset verdict${r.recomputed === 1 ? '' : 's'} recomputed.`
+					: 'Rule set created.'
+			};
 		} catch (e) {
 			return fail(404, { id: id ?? 'new', errors: { form: (e as Error).message } });
 		}

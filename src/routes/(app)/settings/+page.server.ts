@@ -5,7 +5,9 @@ import { requireUser } from '$lib/server/guard';
 import * as users from '$lib/server/db/users';
 import { fieldErrors, formToObject } from '$lib/schemas/form';
 
-const unitsForm = z.object({ unitSystem: z.enum(['metric', 'us'], { error: 'Units: metric or US customary.' }) }).strict();
+const unitsForm = z
+	.object({ unitSystem: z.enum(['metric', 'us'], { error: 'Units: metric or US customary.' }) })
+	.strict();
 
 // the current choice comes with the layout's user
 export const load: PageServerLoad = (event) => {
@@ -18,6 +20,11 @@ export const actions: Actions = {
 		const parsed = unitsForm.safeParse(formToObject(await event.request.formData()));
 		if (!parsed.success) return fail(400, { errors: fieldErrors(parsed.error) });
 		users.setUnitSystem(user.id, parsed.data.unitSystem);
-		return { done: parsed.data.unitSystem === 'us' ? 'Saved: lengths in inches from now on.' : 'Saved: lengths in millimetres from now on.' };
+		return {
+			done:
+				parsed.data.unitSystem === 'us'
+					? 'Saved: lengths in inches from now on.'
+					: 'Saved: lengths in millimetres from now on.'
+		};
 	}
 };

@@ -18,26 +18,44 @@ const CSV_COLUMNS: [string, (r: BoardRow) => unknown][] = [
 	['checked_at', (r) => (r.checkedAt ? new Date(r.checkedAt).toISOString() : '')],
 	['checked_by', (r) => r.checkedBy ?? ''],
 	['measured_rpm', (r) => r.measuredRpm ?? ''],
-	['worst_margin_at_speed_pct', (r) => (r.worstMarginAtSpeedPct === null ? '' : r.worstMarginAtSpeedPct.toFixed(2))],
-	['worst_margin_over_range_pct', (r) => (r.worstMarginOverRangePct === null ? '' : r.worstMarginOverRangePct.toFixed(2))],
+	[
+		'worst_margin_at_speed_pct',
+		(r) => (r.worstMarginAtSpeedPct === null ? '' : r.worstMarginAtSpeedPct.toFixed(2))
+	],
+	[
+		'worst_margin_over_range_pct',
+		(r) => (r.worstMarginOverRangePct === null ? '' : r.worstMarginOverRangePct.toFixed(2))
+	],
 	['worst_pair', (r) => r.worstPair ?? ''],
 	['verdict', (r) => r.verdict],
 	['stale', (r) => (r.stale ? 'yes' : 'no')],
 	['open_follow_ups', (r) => r.openFollowUps]
 ];
 
-
 /** GET /api/board — the Margin board's rows (JSON), or the whole filtered list as CSV (?format=csv). */
 export const GET: RequestHandler = (event) => {
 	const user = requireUser(event);
 	const parsed = boardQuery.safeParse(Object.fromEntries(event.url.searchParams));
-	if (!parsed.success) error(400, { message: `${parsed.error.issues[0].path.join('.') || 'query'}: ${parsed.error.issues[0].message}`, code: 'bad-query' });
+	if (!parsed.success)
+		error(400, {
+			message: `${parsed.error.issues[0].path.join('.') || 'query'}: ${parsed.error.issues[0].message}`,
+			code: 'bad-query'
+		});
 	const q = parsed.data;
 	const scope = visibleSiteIds(user);
 	if (q.format === 'csv') {
 		const rows = board.all(q, scope);
-		const text = [CSV_COLUMNS.map((c) => c[0]).join(','), ...rows.map((r) => CSV_COLUMNS.map(([, f]) => csvCell(f(r))).join(','))].join('\r\n');
-		return new Response(text + '\r\n', { headers: { 'content-type': 'text/csv; charset=utf-8', 'content-disposition': 'attachment; filename="detune-margin-board.csv"', 'cache-control': 'no-store' } });
+		const text = [
+			CSV_COLUMNS.map((c) => c[0]).join(','),
+			...rows.map((r) => CSV_COLUMNS.map(([, f]) => csvCell(f(r))).join(','))
+		].join('\r\n');
+		return new Response(text + '\r\n', {
+			headers: {
+				'content-type': 'text/csv; charset=utf-8',
+				'content-disposition': 'attachment; filename="detune-margin-board.csv"',
+				'cache-control': 'no-store'
+			}
+		});
 	}
 	return json(board.query(q, scope), { headers: { 'cache-control': 'no-store' } });
 };

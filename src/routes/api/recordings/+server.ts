@@ -8,7 +8,6 @@ import { MAX_RECORDING_BYTES, RecordingError } from '$lib/recordings/types';
 import { isUuid } from '$lib/ids';
 import { declaredLength } from '$lib/server/body';
 
-
 /**
  * POST /api/recordings?id=<uuid>&assetId=…&name=…[&sampleRateHz=…] with the file as the body.
  * Idempotent on id. The file is parsed and analysed before anything is stored.
@@ -22,20 +21,34 @@ export const POST: RequestHandler = async (event) => {
 	if (!isUuid(id)) error(400, { message: 'id must be a UUID made on the device.', code: 'bad-id' });
 	if (!name) error(400, { message: 'name (the file name) is missing.', code: 'bad-name' });
 	const declared = declaredLength(event.request);
-	if (declared !== null && declared > MAX_RECORDING_BYTES) error(413, { message: `Recordings may be at most 50 MB; this one is ${(declared / 1048576).toFixed(1)} MB.`, code: 'too-large' });
+	if (declared !== null && declared > MAX_RECORDING_BYTES)
+		error(413, {
+			message: `Recordings may be at most 50 MB; this one is ${(declared / 1048576).toFixed(1)} MB.`,
+			code: 'too-large'
+		});
 	const type = event.request.headers.get('content-type') ?? '';
-	if (!/^(text\/csv|text\/plain|audio\/(x-)?wav|application\/octet-stream)/.test(type)) error(415, { message: 'Send a CSV (text/csv) or WAV (audio/wav) file.', code: 'bad-content-type' });
+	if (!/^(text\/csv|text\/plain|audio\/(x-)?wav|application\/octet-stream)/.test(type))
+		error(415, {
+			message: 'Send a CSV (text/csv) or WAV (audio/wav) file.',
+			code: 'bad-content-type'
+		});
 	const asset = assetQueries.byId(assetId);
 	const scope = visibleSiteIds(user);
-	if (!asset || !inScope(scope, asset.siteId)) error(404, { message: 'No such asset on your sites.', code: 'no-asset' });
+	if (!asset || !inScope(scope, asset.siteId))
+		error(404, { message: 'No such asset on your sites.', code: 'no-asset' });
 	const rateText = q.get('sampleRateHz');
 	const sampleRateHz = rateText === null || rateText === '' ? null : Number(rateText);
-	if (sampleRateHz !== null && !(sampleRateHz > 0 && Number.isFinite(sampleRateHz))) error(400, { message: 'sampleRateHz must be a number greater than zero.', code: 'bad-rate' });
+	if (sampleRateHz !== null && !(sampleRateHz > 0 && Number.isFinite(sampleRateHz)))
+		error(400, { message: 'sampleRateHz must be a number greater than zero.', code: 'bad-rate' });
 	const bytes = Buffer.from(await event.request.arrayBuffer());
-	if (bytes.length > MAX_RECORDING_BYTES) error(413, { message: 'Recordings may be at most 50 MB.', code: 'too-large' });
+	if (bytes.length > MAX_RECORDING_BYTES)
+		error(413, { message: 'Recordings may be at most 50 MB.', code: 'too-large' });
 	try {
 		const r = ingest({ id, assetId, fileName: name, mediaType: type, bytes, sampleRateHz });
-		return json({ id, sha256: r.sha256, created: r.created, modes: r.analysis.modes.length }, { status: r.created ? 201 : 200 });
+		return json(
+			{ id, sha256: r.sha256, created: r.created, modes: r.analysis.modes.length },
+			{ status: r.created ? 201 : 200 }
+		);
 	} catch (e) {
 		if (e instanceof RecordingError) error(422, { message: e.message, code: 'bad-file' });
 		throw e;

@@ -12,20 +12,32 @@ export const load: PageServerLoad = (event) => {
 	return { columns: importer.IMPORT_COLUMNS.map(([name, meaning]) => ({ name, meaning })) };
 };
 
-async function textOf(request: Request): Promise<{ text: string } | { error: string; status?: number }> {
+async function textOf(
+	request: Request
+): Promise<{ text: string } | { error: string; status?: number }> {
 	// refuse from the declared length, before reading a body that cannot be an asset list
 	const declared = declaredLength(request);
-	if (declared !== null && declared > MAX + 64 * 1024) return { error: `The upload is ${(declared / 1048576).toFixed(1)} MB; an asset list may be at most 2 MB.`, status: 413 };
+	if (declared !== null && declared > MAX + 64 * 1024)
+		return {
+			error: `The upload is ${(declared / 1048576).toFixed(1)} MB; an asset list may be at most 2 MB.`,
+			status: 413
+		};
 	let form: FormData;
 	try {
 		form = await request.formData();
 	} catch {
-		return { error: 'Send the asset list as a file from the form (multipart/form-data).', status: 415 };
+		return {
+			error: 'Send the asset list as a file from the form (multipart/form-data).',
+			status: 415
+		};
 	}
 	const file = form.get('file');
 	const kept = form.get('text');
 	if (file instanceof File && file.size > 0) {
-		if (file.size > MAX) return { error: `The file is ${(file.size / 1048576).toFixed(1)} MB; an asset list may be at most 2 MB.` };
+		if (file.size > MAX)
+			return {
+				error: `The file is ${(file.size / 1048576).toFixed(1)} MB; an asset list may be at most 2 MB.`
+			};
 		return { text: await file.text() };
 	}
 	if (typeof kept === 'string' && kept.length > 0 && kept.length <= MAX) return { text: kept };
@@ -38,14 +50,28 @@ export const actions: Actions = {
 		const t = await textOf(event.request);
 		if ('error' in t) return fail(t.status ?? 400, { stage: 'preview', error: t.error });
 		const v = importer.validate(t.text);
-		return { stage: 'preview', text: t.text, total: v.total, errors: v.errors, rows: v.rows.slice(0, 100).map((r) => ({ row: r.row, tag: r.tag, name: r.asset.name, minRpm: r.asset.minRpm, maxRpm: r.asset.maxRpm, sources: r.sources.length })) };
+		return {
+			stage: 'preview',
+			text: t.text,
+			total: v.total,
+			errors: v.errors,
+			rows: v.rows.slice(0, 100).map((r) => ({
+				row: r.row,
+				tag: r.tag,
+				name: r.asset.name,
+				minRpm: r.asset.minRpm,
+				maxRpm: r.asset.maxRpm,
+				sources: r.sources.length
+			}))
+		};
 	},
 	import: async (event) => {
 		const actor = requireRole(event, ['admin']);
 		const t = await textOf(event.request);
 		if ('error' in t) return fail(t.status ?? 400, { stage: 'import', error: t.error });
 		const r = await inTurn(() => importer.run(t.text, actor.id));
-		if (r.errors.length) return fail(400, { stage: 'preview', text: t.text, total: 0, errors: r.errors, rows: [] });
+		if (r.errors.length)
+			return fail(400, { stage: 'preview', text: t.text, total: 0, errors: r.errors, rows: [] });
 		return { stage: 'done', added: r.added, updated: r.updated };
 	}
 };

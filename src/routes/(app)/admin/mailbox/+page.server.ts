@@ -15,7 +15,21 @@ export const load: PageServerLoad = (event) => {
 	return {
 		settings: mailSettings(),
 		me: user.email,
-		messages: db.select({ id: mail.id, kind: mail.kind, to: mail.toAddress, subject: mail.subject, text: mail.textBody, status: mail.status, error: mail.error, at: mail.createdAt }).from(mail).orderBy(desc(mail.createdAt)).limit(300).all()
+		messages: db
+			.select({
+				id: mail.id,
+				kind: mail.kind,
+				to: mail.toAddress,
+				subject: mail.subject,
+				text: mail.textBody,
+				status: mail.status,
+				error: mail.error,
+				at: mail.createdAt
+			})
+			.from(mail)
+			.orderBy(desc(mail.createdAt))
+			.limit(300)
+			.all()
 	};
 };
 
@@ -26,9 +40,22 @@ export const actions: Actions = {
 		requireRole(event, ['admin']);
 		const parsed = testForm.safeParse(formToObject(await event.request.formData()));
 		if (!parsed.success) return fail(400, { errors: fieldErrors(parsed.error) });
-		const text = 'This is a test message from Detune. If it arrived, follow-up assignments and reminders will reach people too.';
-		const r = await send({ kind: 'test', to: parsed.data.to, subject: 'Detune: test message', text, html: `<p>${text}</p>`, dedupeKey: `test:${crypto.randomUUID()}` });
-		if (r === 'failed') return fail(502, { errors: { to: 'The mail server refused the message or could not be reached; the error is in the Sent list below.' } });
+		const text =
+			'This is a test message from Detune. If it arrived, follow-up assignments and reminders will reach people too.';
+		const r = await send({
+			kind: 'test',
+			to: parsed.data.to,
+			subject: 'Detune: test message',
+			text,
+			html: `<p>${text}</p>`,
+			dedupeKey: `test:${crypto.randomUUID()}`
+		});
+		if (r === 'failed')
+			return fail(502, {
+				errors: {
+					to: 'The mail server refused the message or could not be reached; the error is in the Sent list below.'
+				}
+			});
 		return { done: `Test message sent to ${parsed.data.to}.` };
 	}
 };

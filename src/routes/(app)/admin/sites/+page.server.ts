@@ -15,16 +15,24 @@ export const load: PageServerLoad = (event) => {
  * Every action here: an admin's form, parsed; on success `run` answers the message; a bad form or
  * a SiteError comes back as field messages under the row it belongs to (`idKey` names that row).
  */
-async function act<S extends z.ZodType<Record<string, unknown>>>(event: RequestEvent, action: string, schema: S, idKey: string, run: (data: z.infer<S>, actorId: string) => string) {
+async function act<S extends z.ZodType<Record<string, unknown>>>(
+	event: RequestEvent,
+	action: string,
+	schema: S,
+	idKey: string,
+	run: (data: z.infer<S>, actorId: string) => string
+) {
 	const actor = requireRole(event, ['admin']);
 	const raw = formToObject(await event.request.formData());
 	const id = idKey === 'new' ? 'new' : String(raw[idKey] ?? '');
 	const parsed = schema.safeParse(raw);
-	if (!parsed.success) return fail(400, { action, id, values: raw, errors: fieldErrors(parsed.error) });
+	if (!parsed.success)
+		return fail(400, { action, id, values: raw, errors: fieldErrors(parsed.error) });
 	try {
 		return { action, id, done: run(parsed.data, actor.id) };
 	} catch (e) {
-		if (e instanceof siteQueries.SiteError) return fail(e.status, { action, id, values: raw, errors: { [e.field]: e.message } });
+		if (e instanceof siteQueries.SiteError)
+			return fail(e.status, { action, id, values: raw, errors: { [e.field]: e.message } });
 		throw e;
 	}
 }
@@ -39,12 +47,17 @@ export const actions: Actions = {
 		act(event, 'updateSite', siteUpdate, 'id', ({ id, ...form }, actorId) => {
 			const r = siteQueries.updateSite(id, form, actorId);
 			if (!r.changed) return 'Nothing changed.';
-			return r.restaled ? `Saved; the stale date of ${r.restaled} asset${r.restaled === 1 ? '' : 's'} moved with the new interval.` : 'Saved.';
+			return r.restaled
+				? `Saved; the stale date of ${r.restaled} asset${r.restaled === 1 ? '' : 's'} moved with the new interval.`
+				: 'Saved.';
 		}),
 	addArea: (event) =>
 		act(event, 'addArea', areaCreate, 'siteId', ({ siteId, name }, actorId) => {
 			siteQueries.createArea(siteId, name, actorId);
 			return `Area ${name} added.`;
 		}),
-	renameArea: (event) => act(event, 'renameArea', areaRename, 'id', ({ id, name }, actorId) => (siteQueries.renameArea(id, name, actorId) ? 'Area renamed.' : 'Nothing changed.'))
+	renameArea: (event) =>
+		act(event, 'renameArea', areaRename, 'id', ({ id, name }, actorId) =>
+			siteQueries.renameArea(id, name, actorId) ? 'Area renamed.' : 'Nothing changed.'
+		)
 };

@@ -13,10 +13,14 @@ export const load: PageServerLoad = (event) => {
 
 /** Maps the domain errors of the users module to form failures. */
 function domainFailure(action: string, id: string | null, e: unknown) {
-	if (e instanceof users.LastAdminError) return fail(409, { action, id, errors: { form: e.message } });
-	if (e instanceof users.DuplicateEmailError) return fail(409, { action, id, errors: { email: e.message } });
-	if (e instanceof users.UnknownUserError) return fail(404, { action, id, errors: { form: e.message } });
-	if (e instanceof users.UnknownSiteError) return fail(400, { action, id, errors: { siteIds: e.message } });
+	if (e instanceof users.LastAdminError)
+		return fail(409, { action, id, errors: { form: e.message } });
+	if (e instanceof users.DuplicateEmailError)
+		return fail(409, { action, id, errors: { email: e.message } });
+	if (e instanceof users.UnknownUserError)
+		return fail(404, { action, id, errors: { form: e.message } });
+	if (e instanceof users.UnknownSiteError)
+		return fail(400, { action, id, errors: { siteIds: e.message } });
 	throw e;
 }
 
@@ -32,7 +36,11 @@ async function setDisabled(event: RequestEvent, disabled: boolean) {
 	} catch (e) {
 		return domainFailure(action, parsed.data.id, e);
 	}
-	return { action, id: parsed.data.id, done: disabled ? 'Account disabled; its sessions are ended.' : 'Account enabled.' };
+	return {
+		action,
+		id: parsed.data.id,
+		done: disabled ? 'Account disabled; its sessions are ended.' : 'Account enabled.'
+	};
 }
 
 export const actions: Actions = {
@@ -40,10 +48,18 @@ export const actions: Actions = {
 		const actor = requireUser(event);
 		const raw = formToObject(await event.request.formData(), ['siteIds']);
 		const parsed = createUserForm.safeParse(raw);
-		const values = { name: String(raw.name ?? ''), email: String(raw.email ?? ''), role: String(raw.role ?? '') };
-		if (!parsed.success) return fail(400, { action: 'create', id: null, values, errors: fieldErrors(parsed.error) });
+		const values = {
+			name: String(raw.name ?? ''),
+			email: String(raw.email ?? ''),
+			role: String(raw.role ?? '')
+		};
+		if (!parsed.success)
+			return fail(400, { action: 'create', id: null, values, errors: fieldErrors(parsed.error) });
 		try {
-			users.create({ ...parsed.data, passwordHash: await hashPassword(parsed.data.password) }, actor.id);
+			users.create(
+				{ ...parsed.data, passwordHash: await hashPassword(parsed.data.password) },
+				actor.id
+			);
 		} catch (e) {
 			return domainFailure('create', null, e);
 		}
@@ -51,10 +67,17 @@ export const actions: Actions = {
 	},
 	update: async (event) => {
 		const actor = requireUser(event);
-		const parsed = updateUserForm.safeParse(formToObject(await event.request.formData(), ['siteIds']));
-		if (!parsed.success) return fail(400, { action: 'update', id: null, errors: fieldErrors(parsed.error) });
+		const parsed = updateUserForm.safeParse(
+			formToObject(await event.request.formData(), ['siteIds'])
+		);
+		if (!parsed.success)
+			return fail(400, { action: 'update', id: null, errors: fieldErrors(parsed.error) });
 		try {
-			users.update(parsed.data.id, { role: parsed.data.role, siteIds: parsed.data.siteIds }, actor.id);
+			users.update(
+				parsed.data.id,
+				{ role: parsed.data.role, siteIds: parsed.data.siteIds },
+				actor.id
+			);
 		} catch (e) {
 			return domainFailure('update', parsed.data.id, e);
 		}
@@ -66,13 +89,22 @@ export const actions: Actions = {
 		const actor = requireUser(event);
 		const raw = formToObject(await event.request.formData());
 		const parsed = resetPasswordForm.safeParse(raw);
-		if (!parsed.success) return fail(400, { action: 'reset', id: String(raw.id ?? ''), errors: fieldErrors(parsed.error) });
+		if (!parsed.success)
+			return fail(400, {
+				action: 'reset',
+				id: String(raw.id ?? ''),
+				errors: fieldErrors(parsed.error)
+			});
 		try {
 			users.setPasswordHash(parsed.data.id, await hashPassword(parsed.data.password), actor.id);
 		} catch (e) {
 			return domainFailure('reset', parsed.data.id, e);
 		}
 		await endAllSessions(parsed.data.id);
-		return { action: 'reset', id: parsed.data.id, done: 'Password reset; the user signs in again with the new one.' };
+		return {
+			action: 'reset',
+			id: parsed.data.id,
+			done: 'Password reset; the user signs in again with the new one.'
+		};
 	}
 };

@@ -3,13 +3,46 @@ import { requireUser } from '$lib/server/guard';
 import * as followUps from '$lib/server/db/follow-ups';
 import { csvCell } from '$lib/server/csv';
 
-
 /** GET: the follow-ups (filters as on the page) as CSV. */
 export const GET: RequestHandler = (event) => {
 	const user = requireUser(event);
 	const q = event.url.searchParams;
-	const rows = followUps.list({ status: q.get('status') || undefined, assigneeId: user.role === 'technician' ? user.id : q.get('assignee') || undefined });
-	const head = ['tag', 'asset', 'site', 'title', 'status', 'priority', 'due_date', 'assignee', 'created', 'notes'];
-	const lines = rows.map((f) => [f.tag, f.assetName, f.site, f.title, f.status, f.priority, f.dueDate ?? '', f.assigneeName ?? '', new Date(f.createdAt).toISOString(), f.notes].map(csvCell).join(','));
-	return new Response([head.join(','), ...lines].join('\r\n') + '\r\n', { headers: { 'content-type': 'text/csv; charset=utf-8', 'content-disposition': 'attachment; filename="detune-follow-ups.csv"' } });
+	const rows = followUps.list({
+		status: q.get('status') || undefined,
+		assigneeId: user.role === 'technician' ? user.id : q.get('assignee') || undefined
+	});
+	const head = [
+		'tag',
+		'asset',
+		'site',
+		'title',
+		'status',
+		'priority',
+		'due_date',
+		'assignee',
+		'created',
+		'notes'
+	];
+	const lines = rows.map((f) =>
+		[
+			f.tag,
+			f.assetName,
+			f.site,
+			f.title,
+			f.status,
+			f.priority,
+			f.dueDate ?? '',
+			f.assigneeName ?? '',
+			new Date(f.createdAt).toISOString(),
+			f.notes
+		]
+			.map(csvCell)
+			.join(',')
+	);
+	return new Response([head.join(','), ...lines].join('\r\n') + '\r\n', {
+		headers: {
+			'content-type': 'text/csv; charset=utf-8',
+			'content-disposition': 'attachment; filename="detune-follow-ups.csv"'
+		}
+	});
 };

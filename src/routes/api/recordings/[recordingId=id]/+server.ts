@@ -11,7 +11,8 @@ export const GET: RequestHandler = (event) => {
 	const rec = recordingQueries.byId(event.params.recordingId);
 	const asset = rec ? assetQueries.byId(rec.assetId) : undefined;
 	const scope = assetQueries.visibleSiteIds(user);
-	if (!rec || !asset || !assetQueries.inScope(scope, asset.siteId)) error(404, { message: 'No such recording.', code: 'not-found' });
+	if (!rec || !asset || !assetQueries.inScope(scope, asset.siteId))
+		error(404, { message: 'No such recording.', code: 'not-found' });
 	const body = readStored(rec.sha256);
 	const safeName = rec.fileName.replace(/[^\w.\- ]/g, '_');
 	return new Response(new Uint8Array(body), {

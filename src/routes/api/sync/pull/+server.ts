@@ -7,6 +7,10 @@ import { pull } from '$lib/server/sync/pull';
 export const GET: RequestHandler = (event) => {
 	const user = requireUser(event);
 	const raw = event.url.searchParams.get('since') ?? '0';
-	if (!/^\d{1,15}$/.test(raw)) error(400, { message: 'since must be a whole number (the cursor of the last pull, or 0).', code: 'bad-cursor' });
+	if (!/^\d{1,15}$/.test(raw))
+		error(400, {
+			message: 'since must be a whole number (the cursor of the last pull, or 0).',
+			code: 'bad-cursor'
+		});
 	return json(pull(user, Number(raw)), { headers: { 'cache-control': 'no-store' } });
 };

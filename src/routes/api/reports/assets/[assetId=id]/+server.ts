@@ -8,8 +8,15 @@ export const GET: RequestHandler = async (event) => {
 	const user = requireUser(event);
 	const asset = assetQueries.byId(event.params.assetId);
 	const scope = assetQueries.visibleSiteIds(user);
-	if (!asset || !assetQueries.inScope(scope, asset.siteId)) error(404, { message: 'No such asset.', code: 'not-found' });
+	if (!asset || !assetQueries.inScope(scope, asset.siteId))
+		error(404, { message: 'No such asset.', code: 'not-found' });
 	const r = await assetReport(asset.id);
 	if (!r) error(404, { message: 'No such asset.', code: 'not-found' });
-	return new Response(new Uint8Array(r.pdf), { headers: { 'content-type': 'application/pdf', 'content-disposition': `inline; filename="detune-${r.tag}.pdf"`, 'cache-control': 'private, no-store' } });
+	return new Response(new Uint8Array(r.pdf), {
+		headers: {
+			'content-type': 'application/pdf',
+			'content-disposition': `inline; filename="detune-${r.tag}.pdf"`,
+			'cache-control': 'private, no-store'
+		}
+	});
 };

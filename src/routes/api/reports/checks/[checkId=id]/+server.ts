@@ -10,8 +10,15 @@ export const GET: RequestHandler = async (event) => {
 	const check = checkQueries.byId(event.params.checkId);
 	const asset = check ? assetQueries.byId(check.assetId) : undefined;
 	const scope = assetQueries.visibleSiteIds(user);
-	if (!check || !asset || !assetQueries.inScope(scope, asset.siteId)) error(404, { message: 'No such check.', code: 'not-found' });
+	if (!check || !asset || !assetQueries.inScope(scope, asset.siteId))
+		error(404, { message: 'No such check.', code: 'not-found' });
 	const r = await checkReport(check.id);
 	if (!r) error(404, { message: 'No such check.', code: 'not-found' });
-	return new Response(new Uint8Array(r.pdf), { headers: { 'content-type': 'application/pdf', 'content-disposition': `inline; filename="detune-${r.tag}-check.pdf"`, 'cache-control': 'private, no-store' } });
+	return new Response(new Uint8Array(r.pdf), {
+		headers: {
+			'content-type': 'application/pdf',
+			'content-disposition': `inline; filename="detune-${r.tag}-check.pdf"`,
+			'cache-control': 'private, no-store'
+		}
+	});
 };
