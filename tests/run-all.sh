@@ -1,5 +1,5 @@
 #!/usr/bin/env bash
-# `npm test`: type checks, unit tests (with the engine's coverage floor), a production build and the
+# `npm test`: format and lint checks, type checks, unit tests (with the engine's coverage floor), a production build and the
 # Playwright suite against it in Debian's chromium. Needs no network but the package registries.
 set -euo pipefail
 cd "$(dirname "$0")/.."
@@ -16,6 +16,8 @@ if [ ! -x /usr/bin/chromium ]; then
 	fi
 fi
 
+echo "[test] 0/4 format and lint (prettier --check, eslint)"
+npm run --silent lint
 echo "[test] 1/4 svelte-check"
 npm run --silent check
 echo "[test] 2/4 vitest (with coverage of src/lib/vibration)"

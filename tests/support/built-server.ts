@@ -79,7 +79,10 @@ export async function startBuiltServer(
 		lines((line) => {
 			if (seen.length < 1000) seen.push(line);
 			for (const w of [...waiters])
-				if (w.pattern.test(line)) (waiters.splice(waiters.indexOf(w), 1), w.resolve(line));
+				if (w.pattern.test(line)) {
+					waiters.splice(waiters.indexOf(w), 1);
+					w.resolve(line);
+				}
 		})
 	);
 	child.stderr!.on('data', lines(options.onStderrLine ?? (() => {})));

@@ -4,6 +4,7 @@
  * with the server's reason, until it is fixed or discarded. Pushes run oldest first, on demand, on
  * reconnect and on a timer that backs off after failures.
  */
+import { withParams } from '../url.ts';
 import {
 	offlineDb,
 	getMeta,
@@ -206,12 +207,7 @@ export class SyncManager {
 				return 'stop';
 			}
 			if (res.status === 401) return this.#signedOut();
-			let body: PushResponse | null = null;
-			try {
-				body = (await res.json()) as PushResponse;
-			} catch {
-				body = null;
-			}
+			const body = (await res.json().catch(() => null)) as PushResponse | null;
 			// acknowledge what the server reported, whatever the status
 			for (const r of body?.results ?? []) {
 				const item = batch.find((b) => b.id === r.id);
@@ -249,12 +245,12 @@ export class SyncManager {
 		for (const item of items) {
 			for (const rec of item.recordings ?? []) {
 				if (rec.uploaded) continue;
-				const q = new URLSearchParams({
-					id: rec.id,
-					assetId: rec.assetId,
-					name: rec.fileName,
-					...(rec.sampleRateHz ? { sampleRateHz: String(rec.sampleRateHz) } : {})
-				});
+				const q = withParams(
+					{ id: rec.id, assetId: rec.assetId, name: rec.fileName },
+					{
+						sampleRateHz: rec.sampleRateHz ? String(rec.sampleRateHz) : null
+					}
+				);
 				let res: Response;
 				try {
 					res = await fetch(`/api/recordings?${q}`, {

@@ -2,7 +2,7 @@
  * The Margin board: one row per asset from asset_status, filtered, searched, sorted and paged in
  * SQL. Stale = the latest check is older than its site's recheck interval.
  */
-import { and, asc, desc, eq, or, sql, type AnyColumn, type SQL } from 'drizzle-orm';
+import { and, asc, desc, or, sql, type AnyColumn, type SQL } from 'drizzle-orm';
 
 import { db } from './index.ts';
 import { areas, assetStatus, assets, sites } from './schema.ts';

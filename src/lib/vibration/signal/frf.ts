@@ -7,7 +7,7 @@
  * exponential window (its added damping is subtracted from the modes).
  */
 import { positive, VibrationInputError, integerAtLeast } from '../errors.ts';
-import { bucketMax, nextPow2, realFft } from './spectrum.ts';
+import { bucketMax, realFft } from './spectrum.ts';
 import { findPeaks, halfPowerBins, interpolatePeak } from './peaks.ts';
 
 export interface Hit {
