@@ -25,7 +25,6 @@ export default defineConfig({
 			DATABASE_URL: '.e2e/e2e.db',
 			ORIGIN,
 			DATA_DIR: '.e2e/data',
-			DETUNE_TEST_FAULTS: '1',
 			BODY_SIZE_LIMIT: '52M',
 			SMTP_PORT: '2626'
 		},

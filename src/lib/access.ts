@@ -43,6 +43,7 @@ export const ROUTE_ACCESS: Record<string, RouteEntry> = {
 	'/(app)/admin/import/template.csv': { access: ADMIN },
 	'/(app)/admin/audit': { access: ADMIN },
 	'/api/health': { access: 'public' },
+	'/api/session': { access: 'signed-in' },
 	'/api/sync/pull': { access: ALL },
 	'/api/checks/latest': { access: FLEET },
 	'/api/board': { access: FLEET },

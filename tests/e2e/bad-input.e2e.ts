@@ -30,7 +30,7 @@ const cookies = {} as Record<Role, string>;
 
 test.beforeAll(async () => {
 	cleanDir(DIR);
-	server = await startBuiltServer(PORT, { dir: DIR, env: { DETUNE_TEST_FAULTS: '1' } });
+	server = await startBuiltServer(PORT, { dir: DIR });
 	for (const role of ['technician', 'supervisor', 'planner', 'admin'] as Role[]) {
 		const u = demoUser(role);
 		cookies[role] = await signInCookie(server.origin, u.email, u.password);

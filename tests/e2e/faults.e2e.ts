@@ -42,7 +42,7 @@ test('SIGKILL mid-batch: the database is intact, no half batch is stored, the ta
 }) => {
 	test.setTimeout(150_000);
 	cleanDir(DIR);
-	let server = await startBuiltServer(PORT, { dir: DIR, env: { DETUNE_TEST_FAULTS: '1' } });
+	let server = await startBuiltServer(PORT, { dir: DIR, fault: 'hold@2' });
 	const context = await browser.newContext({ baseURL: server.origin });
 	const page = await context.newPage();
 	try {
@@ -53,17 +53,12 @@ test('SIGKILL mid-batch: the database is intact, no half batch is stored, the ta
 		const before = inspect(server.dbFile, []);
 
 		const ids: string[] = [];
-		let held = false;
+		// the server's armed fault writes item 1, then stops inside the open transaction at item 2
 		await page.route('**/api/sync/push', async (route) => {
 			ids.push(
 				...(route.request().postDataJSON() as { items: { id: string }[] }).items.map((i) => i.id)
 			);
-			if (held) return route.continue();
-			held = true;
-			// the server's test hook writes item 1, then stops inside the open transaction at item 2
-			await route.continue({
-				headers: { ...route.request().headers(), 'x-detune-fault': 'hold=2' }
-			});
+			return route.continue();
 		});
 		await context.setOffline(false);
 		await server.waitForLine(/batch held open at item 2/);
@@ -77,7 +72,7 @@ test('SIGKILL mid-batch: the database is intact, no half batch is stored, the ta
 		await expect(page.getByTestId('sync-state')).toHaveText('Sync failed');
 		expect(await outboxCount(page)).toBe(3);
 
-		server = await startBuiltServer(PORT, { dir: DIR, env: { DETUNE_TEST_FAULTS: '1' } });
+		server = await startBuiltServer(PORT, { dir: DIR });
 		await page.getByRole('button', { name: 'Sync now' }).click();
 		await expect.poll(() => outboxCount(page), { timeout: 20_000 }).toBe(0);
 		const unique = [...new Set(ids)];

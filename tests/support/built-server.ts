@@ -31,6 +31,11 @@ export interface StartOptions {
 	 * localhost, instead of `node build` with an ORIGIN on 127.0.0.1
 	 */
 	asServeScript?: boolean;
+	/**
+	 * a push fault for tests/support/fault-entry.js (`hold@2`, `fail@2`, `fail-after-insert@1`):
+	 * the server then starts through that test-only entry instead of `node build`
+	 */
+	fault?: string;
 }
 
 /** Splits a stream's chunks into lines. */
@@ -71,7 +76,10 @@ export async function startBuiltServer(
 				stdio: ['ignore', 'pipe', 'pipe'],
 				detached: true
 			})
-		: spawn(process.execPath, ['build'], { env: base, stdio: ['ignore', 'pipe', 'pipe'] });
+		: spawn(process.execPath, options.fault ? ['tests/support/fault-entry.js'] : ['build'], {
+				env: options.fault ? { ...base, DETUNE_FAULT: options.fault } : base,
+				stdio: ['ignore', 'pipe', 'pipe']
+			});
 	const seen: string[] = [];
 	const waiters: { pattern: RegExp; resolve: (l: string) => void }[] = [];
 	child.stdout!.on(

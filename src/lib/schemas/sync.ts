@@ -39,6 +39,8 @@ export const VERDICT_LIST = ['clear', 'tight', 'conflict', 'unchecked'] as const
 export const checkPush = z
 	.object({
 		id: uuid,
+		/** the user who recorded it on the tablet; the server refuses it under anyone else's session */
+		authorId: z.string().min(1).max(64).optional(),
 		assetId: z.string().min(1).max(64),
 		checkedAt: z
 			.number({ error: 'checkedAt must be a time in milliseconds' })
@@ -136,6 +138,22 @@ export interface PulledAsset {
 	ruleSetId: string | null;
 	sources: PulledSource[];
 	version: number;
+	/** the asset's latest check on the server, for a retest on the floor */
+	lastCheck: {
+		id: string;
+		checkedAt: number;
+		checkedBy: string | null;
+		measuredRpm: number | null;
+		verdict: (typeof VERDICT_LIST)[number];
+		modes: {
+			frequencyHz: number;
+			dampingRatio: number | null;
+			direction: string | null;
+			location: string | null;
+		}[];
+	} | null;
+	/** follow-ups not yet closed by a clear retest */
+	openFollowUps: { id: string; title: string; status: string; dueDate: string | null }[];
 }
 
 export interface PulledRuleSet {
@@ -151,10 +169,13 @@ export interface PulledRuleSet {
 
 export interface PullResponse {
 	cursor: number;
-	/** true when the client must replace what it holds (first pull, or cursor too old) */
+	/** true when the client must replace what it holds (first pull, scope changed, unknown cursor) */
 	full: boolean;
+	/** the user's scope key: send it back with the cursor */
+	scope: string;
 	assets: PulledAsset[];
 	ruleSets: PulledRuleSet[];
-	deleted: { entity: 'asset' | 'rule_set'; id: string }[];
+	/** assets that left the user's scope since the cursor */
+	deleted: { entity: 'asset'; id: string }[];
 	serverTime: number;
 }

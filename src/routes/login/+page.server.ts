@@ -1,7 +1,7 @@
 import { fail, redirect } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
 import { homeFor } from '$lib/access';
-import { createSession, signIn } from '$lib/server/auth';
+import { createSession, endSession, signIn } from '$lib/server/auth';
 import { authorize } from '$lib/server/guard';
 import { signInForm } from '$lib/schemas/user';
 import { fieldErrors } from '$lib/schemas/form';
@@ -13,9 +13,12 @@ function safeNext(next: string | null): string | null {
 	return next;
 }
 
+/**
+ * The same page for everyone, signed in or not: the service worker keeps a copy so that a tablet
+ * can show it offline (after a sign-out on the floor), so it must not depend on the session.
+ */
 export const load: PageServerLoad = (event) => {
-	const user = authorize(event);
-	if (user) redirect(303, safeNext(event.url.searchParams.get('next')) ?? homeFor(user.role));
+	authorize(event);
 	return { next: safeNext(event.url.searchParams.get('next')) };
 };
 
@@ -35,6 +38,8 @@ export const actions: Actions = {
 				errors: {} as Record<string, string>,
 				message: result.message
 			});
+		// a session this browser still holds (a sign-out on a tablet that was offline) ends here
+		if (event.locals.session) await endSession(event.locals.session.id);
 		const cookie = await createSession(result.userId);
 		event.cookies.set(cookie.name, cookie.value, { path: '/', ...cookie.attributes });
 		redirect(303, safeNext(String(form.get('next') ?? '')) ?? homeFor(result.role));

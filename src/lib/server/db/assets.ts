@@ -2,6 +2,7 @@
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { db } from './index.ts';
 import { areas, assets, checks, excitationSources, ruleSets, sites, userSites } from './schema.ts';
+import type { Tx } from './client.ts';
 import { FLEET_WIDE, type Role } from '../../roles.ts';
 
 /** The site ids a user may read: every site for fleet-wide roles, else their assignments. */
@@ -69,22 +70,33 @@ export function byId(id: string) {
 	return db.select().from(assets).where(eq(assets.id, id)).get();
 }
 
-/** Everything the asset sheet shows about the asset itself. */
-export function sheet(id: string) {
-	const asset = byId(id);
+/**
+ * An asset with what its margins need: its excitation sources in their order and its rule set.
+ * The one read behind push, the board status and the asset sheet, inside the caller's transaction.
+ */
+export function withSourcesAndRule(tx: Pick<Tx, 'select'>, id: string) {
+	const asset = tx.select().from(assets).where(eq(assets.id, id)).get();
 	if (!asset) return null;
-	const site = db.select().from(sites).where(eq(sites.id, asset.siteId)).get()!;
-	const area = asset.areaId
-		? (db.select().from(areas).where(eq(areas.id, asset.areaId)).get() ?? null)
-		: null;
-	const sources = db
+	const sources = tx
 		.select()
 		.from(excitationSources)
 		.where(eq(excitationSources.assetId, id))
 		.orderBy(asc(excitationSources.sortOrder))
 		.all();
 	const ruleSet = asset.ruleSetId
-		? (db.select().from(ruleSets).where(eq(ruleSets.id, asset.ruleSetId)).get() ?? null)
+		? (tx.select().from(ruleSets).where(eq(ruleSets.id, asset.ruleSetId)).get() ?? null)
 		: null;
-	return { asset, site, area, sources, ruleSet };
+	return { asset, sources, ruleSet };
+}
+
+/** Everything the asset sheet shows about the asset itself. */
+export function sheet(id: string) {
+	const found = withSourcesAndRule(db, id);
+	if (!found) return null;
+	const { asset } = found;
+	const site = db.select().from(sites).where(eq(sites.id, asset.siteId)).get()!;
+	const area = asset.areaId
+		? (db.select().from(areas).where(eq(areas.id, asset.areaId)).get() ?? null)
+		: null;
+	return { ...found, site, area };
 }

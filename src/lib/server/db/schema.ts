@@ -2,7 +2,8 @@
  * The one Drizzle schema. Ids are text (UUIDs made by whoever creates the row: the tablet for a
  * check, the server for the rest), so the sync protocol never depends on one node's sequence.
  * Syncable tables carry `version` (a monotonically increasing change number, see sync_state) and
- * `updatedAt`; deletions of syncable rows are kept in `deletions` so a pull can report them.
+ * `updatedAt`. Assets and rule sets are never deleted (there is no delete path), so there are no
+ * tombstones: an asset leaves a tablet when it leaves the user's scope, which a pull reports.
  * Times are integers in milliseconds since the epoch (UTC).
  */
 import {
@@ -155,20 +156,6 @@ export const excitationSources = sqliteTable(
 		...timestamps
 	},
 	(t) => [index('sources_asset_idx').on(t.assetId), index('sources_version_idx').on(t.version)]
-);
-
-/** Tombstones of syncable rows, so a pull can tell a tablet what to forget. */
-export const deletions = sqliteTable(
-	'deletions',
-	{
-		id: integer('id').primaryKey({ autoIncrement: true }),
-		entity: text('entity').notNull(),
-		rowId: text('row_id').notNull(),
-		siteId: text('site_id'),
-		version: integer('version').notNull(),
-		deletedAt: integer('deleted_at').notNull()
-	},
-	(t) => [index('deletions_version_idx').on(t.version)]
 );
 
 /** Single-row counter of the change number handed to syncable rows. */
@@ -375,13 +362,16 @@ export const assetStatus = sqliteTable(
 		tag: text('tag').notNull().default(''),
 		name: text('name').notNull().default(''),
 		/** checked_at + the site's recheck interval: stale once now passes it */
-		staleAfter: integer('stale_after')
+		staleAfter: integer('stale_after'),
+		/** change number (sync_state) of the last write, so a pull sends a tablet the new latest check */
+		version: integer('version').notNull().default(0)
 	},
 	(t) => [
 		index('status_worst_idx').on(t.verdictRank, t.worstMarginOverRangePct),
 		index('status_checked_idx').on(t.checkedAt),
 		index('status_site_worst_idx').on(t.siteId, t.verdictRank, t.worstMarginOverRangePct),
 		index('status_verdict_idx').on(t.verdict, t.staleAfter),
-		index('status_tag_idx').on(t.tag)
+		index('status_tag_idx').on(t.tag),
+		index('status_version_idx').on(t.version)
 	]
 );

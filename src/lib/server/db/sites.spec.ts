@@ -50,13 +50,13 @@ describe('sites and areas', () => {
 	});
 
 	it('a rename reaches the tablets in the next pull, and is in the audit log', () => {
-		const cursor = pull(tech, 0).cursor;
+		const { cursor, scope } = pull(tech, 0);
 		siteQueries.updateSite(
 			krw.id,
 			{ name: 'Kettle River Water Works (North)', recheckDays: krw.recheckDays },
 			admin
 		);
-		const delta = pull(tech, cursor);
+		const delta = pull(tech, cursor, scope);
 		expect(delta.full).toBe(false);
 		expect(delta.assets.length).toBeGreaterThan(0);
 		expect(delta.assets.every((a) => a.siteName === 'Kettle River Water Works (North)')).toBe(true);

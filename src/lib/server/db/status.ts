@@ -3,19 +3,19 @@
  * changes. Every function takes the caller's transaction: better-sqlite3 transactions are
  * synchronous, so the status changes with the write that causes it, or not at all.
  */
-import { and, asc, desc, eq, ne, sql } from 'drizzle-orm';
+import { and, desc, eq, ne, sql } from 'drizzle-orm';
 import type { Tx } from './client.ts';
 import {
 	assetStatus,
 	assets,
 	checks,
-	excitationSources,
 	followUps,
 	modes,
-	ruleSets,
 	sites,
 	users
 } from './schema.ts';
+import { nextVersion } from './versions.ts';
+import { withSourcesAndRule } from './assets.ts';
 import { computeCheck, type CheckSummary } from '../../checks/compute.ts';
 import { VERDICT_RANK } from '../../vibration/index.ts';
 
@@ -67,7 +67,8 @@ function write(tx: Tx, assetId: string, row: StatusRow, now: number): void {
 		worstMarginOverRangePct: s?.worstMarginOverRangePct ?? null,
 		worstPair: s?.worstPair ?? null,
 		openFollowUps,
-		updatedAt: now
+		updatedAt: now,
+		version: nextVersion(tx)
 	};
 	tx.insert(assetStatus)
 		.values(values)
@@ -77,8 +78,9 @@ function write(tx: Tx, assetId: string, row: StatusRow, now: number): void {
 
 /** Re-evaluates an asset's latest check against its current data and rule set. */
 export function refreshAsset(tx: Tx, assetId: string, now = Date.now()): CheckSummary | null {
-	const asset = tx.select().from(assets).where(eq(assets.id, assetId)).get();
-	if (!asset) return null;
+	const found = withSourcesAndRule(tx, assetId);
+	if (!found) return null;
+	const { asset, sources, ruleSet: rule } = found;
 	const latest = tx
 		.select()
 		.from(checks)
@@ -95,15 +97,6 @@ export function refreshAsset(tx: Tx, assetId: string, now = Date.now()): CheckSu
 		);
 		return null;
 	}
-	const sources = tx
-		.select()
-		.from(excitationSources)
-		.where(eq(excitationSources.assetId, assetId))
-		.orderBy(asc(excitationSources.sortOrder))
-		.all();
-	const rule = asset.ruleSetId
-		? (tx.select().from(ruleSets).where(eq(ruleSets.id, asset.ruleSetId)).get() ?? null)
-		: null;
 	const m = tx.select().from(modes).where(eq(modes.checkId, latest.id)).all();
 	const by =
 		tx.select({ name: users.name }).from(users).where(eq(users.id, latest.userId)).get()?.name ??

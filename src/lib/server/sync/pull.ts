@@ -1,23 +1,48 @@
 /**
- * Pull: the assets (with their excitation sources) and rule sets a user may read, changed since the
- * client's cursor, plus deletions. The cursor is the highest change number (version) the client
- * has seen; a cursor of 0, or one older than the tombstones kept, gets a full sync.
+ * Pull: the assets (with their excitation sources, latest check and open follow-ups) and rule sets
+ * a user may read, changed since the client's cursor, plus the assets that left the user's scope.
+ * 1. The cursor is the highest change number (version) the client has seen.
+ * 2. The scope key names what the user may read (role and sites). A client whose key differs — the
+ *    user's sites or role changed, or another user's data is on the tablet — gets a full sync, and
+ *    so does a cursor of 0 or one ahead of the server (a restored backup, a new server).
+ * 3. Assets and rule sets are never deleted; an asset that moved to a site outside the user's
+ *    scope since the cursor is reported in `deleted`, so the tablet forgets it.
  */
-import { and, asc, eq, gt, inArray, or } from 'drizzle-orm';
+import { and, asc, eq, gt, inArray, ne, notInArray, or } from 'drizzle-orm';
+import { sha256 } from '@oslojs/crypto/sha2';
+import { encodeHexLowerCase } from '@oslojs/encoding';
 import { db } from '../db/index.ts';
-import { areas, assets, deletions, excitationSources, ruleSets, sites } from '../db/schema.ts';
+import {
+	areas,
+	assetStatus,
+	assets,
+	excitationSources,
+	followUps,
+	modes,
+	ruleSets,
+	sites
+} from '../db/schema.ts';
 import { currentVersion } from '../db/versions.ts';
 import { visibleSiteIds } from '../db/assets.ts';
 import type { PullResponse, PulledAsset } from '../../schemas/sync.ts';
 import type { Role } from '../../roles.ts';
 
-export function pull(user: { id: string; role: Role }, since: number): PullResponse {
+/** A short digest of what the user may read: it changes when their role or sites change. */
+export function scopeKey(role: Role, scope: string[] | 'all'): string {
+	const text = `${role}:${scope === 'all' ? '*' : [...scope].sort().join(',')}`;
+	return encodeHexLowerCase(sha256(new TextEncoder().encode(text))).slice(0, 16);
+}
+
+export function pull(
+	user: { id: string; role: Role },
+	since: number,
+	clientScope: string | null = null
+): PullResponse {
 	return db.transaction((tx) => {
 		const cursor = currentVersion(tx);
-		// tombstones are kept for good, so any cursor the server handed out can be served as a delta;
-		// a cursor from another database (restored backup, new server) is ahead of ours: start over
-		const full = since <= 0 || since > cursor;
 		const scope = visibleSiteIds(user);
+		const key = scopeKey(user.role, scope);
+		const full = since <= 0 || since > cursor || clientScope !== key;
 		const siteFilter =
 			scope === 'all' ? undefined : inArray(assets.siteId, scope.length ? scope : ['-']);
 		const changedSourceAssets = full
@@ -45,11 +70,17 @@ export function pull(user: { id: string; role: Role }, since: number): PullRespo
 				driveRatio: assets.driveRatio,
 				skipBands: assets.skipBands,
 				ruleSetId: assets.ruleSetId,
-				version: assets.version
+				version: assets.version,
+				latestCheckId: assetStatus.latestCheckId,
+				checkedAt: assetStatus.checkedAt,
+				checkedBy: assetStatus.checkedBy,
+				checkedRpm: assetStatus.measuredRpm,
+				verdict: assetStatus.verdict
 			})
 			.from(assets)
 			.innerJoin(sites, eq(sites.id, assets.siteId))
 			.leftJoin(areas, eq(areas.id, assets.areaId))
+			.leftJoin(assetStatus, eq(assetStatus.assetId, assets.id))
 			// an asset is sent again when it, one of its sources, its site or its area changed (a rename)
 			.where(
 				and(
@@ -60,6 +91,7 @@ export function pull(user: { id: string; role: Role }, since: number): PullRespo
 								gt(assets.version, since),
 								gt(sites.version, since),
 								gt(areas.version, since),
+								gt(assetStatus.version, since),
 								changedSourceAssets.length ? inArray(assets.id, changedSourceAssets) : undefined
 							)
 				)
@@ -109,24 +141,86 @@ export function pull(user: { id: string; role: Role }, since: number): PullRespo
 				edition: r.edition,
 				version: r.version
 			}));
-		const deleted = full
-			? []
-			: tx
-					.select({ entity: deletions.entity, id: deletions.rowId })
-					.from(deletions)
-					.where(gt(deletions.version, since))
-					.all()
-					.filter(
-						(d): d is { entity: 'asset' | 'rule_set'; id: string } =>
-							d.entity === 'asset' || d.entity === 'rule_set'
-					);
+		const deleted =
+			full || scope === 'all'
+				? []
+				: tx
+						.select({ id: assets.id })
+						.from(assets)
+						.where(and(gt(assets.version, since), notInArray(assets.siteId, scope)))
+						.all()
+						.map((r) => ({ entity: 'asset' as const, id: r.id }));
+		const lastModes = groupBy(
+			tx
+				.select({
+					checkId: modes.checkId,
+					frequencyHz: modes.frequencyHz,
+					dampingRatio: modes.dampingRatio,
+					direction: modes.direction,
+					location: modes.location
+				})
+				.from(modes)
+				.where(
+					inArray(
+						modes.checkId,
+						rows.flatMap((r) => (r.latestCheckId ? [r.latestCheckId] : []))
+					)
+				)
+				.all(),
+			(m) => m.checkId
+		);
+		const open = groupBy(
+			ids.length
+				? tx
+						.select({
+							id: followUps.id,
+							assetId: followUps.assetId,
+							title: followUps.title,
+							status: followUps.status,
+							dueDate: followUps.dueDate
+						})
+						.from(followUps)
+						.where(and(inArray(followUps.assetId, ids), ne(followUps.status, 'retested')))
+						.orderBy(asc(followUps.dueDate))
+						.all()
+				: [],
+			(f) => f.assetId
+		);
 		return {
 			cursor,
 			full,
-			assets: rows.map((r) => ({ ...r, sources: byAsset.get(r.id) ?? [] })),
+			scope: key,
+			assets: rows.map(
+				({ latestCheckId, checkedAt, checkedBy, checkedRpm, verdict, ...r }): PulledAsset => ({
+					...r,
+					sources: byAsset.get(r.id) ?? [],
+					lastCheck:
+						latestCheckId && checkedAt !== null
+							? {
+									id: latestCheckId,
+									checkedAt,
+									checkedBy,
+									measuredRpm: checkedRpm,
+									verdict: verdict ?? 'unchecked',
+									modes: (lastModes.get(latestCheckId) ?? []).map(({ checkId: _c, ...m }) => m)
+								}
+							: null,
+					openFollowUps: (open.get(r.id) ?? []).map(({ assetId: _a, ...f }) => f)
+				})
+			),
 			ruleSets: rules,
 			deleted,
 			serverTime: Date.now()
 		};
 	});
+}
+
+function groupBy<T>(rows: T[], key: (row: T) => string): Map<string, T[]> {
+	const out = new Map<string, T[]>();
+	for (const row of rows) {
+		const list = out.get(key(row));
+		if (list) list.push(row);
+		else out.set(key(row), [row]);
+	}
+	return out;
 }

@@ -2,33 +2,39 @@
  * Push: a batch of checks from a tablet, answered per item.
  * 1. Each item is parsed on its own: a malformed item is rejected with the reason, the rest go on.
  * 2. A check whose UUID the server already holds is a duplicate: acknowledged, nothing stored.
- * 3. The asset must be on one of the user's sites, and a replaced check must exist.
- * 4. The server recomputes margins and verdicts with the same engine and stores its result as the
+ * 3. The check's author is the session's user: an item that names another author is refused, so a
+ *    shared tablet can never file one technician's check under another's name.
+ * 4. The asset must be on one of the user's sites, and a replaced check must exist.
+ * 5. The server recomputes margins and verdicts with the same engine and stores its result as the
  *    one of record; where the device showed something else, both are kept and the difference logged.
- * 5. All of it in one synchronous transaction. An unexpected error stops the batch there: the items
- *    already applied are committed and reported, the rest are left for the client to retry.
+ * 6. The batch is one synchronous transaction and each item a savepoint inside it: an item is
+ *    stored whole or not at all. An unexpected error rolls that item back and stops the batch there;
+ *    the items before it are committed and reported, the rest are left for the client to retry.
  */
 import { eq } from 'drizzle-orm';
 import { db } from '../db/index.ts';
-import { assets, checks, excitationSources, modes, recordings, ruleSets } from '../db/schema.ts';
+import { checks, modes, recordings } from '../db/schema.ts';
 import { analysesDiffer, type StoredAnalysis } from '../recordings.ts';
 import { afterCheck } from '../db/status.ts';
 import { retestedBy } from '../db/follow-ups.ts';
-import { inScope, visibleSiteIds } from '../db/assets.ts';
-import { computeCheck, sameSummary } from '../../checks/compute.ts';
-import { checkPush, type ItemResult, type PushResponse } from '../../schemas/sync.ts';
+import { inScope, visibleSiteIds, withSourcesAndRule } from '../db/assets.ts';
+import { computeCheck, sameSummary, type ComputedCheck } from '../../checks/compute.ts';
+import {
+	checkPush,
+	type CheckPush,
+	type ItemResult,
+	type PushResponse
+} from '../../schemas/sync.ts';
 import type { Role } from '../../roles.ts';
-import type { Tx } from '../db/client.ts';
+import type { Db } from '../db/client.ts';
+import { pushProbe } from './probe.ts';
+
+/** The batch transaction: it can open a savepoint per item. */
+type BatchTx = Parameters<Parameters<Db['transaction']>[0]>[0];
+type Found = NonNullable<ReturnType<typeof withSourcesAndRule>>;
+type Pusher = { id: string; name?: string };
 
 export interface PushOptions {
-	/** test hook (only with DETUNE_TEST_FAULTS=1): throw at this 1-based item */
-	failAtItem?: number | null;
-	/**
-	 * test hook (only with DETUNE_TEST_FAULTS=1): at this 1-based item, with the items before it
-	 * written but not committed, say so on stdout and block, so that a test can kill the server
-	 * mid-batch
-	 */
-	holdAtItem?: number | null;
 	now?: number;
 }
 
@@ -41,13 +47,13 @@ export function push(
 	let error: string | undefined;
 	const scope = visibleSiteIds(user);
 	const now = options.now ?? Date.now();
+	const probe = pushProbe();
 	db.transaction((tx) => {
 		for (let index = 0; index < items.length; index++) {
 			try {
-				if (options.failAtItem === index + 1)
-					throw new Error(`fault injected at item ${index + 1}`);
-				if (options.holdAtItem === index + 1) holdForKill(index + 1);
-				results.push(applyOne(tx, user, scope, items[index], now));
+				probe?.({ item: index + 1, phase: 'before-item', checkId: rawIdOf(items[index]) });
+				// a savepoint: whatever this item wrote goes if any step of it throws
+				results.push(tx.transaction((sp) => applyOne(sp, user, scope, items[index], now, index)));
 			} catch (e) {
 				error = `The server failed on item ${index + 1}; it and the items after it were not stored. Retry later.`;
 				console.error('[detune] push stopped:', (e as Error).message);
@@ -58,74 +64,93 @@ export function push(
 	return { response: error ? { results, error } : { results }, failed: error !== undefined };
 }
 
-function holdForKill(item: number): void {
-	console.log(`[detune] test fault: batch held open at item ${item}`);
-	Atomics.wait(new Int32Array(new SharedArrayBuffer(4)), 0, 0, 60_000);
+function rawIdOf(raw: unknown): string | null {
+	return typeof raw === 'object' && raw !== null && typeof (raw as { id?: unknown }).id === 'string'
+		? (raw as { id: string }).id.slice(0, 64)
+		: null;
 }
 
+const rejected = (id: string | null, reason: string): ItemResult => ({
+	id,
+	status: 'rejected',
+	reason
+});
+
 function applyOne(
-	tx: Tx,
-	user: { id: string; name?: string },
+	tx: BatchTx,
+	user: Pusher,
 	scope: string[] | 'all',
 	raw: unknown,
-	now: number
+	now: number,
+	index: number
 ): ItemResult {
 	const parsed = checkPush.safeParse(raw);
-	const rawId =
-		typeof raw === 'object' && raw !== null && typeof (raw as { id?: unknown }).id === 'string'
-			? ((raw as { id: string }).id as string).slice(0, 64)
-			: null;
 	if (!parsed.success) {
 		const issue = parsed.error.issues[0];
-		return {
-			id: rawId,
-			status: 'rejected',
-			reason: `${issue.path.join('.') || 'item'}: ${issue.message}`
-		};
+		return rejected(rawIdOf(raw), `${issue.path.join('.') || 'item'}: ${issue.message}`);
 	}
 	const c = parsed.data;
+	if (c.authorId && c.authorId !== user.id)
+		return rejected(
+			c.id,
+			'This check was recorded by another user on this tablet; it syncs when they sign in.'
+		);
 	if (tx.select({ id: checks.id }).from(checks).where(eq(checks.id, c.id)).get())
 		return { id: c.id, status: 'duplicate' };
-	const asset = tx.select().from(assets).where(eq(assets.id, c.assetId)).get();
-	if (!asset || !inScope(scope, asset.siteId))
-		return {
-			id: c.id,
-			status: 'rejected',
-			reason: 'The asset does not exist or is not on your sites.'
-		};
+	const found = withSourcesAndRule(tx, c.assetId);
+	if (!found || !inScope(scope, found.asset.siteId))
+		return rejected(c.id, 'The asset does not exist or is not on your sites.');
+	const refused = refusedReference(tx, c, found.asset.id);
+	if (refused) return rejected(c.id, refused);
+	let computed: ComputedCheck;
+	try {
+		computed = computeCheck(
+			{ ...found.asset, sources: found.sources },
+			found.ruleSet,
+			c.measuredRpm,
+			c.modes
+		);
+	} catch (e) {
+		return rejected(c.id, `The check cannot be computed: ${(e as Error).message}`);
+	}
+	insertCheck(tx, user, c, found, computed, now);
+	pushProbe()?.({ item: index + 1, phase: 'after-insert', checkId: c.id });
+	const s = computed.summary;
+	if (s.verdict === 'clear') retestedBy(tx, found.asset.id, c.id, c.checkedAt, now);
+	afterCheck(
+		tx,
+		found.asset.id,
+		{ id: c.id, checkedAt: c.checkedAt, measuredRpm: c.measuredRpm, userName: user.name ?? null },
+		s,
+		now
+	);
+	linkRecordings(tx, c);
+	return { id: c.id, status: 'applied', verdict: s.verdict };
+}
+
+/** Why a check's references cannot be accepted (a replaced check, its recordings), or null. */
+function refusedReference(tx: BatchTx, c: CheckPush, assetId: string): string | null {
 	if (
 		c.replacesCheckId &&
 		!tx.select({ id: checks.id }).from(checks).where(eq(checks.id, c.replacesCheckId)).get()
-	) {
-		return { id: c.id, status: 'rejected', reason: 'The check it replaces is not on the server.' };
-	}
+	)
+		return 'The check it replaces is not on the server.';
 	for (const r of c.recordings ?? []) {
 		const row = tx.select().from(recordings).where(eq(recordings.id, r.id)).get();
-		if (!row || row.assetId !== asset.id)
-			return {
-				id: c.id,
-				status: 'rejected',
-				reason: `Recording ${r.id} has not been uploaded for this asset.`
-			};
+		if (!row || row.assetId !== assetId)
+			return `Recording ${r.id} has not been uploaded for this asset.`;
 	}
-	const sources = tx
-		.select()
-		.from(excitationSources)
-		.where(eq(excitationSources.assetId, asset.id))
-		.all();
-	const rule = asset.ruleSetId
-		? (tx.select().from(ruleSets).where(eq(ruleSets.id, asset.ruleSetId)).get() ?? null)
-		: null;
-	let computed;
-	try {
-		computed = computeCheck({ ...asset, sources }, rule, c.measuredRpm, c.modes);
-	} catch (e) {
-		return {
-			id: c.id,
-			status: 'rejected',
-			reason: `The check cannot be computed: ${(e as Error).message}`
-		};
-	}
+	return null;
+}
+
+function insertCheck(
+	tx: BatchTx,
+	user: Pusher,
+	c: CheckPush,
+	{ asset, ruleSet: rule }: Found,
+	computed: ComputedCheck,
+	now: number
+): void {
 	const s = computed.summary;
 	const differs = !sameSummary(c.device, s);
 	if (differs)
@@ -166,7 +191,7 @@ function applyOne(
 			resultDiffers: differs
 		})
 		.run();
-	c.modes.forEach((m) => {
+	for (const m of c.modes)
 		tx.insert(modes)
 			.values({
 				id: crypto.randomUUID(),
@@ -179,15 +204,10 @@ function applyOne(
 				recordingId: m.recordingId ?? null
 			})
 			.run();
-	});
-	if (s.verdict === 'clear') retestedBy(tx, asset.id, c.id, c.checkedAt, now);
-	afterCheck(
-		tx,
-		asset.id,
-		{ id: c.id, checkedAt: c.checkedAt, measuredRpm: c.measuredRpm, userName: user.name ?? null },
-		s,
-		now
-	);
+}
+
+/** The check's bump-test files now belong to it; the device's peaks are kept beside the server's. */
+function linkRecordings(tx: BatchTx, c: CheckPush): void {
 	for (const r of c.recordings ?? []) {
 		const row = tx.select().from(recordings).where(eq(recordings.id, r.id)).get()!;
 		const differs = analysesDiffer(
@@ -207,5 +227,4 @@ function applyOne(
 			.where(eq(recordings.id, r.id))
 			.run();
 	}
-	return { id: c.id, status: 'applied', verdict: s.verdict };
 }

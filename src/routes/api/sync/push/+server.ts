@@ -1,7 +1,6 @@
 import { error, json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
 import { requireUser } from '$lib/server/guard';
-import { setting } from '$lib/server/config';
 import { push } from '$lib/server/sync/push';
 import { inTurn } from '$lib/server/turns';
 import { declaredLength } from '$lib/server/body';
@@ -35,12 +34,6 @@ export const POST: RequestHandler = async (event) => {
 			message: `Bad batch: ${batch.error.issues[0].path.join('.') || 'body'}: ${batch.error.issues[0].message}`,
 			code: 'bad-batch'
 		});
-	const faultHeader =
-		setting('DETUNE_TEST_FAULTS') === '1' ? event.request.headers.get('x-detune-fault') : null;
-	const failAtItem = faultHeader?.startsWith('item=') ? Number(faultHeader.slice(5)) : null;
-	const holdAtItem = faultHeader?.startsWith('hold=') ? Number(faultHeader.slice(5)) : null;
-	const { response, failed } = await inTurn(() =>
-		push(user, batch.data.items, { failAtItem, holdAtItem })
-	);
+	const { response, failed } = await inTurn(() => push(user, batch.data.items));
 	return json(response, { status: failed ? 500 : 200, headers: { 'cache-control': 'no-store' } });
 };
