@@ -3,6 +3,10 @@ import tailwindcss from '@tailwindcss/vite';
 import { SvelteKitPWA } from '@vite-pwa/sveltekit';
 import { defineConfig } from 'vitest/config';
 
+/** A revision for the pages the service worker keeps (they change with every build). */
+const BUILD = Date.now().toString(36);
+const OFFLINE_PAGES = ['/field', '/login', '/offline'];
+
 export default defineConfig({
 	plugins: [
 		tailwindcss(),
@@ -43,28 +47,20 @@ export default defineConfig({
 				cleanupOutdatedCaches: true,
 				// the app shell, fonts and everything Floor check needs (the analysis worker included)
 				globPatterns: ['client/**/*.{js,css,ico,png,svg,webp,woff2,webmanifest}'],
+				// pages the worker fetches when it installs, so they open offline from the first visit:
+				// Floor check (a shell that renders from IndexedDB), sign-in and the offline page. None of
+				// them depends on the session; each build gives them a new revision
+				additionalManifestEntries: OFFLINE_PAGES.map((url) => ({ url, revision: BUILD })),
+				// /login?next=/field and /field?… are the same cached page
+				ignoreURLParametersMatching: [/.*/],
 				navigateFallback: null,
 				runtimeCaching: [
 					{
-						// Floor check's page (server-rendered once online), then served from the cache offline
-						urlPattern: ({ request, url }) =>
-							request.mode === 'navigate' && url.pathname === '/field',
-						handler: 'NetworkFirst',
-						options: {
-							cacheName: 'detune-pages',
-							networkTimeoutSeconds: 4,
-							cacheableResponse: { statuses: [200] }
-						}
-					},
-					{
-						urlPattern: ({ url }) =>
-							url.pathname === '/field/__data.json' || url.pathname === '/__data.json',
-						handler: 'NetworkFirst',
-						options: {
-							cacheName: 'detune-data',
-							networkTimeoutSeconds: 4,
-							cacheableResponse: { statuses: [200] }
-						}
+						// every other page comes from the network; without one, the page that says what
+						// works offline
+						urlPattern: ({ request }) => request.mode === 'navigate',
+						handler: 'NetworkOnly',
+						options: { precacheFallback: { fallbackURL: '/offline' } }
 					}
 				]
 			}

@@ -3,7 +3,7 @@
  * action and endpoint) and the tests read. Keys are SvelteKit route ids. A route missing from this
  * table is refused (403) by the guard, and the route test fails, so nothing ships unlisted.
  */
-import { ROLES, type Role } from './roles.ts';
+import { FIELD_WORK, FLEET_WIDE, ROLES, type Role } from './roles.ts';
 
 export type RouteAccess = 'public' | 'signed-in' | readonly Role[];
 
@@ -16,8 +16,8 @@ export interface RouteEntry {
 }
 
 const ALL: readonly Role[] = ROLES;
-const FIELD: readonly Role[] = ['technician', 'supervisor', 'admin'];
-const FLEET: readonly Role[] = ['supervisor', 'planner', 'admin'];
+const FIELD = FIELD_WORK;
+const FLEET = FLEET_WIDE;
 const ADMIN: readonly Role[] = ['admin'];
 const EDITORS: readonly Role[] = ['supervisor', 'admin'];
 
@@ -25,7 +25,10 @@ export const ROUTE_ACCESS: Record<string, RouteEntry> = {
 	'/': { access: 'signed-in' },
 	'/login': { access: 'public' },
 	'/logout': { access: 'signed-in', method: 'POST' },
-	'/(app)/field': { access: FIELD },
+	// a shell with no data (it renders from the tablet's IndexedDB, see (floor)/+layout.ts), so the
+	// service worker can keep it for offline use; its data comes from the guarded sync API
+	'/(floor)/field': { access: 'public' },
+	'/offline': { access: 'public' },
 	'/(app)/settings': { access: ALL },
 	'/(app)/board': { access: FLEET },
 	'/(app)/follow-ups': { access: ALL },
@@ -86,7 +89,7 @@ export interface NavItem {
 }
 
 export const NAV: readonly NavItem[] = [
-	{ href: '/field', label: 'Floor check', routeId: '/(app)/field', icon: 'field' },
+	{ href: '/field', label: 'Floor check', routeId: '/(floor)/field', icon: 'field' },
 	{ href: '/board', label: 'Margin board', routeId: '/(app)/board', icon: 'board' },
 	{ href: '/follow-ups', label: 'Follow-ups', routeId: '/(app)/follow-ups', icon: 'follow-ups' },
 	{ href: '/rule-sets', label: 'Rule sets', routeId: '/(app)/rule-sets', icon: 'rules' },
@@ -99,16 +102,14 @@ export const NAV: readonly NavItem[] = [
 
 /** The navigation a role may use, in the table's order. */
 export function navFor(role: Role): NavItem[] {
-	return NAV.filter((n) => mayAccess(ROUTE_ACCESS[n.routeId], role));
+	return NAV.filter((n) =>
+		n.routeId === '/(floor)/field'
+			? FIELD_WORK.includes(role)
+			: mayAccess(ROUTE_ACCESS[n.routeId], role)
+	);
 }
 
 /** Where a role lands after sign-in. */
 export function homeFor(role: Role): string {
-	return role === 'technician'
-		? '/field'
-		: role === 'planner'
-			? '/follow-ups'
-			: role === 'admin'
-				? '/board'
-				: '/board';
+	return role === 'technician' ? '/field' : role === 'planner' ? '/follow-ups' : '/board';
 }

@@ -9,6 +9,9 @@ export const ROLE_LABELS: Record<Role, string> = {
 	admin: 'Admin'
 };
 
+/** Roles that do floor checks (Floor check, push, recordings). */
+export const FIELD_WORK: readonly Role[] = ['technician', 'supervisor', 'admin'];
+
 /** Roles that see every site; a technician sees only the sites they are assigned to. */
 export const FLEET_WIDE: readonly Role[] = ['supervisor', 'planner', 'admin'];
 

@@ -1,18 +1,14 @@
 /**
- * The outbox and the sync client: the one module that writes to the outbox. A saved check waits
- * in IndexedDB until the server has acknowledged it (applied or duplicate); a rejected one stays,
- * with the server's reason, until it is fixed or discarded. Pushes run oldest first, on demand, on
- * reconnect and on a timer that backs off after failures.
+ * The outbox and the sync client: the one module that writes to the outbox. It works for one user
+ * at a time (the one signed in on the tablet) on that user's own store, so nobody's checks go out
+ * under anybody else's session. A saved check waits in IndexedDB until the server has acknowledged
+ * it (applied or duplicate); a rejected one stays, with the server's reason, until it is fixed or
+ * discarded. Pushes run oldest first, on demand, on reconnect and on a timer that backs off after
+ * failures.
  */
 import { withParams } from '../url.ts';
-import {
-	offlineDb,
-	getMeta,
-	setMeta,
-	applyPull,
-	type OutboxItem,
-	type PendingRecording
-} from './store.ts';
+import { newId } from '../ids.ts';
+import type { OutboxItem, PendingRecording, UserStore } from './store.ts';
 import {
 	MAX_PUSH_ITEMS,
 	type CheckPush,
@@ -45,7 +41,8 @@ export class SyncManager {
 	#failures = 0;
 	#timer: ReturnType<typeof setTimeout> | null = null;
 	#running: Promise<void> | null = null;
-	#started = false;
+	#listening = false;
+	#store: UserStore | null = null;
 	/** called after a pull changed the local asset data */
 	onPulled: (() => void) | null = null;
 
@@ -53,14 +50,32 @@ export class SyncManager {
 	rejected = $derived(this.items.filter((i) => i.status === 'rejected'));
 	oldestAt = $derived(this.items.length ? Math.min(...this.items.map((i) => i.createdAt)) : null);
 
-	/** Reads the outbox and starts listening for the network. Safe to call more than once. */
-	async start(): Promise<void> {
+	/** The user whose store this works on. */
+	get userId(): string | null {
+		return this.#store?.userId ?? null;
+	}
+
+	get #db() {
+		if (!this.#store) throw new Error('The outbox is not open: nobody is signed in.');
+		return this.#store.db;
+	}
+
+	/**
+	 * Binds to a user's store, reads their outbox and starts listening for the network. Safe to call
+	 * again; with another user's store it lets go of the previous one first.
+	 */
+	async start(store: UserStore): Promise<void> {
+		if (this.#store?.userId !== store.userId) this.stop();
+		this.#store = store;
 		await this.refresh();
-		this.lastSyncAt = (await getMeta<number>('lastSyncAt')) ?? null;
-		this.lastPullAt = (await getMeta<number>('lastPullAt')) ?? null;
-		if (this.#started) return;
-		this.#started = true;
+		this.lastSyncAt = (await store.getMeta<number>('lastSyncAt')) ?? null;
+		this.lastPullAt = (await store.getMeta<number>('lastPullAt')) ?? null;
 		if (!navigator.onLine) this.state = 'offline';
+		if (this.#listening) {
+			this.#schedule(1_000);
+			return;
+		}
+		this.#listening = true;
 		window.addEventListener('online', () => {
 			this.state = 'idle';
 			this.#failures = 0;
@@ -72,20 +87,36 @@ export class SyncManager {
 		this.#schedule(1_000);
 	}
 
+	/** Lets go of the current user's store (sign-out, or another user signed in). */
+	stop(): void {
+		if (this.#timer) clearTimeout(this.#timer);
+		this.#timer = null;
+		this.#store = null;
+		this.items = [];
+		this.state = 'idle';
+		this.message = null;
+		this.lastSyncAt = null;
+		this.lastPullAt = null;
+		this.#failures = 0;
+	}
+
 	async refresh(): Promise<void> {
-		const all = await (await offlineDb()).getAllFromIndex('outbox', 'createdAt');
+		if (!this.#store) return;
+		const all = await this.#db.getAllFromIndex('outbox', 'createdAt');
 		this.items = all.filter(isOutboxItem);
 	}
 
 	async add(
-		payload: CheckPush,
+		payload: Omit<CheckPush, 'authorId'>,
 		display: OutboxItem['display'],
 		recordings: PendingRecording[] = []
 	): Promise<void> {
+		const authorId = this.#store!.userId;
 		const item: OutboxItem = {
 			id: payload.id,
+			authorId,
 			createdAt: Date.now(),
-			payload,
+			payload: { ...payload, authorId },
 			status: 'pending',
 			reason: null,
 			attempts: 0,
@@ -93,19 +124,19 @@ export class SyncManager {
 			display,
 			recordings
 		};
-		await (await offlineDb()).put('outbox', item);
+		await this.#db.put('outbox', item);
 		await this.refresh();
 		this.#schedule(500);
 	}
 
 	async discard(id: string): Promise<void> {
-		await (await offlineDb()).delete('outbox', id);
+		await this.#db.delete('outbox', id);
 		await this.refresh();
 	}
 
 	/** Puts a rejected item back in line (after the technician fixed what it lacked). */
 	async retry(id: string, payload?: CheckPush): Promise<void> {
-		const db = await offlineDb();
+		const db = this.#db;
 		const item = await db.get('outbox', id);
 		if (!item) return;
 		await db.put('outbox', {
@@ -119,10 +150,10 @@ export class SyncManager {
 	}
 
 	async clientId(): Promise<string> {
-		let id = await getMeta<string>('clientId');
+		let id = await this.#store!.getMeta<string>('clientId');
 		if (!id) {
-			id = crypto.randomUUID();
-			await setMeta('clientId', id);
+			id = newId();
+			await this.#store!.setMeta('clientId', id);
 		}
 		return id;
 	}
@@ -136,6 +167,8 @@ export class SyncManager {
 	}
 
 	async #run(): Promise<void> {
+		const store = this.#store;
+		if (!store) return;
 		if (!navigator.onLine) {
 			this.state = 'offline';
 			return;
@@ -149,7 +182,7 @@ export class SyncManager {
 			this.#failures = 0;
 			this.state = 'idle';
 			this.lastSyncAt = Date.now();
-			await setMeta('lastSyncAt', this.lastSyncAt);
+			await store.setMeta('lastSyncAt', this.lastSyncAt);
 		} catch (e) {
 			if ((this.state as SyncState) !== 'signed-out')
 				this.#fail(e instanceof Error ? e.message : String(e));
@@ -177,14 +210,14 @@ export class SyncManager {
 		if (this.#timer) clearTimeout(this.#timer);
 		this.#timer = setTimeout(() => {
 			this.#timer = null;
-			if (this.pending.length > 0 || this.lastPullAt === null) void this.syncNow();
+			if (this.#store && (this.pending.length > 0 || this.lastPullAt === null)) void this.syncNow();
 		}, ms);
 	}
 
 	/** 'stop' when the run must end here (signed out, server fault, network down). */
 	async #pushAll(): Promise<'done' | 'stop'> {
 		const clientId = await this.clientId();
-		const db = await offlineDb();
+		const db = this.#db;
 		for (;;) {
 			await this.refresh();
 			const candidates = this.pending.slice(0, BATCH);
@@ -241,7 +274,7 @@ export class SyncManager {
 	}
 
 	async #uploadRecordings(items: OutboxItem[]): Promise<'ok' | 'stop'> {
-		const db = await offlineDb();
+		const db = this.#db;
 		for (const item of items) {
 			for (const rec of item.recordings ?? []) {
 				if (rec.uploaded) continue;
@@ -290,8 +323,11 @@ export class SyncManager {
 	}
 
 	async pull(): Promise<void> {
-		const since = (await getMeta<number>('cursor')) ?? 0;
-		const res = await fetch(`/api/sync/pull?since=${since}`);
+		const store = this.#store;
+		if (!store) return;
+		const since = (await store.getMeta<number>('cursor')) ?? 0;
+		const scope = (await store.getMeta<string>('scope')) ?? null;
+		const res = await fetch(`/api/sync/pull?${withParams({ since: String(since) }, { scope })}`);
 		if (res.status === 401) {
 			this.state = 'signed-out';
 			this.message = 'Your session ended. Sign in again to refresh the asset list.';
@@ -299,7 +335,9 @@ export class SyncManager {
 		}
 		if (!res.ok) throw new Error(`Refreshing assets failed (${res.status}).`);
 		const body = (await res.json()) as PullResponse;
-		await applyPull(body);
+		// the user may have changed while the answer travelled: it belongs to the store that asked
+		await store.applyPull(body);
+		if (this.#store !== store) return;
 		this.lastPullAt = Date.now();
 		this.onPulled?.();
 	}

@@ -12,14 +12,20 @@ const uuid = z.uuid({ error: 'must be a UUID' });
 const finiteNumber = (what: string) =>
 	z.number({ error: `${what} must be a number` }).finite(`${what} must be finite`);
 
+/** A number typed on the tablet ("1 185", "17,2"); anything else is NaN and fails the schema. */
+const typedNumber = (s: string) => {
+	const t = s.trim().replace(/\s/g, '').replace(',', '.');
+	return /^[-+]?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?$/i.test(t) ? Number(t) : Number.NaN;
+};
+
 export const modeInput = z
 	.object({
-		frequencyHz: finiteNumber('frequency')
-			.positive('frequency must be greater than zero')
-			.max(100_000, 'frequency must be at most 100 kHz'),
-		dampingRatio: finiteNumber('damping ratio')
-			.positive('damping ratio must be greater than zero')
-			.max(1, 'damping ratio must be at most 1')
+		frequencyHz: finiteNumber('Natural frequency')
+			.positive('Natural frequency must be greater than zero (Hz).')
+			.max(100_000, 'Natural frequency must be at most 100 kHz.'),
+		dampingRatio: finiteNumber('Damping ratio')
+			.positive('Damping ratio must be greater than zero (for example 0.02), or leave it empty.')
+			.max(1, 'Damping ratio must be at most 1.')
 			.nullable(),
 		direction: z.enum(DIRECTIONS_LIST).nullable(),
 		location: z.string().trim().max(200, 'location is at most 200 characters').nullable(),
@@ -30,11 +36,85 @@ export const modeInput = z
 
 export type ModeInput = z.infer<typeof modeInput>;
 
+/** Floor check's "type a natural frequency" form, read into a mode with the same limits. */
+export const modeText = z
+	.object({
+		freq: z.string(),
+		zeta: z.string(),
+		direction: z.string(),
+		location: z.string()
+	})
+	.transform((f, ctx) => {
+		const frequencyHz = typedNumber(f.freq);
+		if (!Number.isFinite(frequencyHz)) {
+			ctx.addIssue({
+				code: 'custom',
+				message: 'Natural frequency: enter a number of hertz greater than zero.'
+			});
+			return z.NEVER;
+		}
+		const dampingRatio = f.zeta.trim() === '' ? null : typedNumber(f.zeta);
+		if (dampingRatio !== null && !Number.isFinite(dampingRatio)) {
+			ctx.addIssue({
+				code: 'custom',
+				message:
+					'Damping ratio: enter a number between 0 and 1 (for example 0.02), or leave it empty.'
+			});
+			return z.NEVER;
+		}
+		return {
+			frequencyHz,
+			dampingRatio,
+			direction: f.direction === '' ? null : f.direction,
+			location: f.location.trim() || null,
+			origin: 'typed' as ModeInput['origin']
+		};
+	})
+	.pipe(modeInput);
+
 /** 2000-01-01: no check is older; a tablet whose clock is off by more than a day is refused */
 const EARLIEST_CHECK = Date.UTC(2000, 0, 1);
 const CLOCK_SKEW_MS = 86_400_000;
 
 export const VERDICT_LIST = ['clear', 'tight', 'conflict', 'unchecked'] as const;
+
+/** The measured running speed: the same limits on the tablet's field and in a pushed check. */
+export const measuredRpm = finiteNumber('Running speed')
+	.positive('Running speed must be greater than zero (rpm).')
+	.max(100_000, 'Running speed must be at most 100 000 rpm.');
+export const driveSetpointHz = finiteNumber('Drive setpoint')
+	.positive('Drive setpoint must be greater than zero (Hz), or leave it empty.')
+	.max(1000, 'Drive setpoint must be at most 1000 Hz.');
+
+/** Floor check's speed field (rpm). */
+export const speedText = z
+	.string()
+	.transform(typedNumber)
+	.pipe(
+		z
+			.number({ error: 'Running speed: enter the measured rpm as a number.' })
+			.refine(Number.isFinite, 'Running speed: enter the measured rpm as a number.')
+			.pipe(measuredRpm)
+	);
+
+/** Floor check's drive setpoint field (Hz): empty means none. */
+export const setpointText = z
+	.string()
+	.transform((s) => (s.trim() === '' ? null : typedNumber(s)))
+	.pipe(
+		z
+			.number({ error: 'Drive setpoint: a number of hertz, or leave it empty.' })
+			.refine(Number.isFinite, 'Drive setpoint: a number of hertz, or leave it empty.')
+			.pipe(driveSetpointHz)
+			.nullable()
+	);
+
+/** The first problem of a failed parse, as one sentence for the screen. */
+export function firstProblem(error: z.ZodError): string {
+	const issue = error.issues[0];
+	const path = issue.path.join('.');
+	return path ? `${path}: ${issue.message}` : issue.message;
+}
 
 export const checkPush = z
 	.object({
@@ -50,10 +130,8 @@ export const checkPush = z
 				(t) => t <= Date.now() + CLOCK_SKEW_MS,
 				'checkedAt is more than a day in the future: check the tablet’s clock'
 			),
-		measuredRpm: finiteNumber('measured speed')
-			.positive('measured speed must be greater than zero')
-			.max(100_000),
-		driveSetpointHz: finiteNumber('drive setpoint').positive().max(1000).nullable(),
+		measuredRpm,
+		driveSetpointHz: driveSetpointHz.nullable(),
 		notes: z.string().max(4000, 'notes are at most 4000 characters'),
 		replacesCheckId: uuid.nullable(),
 		modes: z

@@ -6,7 +6,13 @@ import { requireUser } from '$lib/server/guard';
 export const load: LayoutServerLoad = (event) => {
 	const user = requireUser(event);
 	return {
-		user: { name: user.name, email: user.email, role: user.role, unitSystem: user.unitSystem },
+		user: {
+			id: user.id,
+			name: user.name,
+			email: user.email,
+			role: user.role,
+			unitSystem: user.unitSystem
+		},
 		nav: navFor(user.role)
 	};
 };

@@ -150,7 +150,7 @@ describe('push', () => {
 			'applied'
 		]);
 		expect(r.response.results[0].reason).toMatch(
-			/measuredRpm: measured speed must be greater than zero/
+			/measuredRpm: Running speed must be greater than zero/
 		);
 		expect(r.response.results[2].reason).toMatch(/not on your sites/);
 	});

@@ -1,0 +1,28 @@
+/**
+ * How Detune shows times to people: one module, so every screen says the same thing the same way.
+ * Dates are the device's local calendar day, written unambiguously (2 Dec 2026).
+ */
+const dayFormat = new Intl.DateTimeFormat('en-GB', {
+	day: 'numeric',
+	month: 'short',
+	year: 'numeric'
+});
+const timeFormat = new Intl.DateTimeFormat('en-GB', { hour: '2-digit', minute: '2-digit' });
+
+/** "2 Dec 2026" */
+export const day = (t: number | null | undefined): string =>
+	t === null || t === undefined ? '—' : dayFormat.format(t);
+
+/** "2 Dec 2026, 14:05" */
+export const dayTime = (t: number | null | undefined): string =>
+	t === null || t === undefined ? '—' : `${dayFormat.format(t)}, ${timeFormat.format(t)}`;
+
+/** "just now", "5 min ago", "3 h ago", "2 d ago", or "never" */
+export function ago(t: number | null | undefined, now = Date.now()): string {
+	if (t === null || t === undefined) return 'never';
+	const s = Math.max(0, Math.round((now - t) / 1000));
+	if (s < 60) return 'just now';
+	if (s < 3600) return `${Math.round(s / 60)} min ago`;
+	if (s < 86400) return `${Math.round(s / 3600)} h ago`;
+	return `${Math.round(s / 86400)} d ago`;
+}
