@@ -87,3 +87,31 @@ test('SIGKILL mid-batch: the database is intact, no half batch is stored, the ta
 		await server.kill('SIGTERM');
 	}
 });
+
+test('a server fault on the second item: the first is acknowledged and gone, the others stay and go through on retry', async ({
+	browser
+}) => {
+	const dir = `${DIR}-item`;
+	cleanDir(dir);
+	const server = await startBuiltServer(PORT + 1, { dir, fault: 'fail@2' });
+	const context = await browser.newContext({ baseURL: server.origin });
+	const page = await context.newPage();
+	try {
+		await openFieldOnline(page);
+		await context.setOffline(true);
+		await saveChecks(page, ['KRW-HLP-202', 'KRW-HLP-203', 'KRW-BWP-301']);
+		await expect.poll(() => outboxCount(page)).toBe(3);
+		// reconnecting pushes at once; the armed fault fails the batch at its second item
+		await context.setOffline(false);
+		await expect.poll(() => outboxCount(page)).toBe(2);
+		await expect(page.getByTestId('sync-state')).toHaveText('Sync failed');
+		await page.getByRole('button', { name: 'Sync now' }).click();
+		await expect.poll(() => outboxCount(page)).toBe(0);
+		const stored = inspect(server.dbFile, []);
+		expect(stored.integrity).toBe('ok');
+	} finally {
+		await context.close();
+		await server.stop();
+		cleanDir(dir);
+	}
+});

@@ -1,17 +1,52 @@
-import { chromium, expect, test } from '@playwright/test';
+import { chromium, expect, test, type Page } from '@playwright/test';
 import { signIn, signInApi, ORIGIN } from './helpers.ts';
 import { openFieldOnline, outboxCount, pickAsset, saveChecks, typeMode } from './floor.ts';
 
+/** A browser profile on disk, so that a test can close the browser and start it again. */
+function launchProfile(dir: string) {
+	return chromium.launchPersistentContext(dir, {
+		executablePath: '/usr/bin/chromium',
+		baseURL: ORIGIN,
+		serviceWorkers: 'allow',
+		viewport: { width: 1024, height: 768 },
+		args: [
+			'--headless',
+			'--no-sandbox',
+			'--disable-gpu',
+			'--disable-quic',
+			'--no-first-run',
+			'--disable-background-networking',
+			'--disable-component-update',
+			'--disable-sync'
+		]
+	});
+}
+
+const verdictShown = async (page: Page) =>
+	(await page
+		.getByTestId('verdict')
+		.locator('[data-verdict]')
+		.first()
+		.getAttribute('data-verdict'))!;
+
 test.describe('Floor check offline', () => {
-	test('three checks saved offline survive a reload and a closed tab, then sync once with the server’s verdicts', async ({
-		page,
-		context,
+	test('one online visit is enough: ready offline, then reload, a new tab and a browser restart open Floor check; three checks saved offline sync once each', async ({
 		browser
-	}) => {
+	}, testInfo) => {
+		test.setTimeout(120_000);
+		const dir = testInfo.outputPath('profile');
+		let context = await launchProfile(dir);
+		let page = context.pages()[0] ?? (await context.newPage());
+		// the first and only online visit
 		await openFieldOnline(page);
 		await context.setOffline(true);
+
 		await page.reload();
 		await expect(page.getByTestId('asset-list').getByRole('button').first()).toBeVisible();
+		const tab = await context.newPage();
+		await tab.goto('/field');
+		await expect(tab.getByTestId('asset-list').getByRole('button').first()).toBeVisible();
+		await tab.close();
 		const verdicts: Record<string, string> = {};
 
 		// 1: typed modes
@@ -19,31 +54,24 @@ test.describe('Floor check offline', () => {
 		await page.getByLabel(/^Measured running speed/).fill('1185');
 		await typeMode(page, '27.4', '0.04');
 		await typeMode(page, '58', '');
-		verdicts['KRW-HLP-201'] = (await page
-			.getByTestId('verdict')
-			.locator('[data-verdict]')
-			.first()
-			.getAttribute('data-verdict'))!;
+		verdicts['KRW-HLP-201'] = await verdictShown(page);
 		await expect(page.getByTestId('interference-diagram')).toBeVisible();
 		await expect(page.getByTestId('cautions')).toBeVisible();
 		await page.getByRole('button', { name: 'Save check' }).click();
 		await expect(page.getByTestId('saved-message')).toContainText('KRW-HLP-201');
 
-		// 2: from the estimate calculator (static deflection of 6 mm ≈ 6.43 Hz)
+		// 2: from the estimate calculator (static deflection of 6 mm ≈ 6.43 Hz, domain E3)
 		await pickAsset(page, 'KRW-SLP-601');
 		await page.getByLabel(/^Measured running speed/).fill('620');
-		await page.getByRole('tab', { name: 'Estimate' }).click();
-		await page.getByLabel('Structure').selectOption('static');
+		await page.getByRole('tab', { name: 'Estimate from the structure' }).click();
+		await page.getByLabel('Structure', { exact: true }).selectOption('static');
 		await page.getByLabel(/^Static deflection/).fill('6');
 		await expect(page.getByTestId('estimate-result')).toContainText('6.43 Hz');
 		await page.getByRole('button', { name: 'Add 6.43 Hz' }).click();
 		await expect(page.getByTestId('modes-list')).toContainText('6.43 Hz');
-		verdicts['KRW-SLP-601'] = (await page
-			.getByTestId('verdict')
-			.locator('[data-verdict]')
-			.first()
-			.getAttribute('data-verdict'))!;
+		verdicts['KRW-SLP-601'] = await verdictShown(page);
 		await page.getByRole('button', { name: 'Save check' }).click();
+		await expect(page.getByTestId('saved-message')).toContainText('KRW-SLP-601');
 
 		// 3: in conflict — a mode right on running speed
 		await pickAsset(page, 'KRW-RWP-101');
@@ -53,26 +81,35 @@ test.describe('Floor check offline', () => {
 			'data-verdict',
 			'conflict'
 		);
+		await expect(
+			page.getByTestId('bar-verdict-at-speed').locator('[data-verdict]')
+		).toHaveAttribute('data-verdict', 'conflict');
 		verdicts['KRW-RWP-101'] = 'conflict';
 		await expect(page.getByTestId('bands')).toContainText('Drive Hz');
 		await page.getByRole('button', { name: 'Save check' }).click();
 		await expect.poll(() => outboxCount(page)).toBe(3);
 
-		// close the tab, open a new one, still offline
-		await page.close();
-		const again = await context.newPage();
-		await again.goto('/field');
-		await expect.poll(() => outboxCount(again)).toBe(3);
+		// the browser is closed and started again, still with no network
+		await context.close();
+		context = await launchProfile(dir);
+		await context.setOffline(true);
+		page = context.pages()[0] ?? (await context.newPage());
+		await page.goto('/field');
+		await expect(page.getByTestId('asset-list').getByRole('button').first()).toBeVisible();
+		await expect.poll(() => outboxCount(page)).toBe(3);
+		await expect(page.getByTestId('recent-checks')).toContainText('KRW-RWP-101');
 
-		// back online: sync (and keep what the tablet sent, to replay it)
+		// back online: each check reaches the server once (keep what the tablet sent, to replay it)
 		const sent: unknown[] = [];
-		again.on('request', (r) => {
+		page.on('request', (r) => {
 			if (r.url().endsWith('/api/sync/push'))
 				sent.push(...(r.postDataJSON() as { items: unknown[] }).items);
 		});
 		await context.setOffline(false);
-		await again.getByRole('button', { name: 'Sync now' }).click();
-		await expect.poll(() => outboxCount(again), { timeout: 20_000 }).toBe(0);
+		await page.getByRole('button', { name: 'Sync now' }).click();
+		await expect.poll(() => outboxCount(page), { timeout: 20_000 }).toBe(0);
+		await context.close();
+		expect(sent).toHaveLength(3);
 
 		// the server holds exactly those three, with verdicts equal to the device's
 		const api = await browser.newContext({ baseURL: ORIGIN });
@@ -86,12 +123,10 @@ test.describe('Floor check offline', () => {
 		expect(mine.every((c: { resultDiffers: boolean }) => c.resultDiffers === false)).toBe(true);
 
 		// pushing the same batch again changes nothing
-		const items = sent;
-		expect(items).toHaveLength(3);
 		const tech = await browser.newContext({ baseURL: ORIGIN });
 		await signInApi(tech.request, 'technician');
 		const replay = await tech.request.post('/api/sync/push', {
-			data: { clientId: 'replay', items },
+			data: { clientId: 'replay', items: sent },
 			headers: { origin: ORIGIN }
 		});
 		expect((await replay.json()).results.map((r: { status: string }) => r.status)).toEqual([
@@ -99,10 +134,6 @@ test.describe('Floor check offline', () => {
 			'duplicate',
 			'duplicate'
 		]);
-		const after = await (await api.request.get('/api/checks/latest')).json();
-		expect(
-			after.checks.filter((c: { tag: string }) => Object.keys(verdicts).includes(c.tag))
-		).toHaveLength(3);
 		await api.close();
 		await tech.close();
 
@@ -113,64 +144,12 @@ test.describe('Floor check offline', () => {
 		for (const tag of Object.keys(verdicts)) {
 			await sp.goto(`/board?q=${tag}`);
 			const row = sp.locator(`[data-testid="board-row"][data-tag="${tag}"]`);
-			await expect(row).toContainText(new Date().toLocaleDateString('en-US'));
-			await expect(row.locator('[data-verdict]')).toHaveAttribute('data-verdict', verdicts[tag]);
+			await expect(row.locator('[data-verdict]').first()).toHaveAttribute(
+				'data-verdict',
+				verdicts[tag]
+			);
 		}
 		await sup.close();
-	});
-
-	test('works offline after the browser is closed and started again', async ({
-		browserName
-	}, testInfo) => {
-		test.skip(browserName !== 'chromium');
-		const dir = testInfo.outputPath('profile');
-		const launch = () =>
-			chromium.launchPersistentContext(dir, {
-				executablePath: '/usr/bin/chromium',
-				baseURL: ORIGIN,
-				serviceWorkers: 'allow',
-				args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking']
-			});
-		const first = await launch();
-		const page = first.pages()[0] ?? (await first.newPage());
-		await openFieldOnline(page);
-		await first.setOffline(true);
-		await saveChecks(page, ['KRW-CLD-501']);
-		await first.close();
-		const second = await launch();
-		await second.setOffline(true);
-		const p2 = second.pages()[0] ?? (await second.newPage());
-		await p2.goto('/field');
-		await expect(p2.getByTestId('asset-list').getByRole('button').first()).toBeVisible();
-		await expect.poll(() => outboxCount(p2)).toBe(1);
-		await second.setOffline(false);
-		await expect.poll(() => outboxCount(p2), { timeout: 20_000 }).toBe(0);
-		await second.close();
-	});
-
-	test('a server fault on the second item: the first is acknowledged and gone, the others stay and go through on retry', async ({
-		page,
-		context
-	}) => {
-		await openFieldOnline(page);
-		await context.setOffline(true);
-		await saveChecks(page, ['KRW-HLP-202', 'KRW-HLP-203', 'KRW-BWP-301']);
-		await expect.poll(() => outboxCount(page)).toBe(3);
-		let faulted = false;
-		await page.route('**/api/sync/push', async (route) => {
-			if (faulted) return route.continue();
-			faulted = true;
-			// the server's test hook (DETUNE_TEST_FAULTS=1) fails the batch at its second item
-			await route.continue({
-				headers: { ...route.request().headers(), 'x-detune-fault': 'item=2' }
-			});
-		});
-		// reconnecting pushes at once
-		await context.setOffline(false);
-		await expect.poll(() => outboxCount(page)).toBe(2);
-		await expect(page.getByTestId('sync-state')).toHaveText('Sync failed');
-		await page.getByRole('button', { name: 'Sync now' }).click();
-		await expect.poll(() => outboxCount(page)).toBe(0);
 	});
 
 	test('the connection drops during a push: nothing lost, nothing doubled', async ({

@@ -1,8 +1,9 @@
 /** Floor check steps shared by the end-to-end tests. */
 import { expect, type Page } from '@playwright/test';
 import { signIn } from './helpers.ts';
+import type { Role } from '../../src/lib/roles.ts';
 
-/** Waits until the service worker controls the page (domain of ../shared/toolchain.md, pitfall 4). */
+/** Waits until the service worker controls the page (../shared/toolchain.md, pitfall 4). */
 export async function swReady(page: Page) {
 	await page.evaluate(async () => {
 		await navigator.serviceWorker.ready;
@@ -21,16 +22,22 @@ export async function swReady(page: Page) {
 		.toBe('activated true');
 }
 
-export async function openFieldOnline(page: Page) {
-	await signIn(page, 'technician');
-	await page.goto('/field');
-	await swReady(page);
-	// the first pull fills the tablet's asset list
+/** What a technician waits for before walking out of coverage: the page says it is ready. */
+export async function waitReadyOffline(page: Page) {
+	await expect(page.getByTestId('ready-offline')).toHaveAttribute('data-ready', 'true', {
+		timeout: 30_000
+	});
+}
+
+/**
+ * Signs in and opens Floor check once, as a person would, and waits until it says "Ready offline".
+ * No second load: the page must be ready for offline use from this first visit.
+ */
+export async function openFieldOnline(page: Page, role: Role = 'technician') {
+	await signIn(page, role);
+	if (!/\/field/.test(page.url())) await page.goto('/field');
 	await expect(page.getByTestId('asset-list').getByRole('button').first()).toBeVisible();
-	await expect(page.getByTestId('last-pull')).not.toHaveText('never');
-	// load the page once more under the service worker so its cache holds Floor check
-	await page.reload();
-	await expect(page.getByTestId('asset-list').getByRole('button').first()).toBeVisible();
+	await waitReadyOffline(page);
 }
 
 export async function pickAsset(page: Page, tag: string) {
@@ -58,6 +65,9 @@ export async function saveChecks(page: Page, tags: string[]) {
 		await pickAsset(page, tag);
 		await page.getByLabel(/^Measured running speed/).fill('1185');
 		await typeMode(page, '33.3', '0.02');
+		// a blower at a pump's speed: the technician confirms the reading, as the screen asks
+		const confirm = page.getByLabel(/Yes, the machine runs at/);
+		if (await confirm.isVisible()) await confirm.check();
 		await page.getByRole('button', { name: 'Save check' }).click();
 		await expect(page.getByTestId('saved-message')).toContainText(tag);
 	}

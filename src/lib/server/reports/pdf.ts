@@ -11,6 +11,7 @@ import * as assetQueries from '../db/assets.ts';
 import * as checkQueries from '../db/checks.ts';
 import { computeCheck, type ComputedCheck } from '../../checks/compute.ts';
 import { comparePairs } from '../../vibration/index.ts';
+import { VERDICT_MARKS, type MarkVerdict } from '../../checks/verdict-mark.ts';
 
 export const CAUTIONS = [
 	'Impact testing is done with the machine stopped, locked out and tagged out, unless a site procedure allows otherwise.',
@@ -20,6 +21,13 @@ export const CAUTIONS = [
 
 const ink = '#111318';
 const muted = '#4a505c';
+/** the light theme's verdict colours (src/app.css) */
+const MARK_COLOURS: Record<MarkVerdict, string> = {
+	clear: '#1b7a3a',
+	tight: '#8a4b00',
+	conflict: '#b3261e',
+	unchecked: '#4f5866'
+};
 const accent = '#0b6e69';
 const pct = (v: number | null) => (v === null ? '-' : `${v.toFixed(1)} %`);
 const when = (t: number | null) =>
@@ -49,16 +57,66 @@ function heading(doc: PDFKit.PDFDocument, text: string) {
 		.fillColor(ink);
 }
 
-function table(doc: PDFKit.PDFDocument, head: string[], rows: string[][], widths: number[]) {
+/**
+ * Detune's verdict mark (src/lib/checks/verdict-mark.ts), drawn as vectors at (x, y) with the
+ * given size: the same shape and fill as on screen, so it reads in greyscale print too.
+ */
+function verdictMark(
+	doc: PDFKit.PDFDocument,
+	verdict: MarkVerdict,
+	x: number,
+	y: number,
+	size: number
+) {
+	const colour = MARK_COLOURS[verdict];
+	doc.save();
+	doc.translate(x, y).scale(size / 24);
+	for (const s of VERDICT_MARKS[verdict]) {
+		if (s.fill === 'solid') doc.path(s.d).fill(colour);
+		else if (s.fill === 'hatch') {
+			doc.save();
+			doc.path(s.d).clip();
+			for (let k = -24; k < 48; k += 3) doc.moveTo(k, 24).lineTo(k + 24, 0);
+			doc.lineWidth(1.2).stroke(colour);
+			doc.restore();
+		} else {
+			doc.path(s.d).lineWidth(s.stroke);
+			if (s.dash) doc.dash(s.dash[0], { space: s.dash[1] });
+			doc.stroke(s.fill === 'knockout' ? '#ffffff' : colour);
+			doc.undash();
+		}
+	}
+	doc.restore();
+}
+
+/** A verdict: its mark and its word (never the colour alone). */
+function verdictText(
+	doc: PDFKit.PDFDocument,
+	verdict: MarkVerdict,
+	x: number,
+	y: number,
+	size = 9
+) {
+	verdictMark(doc, verdict, x, y, size);
+	doc.text(verdict.toUpperCase(), x + size + 3, y, { lineBreak: false });
+}
+
+type Cell = string | { verdict: MarkVerdict };
+
+function table(doc: PDFKit.PDFDocument, head: string[], rows: Cell[][], widths: number[]) {
 	const x0 = doc.page.margins.left;
-	const line = (cells: string[], bold = false) => {
+	const line = (cells: Cell[], bold = false) => {
 		if (doc.y > 760) doc.addPage();
 		const y = doc.y;
 		let x = x0;
 		doc.font(bold ? 'Helvetica-Bold' : 'Helvetica').fontSize(8.5);
 		let h = 0;
 		cells.forEach((c, i) => {
-			doc.text(c, x, y, { width: widths[i] - 4 });
+			if (typeof c === 'string') doc.text(c, x, y, { width: widths[i] - 4 });
+			else {
+				verdictText(doc, c.verdict, x, y, 8);
+				doc.y = y + 10;
+			}
 			h = Math.max(h, doc.y - y);
 			x += widths[i];
 		});
@@ -208,15 +266,16 @@ function checkSection(doc: PDFKit.PDFDocument, d: NonNullable<ReturnType<typeof 
 	doc.text(
 		`Rule: ${sheet.ruleSet ? `${sheet.ruleSet.name} (${sheet.ruleSet.source}${sheet.ruleSet.edition ? `, ${sheet.ruleSet.edition}` : ''})` : 'Detune default 10 % (common practice)'}. Margin = |fn - fe| / fe.`
 	);
-	doc
-		.moveDown(0.3)
-		.font('Helvetica-Bold')
-		.fontSize(12)
-		.text(
-			`Verdict over the speed range: ${c.result.verdict.toUpperCase()}   at the measured speed: ${c.result.verdictAtSpeed.toUpperCase()}`
-		)
-		.font('Helvetica')
-		.fontSize(9.5);
+	doc.moveDown(0.3).font('Helvetica-Bold').fontSize(12);
+	const vy = doc.y;
+	const x0 = doc.page.margins.left;
+	doc.text('Verdict over the speed range:', x0, vy, { lineBreak: false });
+	verdictText(doc, c.result.verdict, x0 + 180, vy, 12);
+	doc.text('at the measured speed:', x0 + 290, vy, { lineBreak: false });
+	verdictText(doc, c.result.verdictAtSpeed, x0 + 430, vy, 12);
+	doc.x = x0;
+	doc.y = vy + 18;
+	doc.font('Helvetica').fontSize(9.5);
 	heading(doc, 'Natural frequencies');
 	table(
 		doc,
@@ -252,7 +311,7 @@ function checkSection(doc: PDFKit.PDFDocument, d: NonNullable<ReturnType<typeof 
 			pct(p.requiredAtSpeedPct),
 			pct(p.marginOverRangePct),
 			pct(p.requiredOverRangePct),
-			p.verdictOverRange
+			{ verdict: p.verdictOverRange }
 		]),
 		[62, 96, 58, 60, 50, 62, 50, 52]
 	);
@@ -342,7 +401,7 @@ export async function assetReport(assetId: string): Promise<{ pdf: Buffer; tag: 
 				`${h.measuredRpm ?? '-'} rpm`,
 				pct(h.worstMarginAtSpeedPct),
 				pct(h.worstMarginOverRangePct),
-				h.verdict
+				{ verdict: h.verdict }
 			]),
 			[130, 70, 90, 100, 80]
 		);
