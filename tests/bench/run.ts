@@ -10,9 +10,10 @@ import { syncBench } from './sync.bench.ts';
 import { recordingsBench } from './recordings.bench.ts';
 import { boardBench } from './board.bench.ts';
 import { loadBench } from './load.bench.ts';
+import { floorBench } from './floor.bench.ts';
 import { printTable, type Figure } from './harness.ts';
 
-// `npm run bench -- board` runs only the named parts (sync, board, load, recordings, engine)
+// `npm run bench -- board` runs only the named parts (floor, sync, board, load, recordings, engine)
 const only = process.argv.slice(2);
 const wanted = (part: string) => only.length === 0 || only.includes(part);
 const figures: Figure[] = [];
@@ -20,6 +21,10 @@ if (!existsSync('build/index.js')) {
 	console.log('[bench] building the app …');
 	const b = spawnSync('npx', ['vite', 'build', '--logLevel', 'warn'], { stdio: 'inherit' });
 	if (b.status !== 0) process.exit(1);
+}
+if (wanted('floor')) {
+	console.log('[bench] Floor check in chromium with the CPU slowed 4× …');
+	figures.push(...(await floorBench()));
 }
 if (wanted('sync')) {
 	console.log('[bench] sync over loopback …');
