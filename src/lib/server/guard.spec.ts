@@ -26,7 +26,9 @@ describe('role guard', () => {
 	it('applies the design’s permissions: only admins manage users, technicians do not see the board', () => {
 		expect(decide('/(app)/admin/users', 'supervisor')).toMatchObject({ ok: false, status: 403 });
 		expect(decide('/(app)/board', 'technician')).toMatchObject({ ok: false, status: 403 });
-		expect(decide('/(app)/field', 'technician')).toEqual({ ok: true });
+		// Floor check is a data-free shell; its data comes from the guarded sync API
+		expect(decide('/(floor)/field', null)).toEqual({ ok: true });
+		expect(decide('/api/sync/push', 'planner')).toMatchObject({ ok: false, status: 403 });
 		expect(navFor('technician').map((n) => n.label)).toEqual(['Floor check', 'Follow-ups']);
 		expect(navFor('admin').map((n) => n.label)).toEqual([
 			'Floor check',
