@@ -4,14 +4,16 @@
 set -euo pipefail
 cd "$(dirname "$0")/.."
 
-if [ ! -x /usr/bin/chromium ]; then
+# Debian's chromium drives the end-to-end tests; caddy and certutil (libnss3-tools) serve the
+# plant-network tests (a reverse proxy, and a tablet that trusts a local certificate authority)
+if [ ! -x /usr/bin/chromium ] || ! command -v caddy >/dev/null || ! command -v certutil >/dev/null; then
 	if [ "$(id -u)" = "0" ] && command -v apt-get >/dev/null; then
-		echo "[test] Debian's chromium is missing: installing it with apt-get"
+		echo "[test] installing Debian's chromium, caddy and libnss3-tools with apt-get"
 		apt-get update -qq
-		DEBIAN_FRONTEND=noninteractive apt-get install -y -qq chromium >/dev/null
+		DEBIAN_FRONTEND=noninteractive apt-get install -y -qq chromium caddy libnss3-tools >/dev/null
 	else
-		echo "[test] The end-to-end tests need Debian's chromium at /usr/bin/chromium." >&2
-		echo "[test] Install it with: sudo apt-get update && sudo apt-get install -y chromium" >&2
+		echo "[test] The end-to-end tests need Debian's chromium, caddy and certutil." >&2
+		echo "[test] Install them with: sudo apt-get update && sudo apt-get install -y chromium caddy libnss3-tools" >&2
 		exit 1
 	fi
 fi

@@ -29,6 +29,8 @@ export const ROUTE_ACCESS: Record<string, RouteEntry> = {
 	// service worker can keep it for offline use; its data comes from the guarded sync API
 	'/(floor)/field': { access: 'public' },
 	'/offline': { access: 'public' },
+	'/setup/certificate': { access: 'public' },
+	'/setup/certificate/detune-ca.crt': { access: 'public' },
 	'/(app)/settings': { access: ALL },
 	'/(app)/board': { access: FLEET },
 	'/(app)/follow-ups': { access: ALL },

@@ -36,6 +36,8 @@ export interface StartOptions {
 	 * the server then starts through that test-only entry instead of `node build`
 	 */
 	fault?: string;
+	/** another entry than `node build` (e.g. serve-https.js), with the origin it serves */
+	entry?: { script: string; origin: string; health: string };
 }
 
 /** Splits a stream's chunks into lines. */
@@ -57,7 +59,8 @@ export async function startBuiltServer(
 	const dir = options.dir ?? mkdtempSync(join(tmpdir(), 'detune-server-'));
 	mkdirSync(dir, { recursive: true });
 	const serve = options.asServeScript === true;
-	const origin = serve ? `http://localhost:${port}` : `http://127.0.0.1:${port}`;
+	const origin =
+		options.entry?.origin ?? (serve ? `http://localhost:${port}` : `http://127.0.0.1:${port}`);
 	const env: Record<string, string> = {
 		PORT: String(port),
 		DATABASE_URL: join(dir, 'detune.db'),
@@ -76,10 +79,14 @@ export async function startBuiltServer(
 				stdio: ['ignore', 'pipe', 'pipe'],
 				detached: true
 			})
-		: spawn(process.execPath, options.fault ? ['tests/support/fault-entry.js'] : ['build'], {
-				env: options.fault ? { ...base, DETUNE_FAULT: options.fault } : base,
-				stdio: ['ignore', 'pipe', 'pipe']
-			});
+		: spawn(
+				process.execPath,
+				[options.entry?.script ?? (options.fault ? 'tests/support/fault-entry.js' : 'build')],
+				{
+					env: options.fault ? { ...base, DETUNE_FAULT: options.fault } : base,
+					stdio: ['ignore', 'pipe', 'pipe']
+				}
+			);
 	const seen: string[] = [];
 	const waiters: { pattern: RegExp; resolve: (l: string) => void }[] = [];
 	child.stdout!.on(
@@ -98,7 +105,7 @@ export async function startBuiltServer(
 	const deadline = Date.now() + 30_000;
 	for (;;) {
 		try {
-			if ((await fetch(`${origin}/api/health`)).ok) break;
+			if ((await fetch(options.entry?.health ?? `${origin}/api/health`)).ok) break;
 		} catch {
 			/* not up yet */
 		}
