@@ -68,6 +68,13 @@ export interface IngestInput {
 	sampleRateHz: number | null;
 }
 
+/** An upload whose id is already a recording of another asset (never a retry of this one). */
+export class RecordingIdTaken extends Error {
+	constructor() {
+		super('This recording id is taken; the tablet makes a new one for a new file.');
+	}
+}
+
 /** Stores a recording (idempotent on its id). Returns whether it was new. */
 export function ingest(input: IngestInput): {
 	created: boolean;
@@ -75,6 +82,8 @@ export function ingest(input: IngestInput): {
 	analysis: StoredAnalysis;
 } {
 	const existing = db.select().from(recordings).where(eq(recordings.id, input.id)).get();
+	// the same id for another asset is not this upload again: say nothing about that recording
+	if (existing && existing.assetId !== input.assetId) throw new RecordingIdTaken();
 	if (existing)
 		return {
 			created: false,

@@ -3,15 +3,9 @@ import type { Actions, PageServerLoad } from './$types';
 import { homeFor } from '$lib/access';
 import { createSession, endSession, signIn } from '$lib/server/auth';
 import { authorize } from '$lib/server/guard';
+import { safeNext } from '$lib/server/auth/next';
 import { signInForm } from '$lib/schemas/user';
 import { fieldErrors } from '$lib/schemas/form';
-
-/** Only same-site paths may follow sign-in: never an absolute or protocol-relative URL. */
-function safeNext(next: string | null): string | null {
-	if (!next || !next.startsWith('/') || next.startsWith('//') || next.startsWith('/\\'))
-		return null;
-	return next;
-}
 
 /**
  * The same page for everyone, signed in or not: the service worker keeps a copy so that a tablet

@@ -10,6 +10,7 @@ import { refreshAsset } from './status.ts';
 import * as audit from './audit.ts';
 import type { FollowUpCreate, FollowUpUpdate } from '../../schemas/follow-up.ts';
 import type { Tx } from './client.ts';
+import { readableAsset } from '../scope.ts';
 
 export class FollowUpError extends Error {}
 
@@ -80,7 +81,7 @@ export function suggestRemedy(
 				.orderBy(desc(checks.checkedAt))
 				.limit(1)
 				.get();
-	if (!check) return null;
+	if (!check || check.assetId !== assetId) return null;
 	const result = check.result as { bands?: unknown; remedies?: unknown; warnings?: unknown } | null;
 	return {
 		checkId: check.id,
@@ -91,6 +92,21 @@ export function suggestRemedy(
 		warnings: result?.warnings ?? [],
 		damping: 'Added damping lowers the resonant peak (amplification ≈ 1/(2ζ)) without moving it.'
 	};
+}
+
+/** An assignee must be an active user who may read the follow-up's asset (its site). */
+function checkAssignee(tx: Tx, assigneeId: string | null, assetId: string): void {
+	if (!assigneeId) return;
+	const u = tx
+		.select({ id: users.id, role: users.role, name: users.name })
+		.from(users)
+		.where(and(eq(users.id, assigneeId), eq(users.disabled, false)))
+		.get();
+	if (!u) throw new FollowUpError('Choose an active user to assign.');
+	if (!readableAsset(u, assetId, tx))
+		throw new FollowUpError(
+			`${u.name} has no access to this asset's site; choose someone who has.`
+		);
 }
 
 export function create(input: FollowUpCreate, actorId: string, now = Date.now()): string {
@@ -108,15 +124,7 @@ export function create(input: FollowUpCreate, actorId: string, now = Date.now())
 				.get()
 		)
 			throw new FollowUpError('That check is not of this asset.');
-		if (
-			input.assigneeId &&
-			!tx
-				.select({ id: users.id })
-				.from(users)
-				.where(and(eq(users.id, input.assigneeId), eq(users.disabled, false)))
-				.get()
-		)
-			throw new FollowUpError('Choose an active user to assign.');
+		checkAssignee(tx, input.assigneeId, input.assetId);
 		tx.insert(followUps)
 			.values({
 				id,
@@ -154,15 +162,7 @@ export function update(
 		if (!before) throw new FollowUpError('No such follow-up.');
 		if (before.status === 'retested')
 			throw new FollowUpError('This follow-up is closed by a clear retest.');
-		if (
-			input.assigneeId &&
-			!tx
-				.select({ id: users.id })
-				.from(users)
-				.where(and(eq(users.id, input.assigneeId), eq(users.disabled, false)))
-				.get()
-		)
-			throw new FollowUpError('Choose an active user to assign.');
+		checkAssignee(tx, input.assigneeId, before.assetId);
 		const status = before.status === 'open' && input.dueDate ? 'scheduled' : before.status;
 		tx.update(followUps)
 			.set({

@@ -28,11 +28,12 @@ import {
 import type { Role } from '../../roles.ts';
 import type { Db } from '../db/client.ts';
 import { pushProbe } from './probe.ts';
+import { readableAsset, readableCheck } from '../scope.ts';
 
 /** The batch transaction: it can open a savepoint per item. */
 type BatchTx = Parameters<Parameters<Db['transaction']>[0]>[0];
 type Found = NonNullable<ReturnType<typeof withSourcesAndRule>>;
-type Pusher = { id: string; name?: string };
+type Pusher = { id: string; role: Role; name?: string };
 
 export interface PushOptions {
 	now?: number;
@@ -95,12 +96,16 @@ function applyOne(
 			c.id,
 			'This check was recorded by another user on this tablet; it syncs when they sign in.'
 		);
-	if (tx.select({ id: checks.id }).from(checks).where(eq(checks.id, c.id)).get())
-		return { id: c.id, status: 'duplicate' };
+	const held = tx.select({ assetId: checks.assetId }).from(checks).where(eq(checks.id, c.id)).get();
+	// a duplicate only of a check this user may read: another site's id is not acknowledged
+	if (held)
+		return readableAsset(user, held.assetId, tx)
+			? { id: c.id, status: 'duplicate' }
+			: rejected(c.id, 'This check id is taken; the tablet makes a new one for a new check.');
 	const found = withSourcesAndRule(tx, c.assetId);
 	if (!found || !inScope(scope, found.asset.siteId))
 		return rejected(c.id, 'The asset does not exist or is not on your sites.');
-	const refused = refusedReference(tx, c, found.asset.id);
+	const refused = refusedReference(tx, user, c, found.asset.id);
 	if (refused) return rejected(c.id, refused);
 	let computed: ComputedCheck;
 	try {
@@ -128,17 +133,24 @@ function applyOne(
 	return { id: c.id, status: 'applied', verdict: s.verdict };
 }
 
-/** Why a check's references cannot be accepted (a replaced check, its recordings), or null. */
-function refusedReference(tx: BatchTx, c: CheckPush, assetId: string): string | null {
-	if (
-		c.replacesCheckId &&
-		!tx.select({ id: checks.id }).from(checks).where(eq(checks.id, c.replacesCheckId)).get()
-	)
-		return 'The check it replaces is not on the server.';
-	for (const r of c.recordings ?? []) {
-		const row = tx.select().from(recordings).where(eq(recordings.id, r.id)).get();
+/**
+ * Why a check's references cannot be accepted, or null: the check it replaces must be one of the
+ * same asset, and every recording it or its modes name must be a recording of this asset.
+ */
+function refusedReference(tx: BatchTx, user: Pusher, c: CheckPush, assetId: string): string | null {
+	if (c.replacesCheckId) {
+		const replaced = readableCheck(user, c.replacesCheckId, tx);
+		if (!replaced || replaced.assetId !== assetId)
+			return 'The check it replaces is not a check of this asset on the server.';
+	}
+	const named = new Set([
+		...(c.recordings ?? []).map((r) => r.id),
+		...c.modes.flatMap((m) => (m.recordingId ? [m.recordingId] : []))
+	]);
+	for (const id of named) {
+		const row = tx.select().from(recordings).where(eq(recordings.id, id)).get();
 		if (!row || row.assetId !== assetId)
-			return `Recording ${r.id} has not been uploaded for this asset.`;
+			return `Recording ${id} has not been uploaded for this asset.`;
 	}
 	return null;
 }

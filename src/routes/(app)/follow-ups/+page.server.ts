@@ -10,6 +10,7 @@ import { send } from '$lib/server/mail';
 import { followUpMail } from '$lib/server/mail/messages';
 import { runReminders } from '$lib/server/mail/reminders';
 import { canPlan } from '$lib/roles';
+import { readableAsset } from '$lib/server/scope';
 
 const PLANNERS = ['planner', 'admin'] as const;
 
@@ -22,20 +23,24 @@ export const load: PageServerLoad = (event) => {
 		assigneeId: user.role === 'technician' ? user.id : q.get('assignee') || undefined,
 		overdueOn: q.get('overdue') === 'yes' ? today : undefined
 	};
-	const newFor = q.get('new');
+	const planner = canPlan(user.role);
+	// the form to raise one from a flagged check: planners only, and only for an asset they may read
+	const newFor = planner ? q.get('new') : null;
+	const prefillAsset = newFor ? readableAsset(user, newFor) : null;
 	return {
 		today,
-		canPlan: canPlan(user.role),
+		canPlan: planner,
 		items: followUps.list(filter),
-		assignees: users.byRole('technician').concat(users.byRole('supervisor')),
-		assets: canPlan(user.role)
+		// names and e-mail addresses go to those who assign, never to everyone
+		assignees: planner ? users.byRole('technician').concat(users.byRole('supervisor')) : [],
+		assets: planner
 			? assetQueries.listVisible(user).map((a) => ({ id: a.id, tag: a.tag, name: a.name }))
 			: [],
-		prefill: newFor
+		prefill: prefillAsset
 			? {
-					assetId: newFor,
+					assetId: prefillAsset.id,
 					checkId: q.get('check') ?? '',
-					remedy: followUps.suggestRemedy(q.get('check'), newFor)
+					remedy: followUps.suggestRemedy(q.get('check'), prefillAsset.id)
 				}
 			: null
 	};

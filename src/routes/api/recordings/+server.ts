@@ -1,9 +1,8 @@
 import { error, json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
 import { requireUser } from '$lib/server/guard';
-import { inScope, visibleSiteIds } from '$lib/server/db/assets';
-import * as assetQueries from '$lib/server/db/assets';
-import { ingest } from '$lib/server/recordings';
+import { readableAsset } from '$lib/server/scope';
+import { ingest, RecordingIdTaken } from '$lib/server/recordings';
 import { MAX_RECORDING_BYTES, RecordingError } from '$lib/recordings/types';
 import { isUuid } from '$lib/ids';
 import { declaredLength } from '$lib/server/body';
@@ -32,9 +31,7 @@ export const POST: RequestHandler = async (event) => {
 			message: 'Send a CSV (text/csv) or WAV (audio/wav) file.',
 			code: 'bad-content-type'
 		});
-	const asset = assetQueries.byId(assetId);
-	const scope = visibleSiteIds(user);
-	if (!asset || !inScope(scope, asset.siteId))
+	if (!readableAsset(user, assetId))
 		error(404, { message: 'No such asset on your sites.', code: 'no-asset' });
 	const rateText = q.get('sampleRateHz');
 	const sampleRateHz = rateText === null || rateText === '' ? null : Number(rateText);
@@ -50,6 +47,7 @@ export const POST: RequestHandler = async (event) => {
 			{ status: r.created ? 201 : 200 }
 		);
 	} catch (e) {
+		if (e instanceof RecordingIdTaken) error(409, { message: e.message, code: 'id-taken' });
 		if (e instanceof RecordingError) error(422, { message: e.message, code: 'bad-file' });
 		throw e;
 	}

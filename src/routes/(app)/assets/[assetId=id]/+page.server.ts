@@ -2,6 +2,7 @@ import { error, fail } from '@sveltejs/kit';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
 import { requireRole, requireUser } from '$lib/server/guard';
 import * as assetQueries from '$lib/server/db/assets';
+import { readableAsset } from '$lib/server/scope';
 import * as checkQueries from '$lib/server/db/checks';
 import * as recordingQueries from '$lib/server/db/recordings';
 import * as edits from '$lib/server/db/asset-edits';
@@ -21,10 +22,10 @@ const labelError = (label: string): Record<string, string> =>
 
 function loadSheet(event: RequestEvent) {
 	const user = requireUser(event);
-	const sheet = assetQueries.sheet(event.params.assetId);
-	const scope = assetQueries.visibleSiteIds(user);
-	if (!sheet || !assetQueries.inScope(scope, sheet.asset.siteId))
-		error(404, { message: 'No such asset on your sites.', code: 'not-found' });
+	const sheet = readableAsset(user, event.params.assetId)
+		? assetQueries.sheet(event.params.assetId)
+		: null;
+	if (!sheet) error(404, { message: 'No such asset on your sites.', code: 'not-found' });
 	return { user, sheet };
 }
 

@@ -1,15 +1,13 @@
 import { error } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
 import { requireUser } from '$lib/server/guard';
-import * as assetQueries from '$lib/server/db/assets';
+import { readableAsset } from '$lib/server/scope';
 import { assetReport } from '$lib/server/reports/pdf';
 
 export const GET: RequestHandler = async (event) => {
 	const user = requireUser(event);
-	const asset = assetQueries.byId(event.params.assetId);
-	const scope = assetQueries.visibleSiteIds(user);
-	if (!asset || !assetQueries.inScope(scope, asset.siteId))
-		error(404, { message: 'No such asset.', code: 'not-found' });
+	const asset = readableAsset(user, event.params.assetId);
+	if (!asset) error(404, { message: 'No such asset.', code: 'not-found' });
 	const r = await assetReport(asset.id);
 	if (!r) error(404, { message: 'No such asset.', code: 'not-found' });
 	return new Response(new Uint8Array(r.pdf), {

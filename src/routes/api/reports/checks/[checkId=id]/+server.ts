@@ -1,17 +1,13 @@
 import { error } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
 import { requireUser } from '$lib/server/guard';
-import * as checkQueries from '$lib/server/db/checks';
-import * as assetQueries from '$lib/server/db/assets';
+import { readableCheck } from '$lib/server/scope';
 import { checkReport } from '$lib/server/reports/pdf';
 
 export const GET: RequestHandler = async (event) => {
 	const user = requireUser(event);
-	const check = checkQueries.byId(event.params.checkId);
-	const asset = check ? assetQueries.byId(check.assetId) : undefined;
-	const scope = assetQueries.visibleSiteIds(user);
-	if (!check || !asset || !assetQueries.inScope(scope, asset.siteId))
-		error(404, { message: 'No such check.', code: 'not-found' });
+	const check = readableCheck(user, event.params.checkId);
+	if (!check) error(404, { message: 'No such check.', code: 'not-found' });
 	const r = await checkReport(check.id);
 	if (!r) error(404, { message: 'No such check.', code: 'not-found' });
 	return new Response(new Uint8Array(r.pdf), {
