@@ -3,7 +3,7 @@
  * action and endpoint) and the tests read. Keys are SvelteKit route ids. A route missing from this
  * table is refused (403) by the guard, and the route test fails, so nothing ships unlisted.
  */
-import { FIELD_WORK, FLEET_WIDE, ROLES, type Role } from './roles.ts';
+import { EDITORS, FIELD_WORK, FLEET_WIDE, ROLES, type Role } from './roles.ts';
 
 export type RouteAccess = 'public' | 'signed-in' | readonly Role[];
 
@@ -19,7 +19,6 @@ const ALL: readonly Role[] = ROLES;
 const FIELD = FIELD_WORK;
 const FLEET = FLEET_WIDE;
 const ADMIN: readonly Role[] = ['admin'];
-const EDITORS: readonly Role[] = ['supervisor', 'admin'];
 
 export const ROUTE_ACCESS: Record<string, RouteEntry> = {
 	'/': { access: 'signed-in' },

@@ -12,8 +12,13 @@ export const ROLE_LABELS: Record<Role, string> = {
 /** Roles that do floor checks (Floor check, push, recordings). */
 export const FIELD_WORK: readonly Role[] = ['technician', 'supervisor', 'admin'];
 
+/** Roles that edit assets, excitation sources and rule sets. */
+export const EDITORS: readonly Role[] = ['supervisor', 'admin'];
+/** Roles that create, assign and close follow-ups. */
+export const PLANNERS: readonly Role[] = ['planner', 'admin'];
+
 /** Roles that see every site; a technician sees only the sites they are assigned to. */
 export const FLEET_WIDE: readonly Role[] = ['supervisor', 'planner', 'admin'];
 
-export const canEditAssets = (role: Role) => role === 'supervisor' || role === 'admin';
-export const canPlan = (role: Role) => role === 'planner' || role === 'admin';
+export const canEditAssets = (role: Role) => EDITORS.includes(role);
+export const canPlan = (role: Role) => PLANNERS.includes(role);

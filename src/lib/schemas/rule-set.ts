@@ -20,8 +20,9 @@ export const ruleSetForm = z
 			(v) => (v === '' || v === undefined ? null : v),
 			pct('Required margin').nullable()
 		),
+		// any subset of the kinds (zod 4's z.record with enum keys would demand every one)
 		perKind: z
-			.record(z.enum(SOURCE_KINDS as [string, ...string[]]), pct('Margin for a kind'))
+			.partialRecord(z.enum(SOURCE_KINDS as [string, ...string[]]), pct('Margin for a kind'))
 			.default({}),
 		source: z
 			.string()

@@ -7,6 +7,16 @@ import { refreshRuleSet } from './status.ts';
 import * as audit from './audit.ts';
 import type { RuleSetForm } from '../../schemas/rule-set.ts';
 
+/** A refusal the form shows as it is, with its status (anything else is a server fault). */
+export class RuleSetError extends Error {
+	constructor(
+		readonly status: 400 | 404,
+		message: string
+	) {
+		super(message);
+	}
+}
+
 export function list() {
 	return db
 		.select({
@@ -36,7 +46,10 @@ export function save(
 			name: form.name,
 			kind: form.kind,
 			percent: form.kind === 'fixed' ? form.percent : null,
-			perKind: form.kind === 'fixed' && Object.keys(form.perKind).length ? form.perKind : null,
+			perKind:
+				form.kind === 'fixed' && Object.keys(form.perKind).length
+					? (form.perKind as Record<string, number>)
+					: null,
 			source: form.source,
 			edition: form.edition
 		};
@@ -53,7 +66,7 @@ export function save(
 			return { id: newId, recomputed: 0 };
 		}
 		const before = tx.select().from(ruleSets).where(eq(ruleSets.id, id)).get();
-		if (!before) throw new Error('No such rule set.');
+		if (!before) throw new RuleSetError(404, 'No such rule set.');
 		tx.update(ruleSets)
 			.set({ ...values, version, updatedAt: now })
 			.where(eq(ruleSets.id, id))

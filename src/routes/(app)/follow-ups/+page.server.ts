@@ -9,10 +9,8 @@ import { fieldErrors, formToObject } from '$lib/schemas/form';
 import { send } from '$lib/server/mail';
 import { followUpMail } from '$lib/server/mail/messages';
 import { runReminders } from '$lib/server/mail/reminders';
-import { canPlan } from '$lib/roles';
+import { canPlan, PLANNERS } from '$lib/roles';
 import { readableAsset } from '$lib/server/scope';
-
-const PLANNERS = ['planner', 'admin'] as const;
 
 export const load: PageServerLoad = (event) => {
 	const user = requireUser(event);

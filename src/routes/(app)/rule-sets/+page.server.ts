@@ -6,6 +6,7 @@ import { inTurn } from '$lib/server/turns';
 import { ruleSetForm } from '$lib/schemas/rule-set';
 import { fieldErrors } from '$lib/schemas/form';
 import { SOURCE_KINDS } from '$lib/schemas/excitation';
+import { EDITORS } from '$lib/roles';
 
 export const load: PageServerLoad = (event) => {
 	requireUser(event);
@@ -30,7 +31,7 @@ function parse(form: FormData) {
 
 export const actions: Actions = {
 	save: async (event) => {
-		const actor = requireRole(event, ['supervisor', 'admin']);
+		const actor = requireRole(event, EDITORS);
 		const form = await event.request.formData();
 		const id = String(form.get('id') ?? '') || null;
 		const parsed = parse(form);
@@ -44,7 +45,9 @@ export const actions: Actions = {
 					: 'Rule set created.'
 			};
 		} catch (e) {
-			return fail(404, { id: id ?? 'new', errors: { form: (e as Error).message } });
+			if (e instanceof rules.RuleSetError)
+				return fail(e.status, { id: id ?? 'new', errors: { form: e.message } });
+			throw e;
 		}
 	}
 };

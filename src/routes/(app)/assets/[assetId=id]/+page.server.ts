@@ -13,9 +13,8 @@ import { assetForm } from '$lib/schemas/asset';
 import { fieldErrors, formToObject } from '$lib/schemas/form';
 import { SOURCE_KINDS, type SourceKind } from '$lib/schemas/excitation';
 import { formFromParams, paramsFromForm } from '$lib/schemas/source-form';
-import { canEditAssets, canPlan } from '$lib/roles';
+import { canEditAssets, canPlan, EDITORS } from '$lib/roles';
 
-const EDITORS = ['supervisor', 'admin'] as const;
 const MAX_LABEL = 80;
 const labelError = (label: string): Record<string, string> =>
 	label.length > MAX_LABEL ? { label: `Label: at most ${MAX_LABEL} characters.` } : {};
