@@ -5,7 +5,14 @@
  * memory as strings all at once.
  */
 import Papa from 'papaparse';
-import { RecordingError, checkSize, type Channel, type Recording } from './types.ts';
+import {
+	RecordingError,
+	checkChannels,
+	checkSampleRate,
+	checkSize,
+	type Channel,
+	type Recording
+} from './types.ts';
 
 const TIME_NAMES = /^(t|time|time\s*\(s\)|seconds?|s|zeit|temps|tiempo|tid)$/i;
 
@@ -105,8 +112,7 @@ export class CsvCollector {
 		}
 		if (fs === null)
 			throw new RecordingError('This file has no time column: give the sample rate in Hz.');
-		if (!(fs > 0) || !Number.isFinite(fs))
-			throw new RecordingError('The sample rate must be a number greater than zero.');
+		checkSampleRate(fileName, fs);
 		const channels: Channel[] = cols.slice(first).map((samples, i) => ({
 			name: names[first + i] || `Channel ${i + 1}`,
 			unit: units[first + i] ?? '',
@@ -114,6 +120,7 @@ export class CsvCollector {
 		}));
 		if (channels.length === 0)
 			throw new RecordingError('The file has a time column but no channel of measurements.');
+		checkChannels(fileName, channels.length);
 		const n = channels[0].samples.length;
 		if (n < 64)
 			throw new RecordingError(

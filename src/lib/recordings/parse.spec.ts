@@ -47,6 +47,31 @@ describe('WAV recordings', () => {
 	});
 });
 
+describe('WAV headers a file may not declare', () => {
+	/** A good file with one header field overwritten (fmt chunk: channels at 22, rate at 24). */
+	const patched = (offset: number, value: number, size: 2 | 4) => {
+		const b = wav('16', [sine(1000, 2048, 40)]).slice();
+		const v = new DataView(b.buffer, b.byteOffset, b.byteLength);
+		if (size === 2) v.setUint16(offset, value, true);
+		else v.setUint32(offset, value, true);
+		return b;
+	};
+
+	it('refuses 0 or 17 channels and a sample rate outside 1 Hz – 1 MHz, with a message', () => {
+		expect(() => parseWav(patched(22, 0, 2), 'none.wav')).toThrow(RecordingError);
+		expect(() => parseWav(patched(22, 0, 2), 'none.wav')).toThrow(/channels|could not be read/);
+		expect(() => parseWav(patched(24, 4_294_967_295, 4), 'huge.wav')).toThrow(
+			/4294967295 Hz is outside 1 Hz – 1 MHz/
+		);
+		expect(() => parseWav(patched(24, 0, 4), 'zero.wav')).toThrow(RecordingError);
+		const many = wav(
+			'16',
+			Array.from({ length: 17 }, () => sine(200, 2048, 40))
+		);
+		expect(() => parseWav(many, 'many.wav')).toThrow(/17 channels; a recording has 1 to 16/);
+	});
+});
+
 describe('CSV recordings', () => {
 	const rows = (n: number, fs: number, sep = ',', dec = '.') =>
 		Array.from({ length: n }, (_, i) =>
@@ -54,6 +79,20 @@ describe('CSV recordings', () => {
 				.map((v) => v.replace('.', dec))
 				.join(sep)
 		).join('\n');
+
+	it('refuses a time column or a given rate that means more than 1 MHz', () => {
+		const fast = Array.from(
+			{ length: 100 },
+			(_, i) => `${(i * 1e-7).toExponential(3)},${Math.sin(i)}`
+		);
+		expect(() => parseCsvText(`t,a\n${fast.join('\n')}`, 'fast.csv')).toThrow(
+			/outside 1 Hz – 1 MHz/
+		);
+		const one = Array.from({ length: 100 }, (_, i) => `${Math.sin(i)}`).join('\n');
+		expect(() => parseCsvText(`a\n${one}`, 'rate.csv', 4_294_967_295)).toThrow(
+			/outside 1 Hz – 1 MHz/
+		);
+	});
 
 	it('reads a time column and two channels with a header and a units row', () => {
 		const text = `time,accel,force\ns,g,N\n${rows(200, 1000)}`;
@@ -97,7 +136,7 @@ describe('CSV recordings', () => {
 			/no time column: give the sample rate in Hz/
 		);
 		expect(() => parseCsvText(text, 'one.csv', 0)).toThrow(
-			/sample rate must be a number greater than zero/
+			/a sample rate of 0 Hz is outside 1 Hz – 1 MHz/
 		);
 	});
 

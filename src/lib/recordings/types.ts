@@ -36,3 +36,19 @@ export function checkSize(name: string, bytes: number): void {
 			`${name} is ${(bytes / 1048576).toFixed(1)} MB; recordings may be at most 50 MB.`
 		);
 }
+
+/** What any recording must declare: sample rate and channels within what a bump test uses. */
+export const SAMPLE_RATE_LIMITS = { minHz: 1, maxHz: 1_000_000 } as const;
+export const MAX_CHANNELS = 16;
+
+export function checkSampleRate(name: string, hz: number): void {
+	if (!Number.isFinite(hz) || hz < SAMPLE_RATE_LIMITS.minHz || hz > SAMPLE_RATE_LIMITS.maxHz)
+		throw new RecordingError(
+			`${name}: a sample rate of ${Number.isFinite(hz) ? hz : String(hz)} Hz is outside 1 Hz – 1 MHz.`
+		);
+}
+
+export function checkChannels(name: string, n: number): void {
+	if (!Number.isInteger(n) || n < 1 || n > MAX_CHANNELS)
+		throw new RecordingError(`${name}: ${n} channels; a recording has 1 to ${MAX_CHANNELS}.`);
+}

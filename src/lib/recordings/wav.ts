@@ -6,7 +6,13 @@ const WaveFile: typeof wavefile.WaveFile =
 	(wavefile as unknown as { WaveFile?: typeof wavefile.WaveFile }).WaveFile ??
 	(wavefile as unknown as { default: typeof wavefile }).default.WaveFile;
 type WaveFile = InstanceType<typeof WaveFile>;
-import { RecordingError, checkSize, type Recording } from './types.ts';
+import {
+	RecordingError,
+	checkChannels,
+	checkSampleRate,
+	checkSize,
+	type Recording
+} from './types.ts';
 
 const text = (b: Uint8Array, at: number) =>
 	String.fromCharCode(b[at], b[at + 1], b[at + 2], b[at + 3]);
@@ -63,8 +69,8 @@ export function parseWav(bytes: Uint8Array, fileName: string): Recording {
 			`${fileName} is ${float ? 'float' : 'PCM'} ${fmt.bitsPerSample}-bit (format ${fmt.audioFormat}); Detune reads PCM 16/24/32-bit and float 32/64-bit WAV.`
 		);
 	}
-	if (!(fmt.sampleRate > 0))
-		throw new RecordingError(`${fileName} gives a sample rate of ${fmt.sampleRate} Hz.`);
+	checkChannels(fileName, fmt.numChannels);
+	checkSampleRate(fileName, fmt.sampleRate);
 	const raw = wav.getSamples(false, Float64Array) as unknown as Float64Array | Float64Array[];
 	const chans = fmt.numChannels === 1 ? [raw as Float64Array] : (raw as Float64Array[]);
 	const scale = float ? 1 : 2 ** (fmt.bitsPerSample - 1);

@@ -1,9 +1,17 @@
 /**
- * One CSV cell (RFC 4180 quoting). A text starting with =, +, - or @ is prefixed with ' so a
- * spreadsheet never runs it as a formula; a plain number stays a number.
+ * CSV files Detune writes, through Papa.unparse (RFC 4180 quoting, CRLF). A text that a
+ * spreadsheet would run as a formula — starting with =, +, -, @, a tab or a carriage return — is
+ * prefixed with ' ; a plain negative number stays a number.
  */
-export function csvCell(v: unknown): string {
-	const s = String(v ?? '');
-	const safe = /^[=+\-@]/.test(s) && !/^-?\d+(\.\d+)?$/.test(s) ? `'${s}` : s;
-	return /[",\r\n]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
+import Papa from 'papaparse';
+
+const FORMULA = /^([=+@\t\r]|-(?!\d+(\.\d+)?$))/;
+
+export function toCsv(fields: string[], rows: unknown[][]): string {
+	return (
+		Papa.unparse(
+			{ fields, data: rows.map((r) => r.map((v) => (v === null || v === undefined ? '' : v))) },
+			{ escapeFormulae: FORMULA, newline: '\r\n' }
+		) + '\r\n'
+	);
 }

@@ -4,7 +4,7 @@ import { requireUser } from '$lib/server/guard';
 import { visibleSiteIds } from '$lib/server/db/assets';
 import * as board from '$lib/server/db/board';
 import { boardQuery, type BoardRow } from '$lib/schemas/board';
-import { csvCell } from '$lib/server/csv';
+import { toCsv } from '$lib/server/csv';
 
 const CSV_COLUMNS: [string, (r: BoardRow) => unknown][] = [
 	['tag', (r) => r.tag],
@@ -45,11 +45,11 @@ export const GET: RequestHandler = (event) => {
 	const scope = visibleSiteIds(user);
 	if (q.format === 'csv') {
 		const rows = board.all(q, scope);
-		const text = [
-			CSV_COLUMNS.map((c) => c[0]).join(','),
-			...rows.map((r) => CSV_COLUMNS.map(([, f]) => csvCell(f(r))).join(','))
-		].join('\r\n');
-		return new Response(text + '\r\n', {
+		const text = toCsv(
+			CSV_COLUMNS.map((c) => c[0]),
+			rows.map((r) => CSV_COLUMNS.map(([, f]) => f(r)))
+		);
+		return new Response(text, {
 			headers: {
 				'content-type': 'text/csv; charset=utf-8',
 				'content-disposition': 'attachment; filename="detune-margin-board.csv"',

@@ -4,7 +4,8 @@ import { requireUser } from '$lib/server/guard';
 import { readableAsset } from '$lib/server/scope';
 import { ingest, RecordingIdTaken } from '$lib/server/recordings';
 import { MAX_RECORDING_BYTES, RecordingError } from '$lib/recordings/types';
-import { isUuid } from '$lib/ids';
+import { recordingUploadQuery } from '$lib/schemas/recording';
+import { firstProblem } from '$lib/schemas/sync';
 import { declaredLength } from '$lib/server/body';
 
 /**
@@ -13,12 +14,9 @@ import { declaredLength } from '$lib/server/body';
  */
 export const POST: RequestHandler = async (event) => {
 	const user = requireUser(event);
-	const q = event.url.searchParams;
-	const id = q.get('id') ?? '';
-	const assetId = q.get('assetId') ?? '';
-	const name = (q.get('name') ?? '').replace(/[\\/\0]/g, '_').slice(0, 200);
-	if (!isUuid(id)) error(400, { message: 'id must be a UUID made on the device.', code: 'bad-id' });
-	if (!name) error(400, { message: 'name (the file name) is missing.', code: 'bad-name' });
+	const query = recordingUploadQuery.safeParse(Object.fromEntries(event.url.searchParams));
+	if (!query.success) error(400, { message: firstProblem(query.error), code: 'bad-query' });
+	const { id, assetId, name, sampleRateHz } = query.data;
 	const declared = declaredLength(event.request);
 	if (declared !== null && declared > MAX_RECORDING_BYTES)
 		error(413, {
@@ -33,10 +31,6 @@ export const POST: RequestHandler = async (event) => {
 		});
 	if (!readableAsset(user, assetId))
 		error(404, { message: 'No such asset on your sites.', code: 'no-asset' });
-	const rateText = q.get('sampleRateHz');
-	const sampleRateHz = rateText === null || rateText === '' ? null : Number(rateText);
-	if (sampleRateHz !== null && !(sampleRateHz > 0 && Number.isFinite(sampleRateHz)))
-		error(400, { message: 'sampleRateHz must be a number greater than zero.', code: 'bad-rate' });
 	const bytes = Buffer.from(await event.request.arrayBuffer());
 	if (bytes.length > MAX_RECORDING_BYTES)
 		error(413, { message: 'Recordings may be at most 50 MB.', code: 'too-large' });

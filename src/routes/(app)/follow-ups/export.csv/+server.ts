@@ -1,7 +1,7 @@
 import type { RequestHandler } from './$types';
 import { requireUser } from '$lib/server/guard';
 import * as followUps from '$lib/server/db/follow-ups';
-import { csvCell } from '$lib/server/csv';
+import { toCsv } from '$lib/server/csv';
 
 /** GET: the follow-ups (filters as on the page) as CSV. */
 export const GET: RequestHandler = (event) => {
@@ -23,23 +23,19 @@ export const GET: RequestHandler = (event) => {
 		'created',
 		'notes'
 	];
-	const lines = rows.map((f) =>
-		[
-			f.tag,
-			f.assetName,
-			f.site,
-			f.title,
-			f.status,
-			f.priority,
-			f.dueDate ?? '',
-			f.assigneeName ?? '',
-			new Date(f.createdAt).toISOString(),
-			f.notes
-		]
-			.map(csvCell)
-			.join(',')
-	);
-	return new Response([head.join(','), ...lines].join('\r\n') + '\r\n', {
+	const data = rows.map((f) => [
+		f.tag,
+		f.assetName,
+		f.site,
+		f.title,
+		f.status,
+		f.priority,
+		f.dueDate ?? '',
+		f.assigneeName ?? '',
+		new Date(f.createdAt).toISOString(),
+		f.notes
+	]);
+	return new Response(toCsv(head, data), {
 		headers: {
 			'content-type': 'text/csv; charset=utf-8',
 			'content-disposition': 'attachment; filename="detune-follow-ups.csv"'

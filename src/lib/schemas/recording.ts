@@ -1,0 +1,22 @@
+/** The upload of a bump-test file: its query string (the file itself is the body). */
+import { z } from 'zod';
+import { SAMPLE_RATE_LIMITS } from '../recordings/types.ts';
+
+export const recordingUploadQuery = z
+	.object({
+		id: z.uuid({ error: 'id must be a UUID made on the device.' }),
+		assetId: z.string({ error: 'assetId is missing.' }).min(1, 'assetId is missing.').max(64),
+		name: z
+			.string({ error: 'name (the file name) is missing.' })
+			.transform((s) => s.replace(/[\\/\0]/g, '_').slice(0, 200))
+			.pipe(z.string().min(1, 'name (the file name) is missing.')),
+		sampleRateHz: z.preprocess(
+			(v) => (v === undefined || v === '' ? null : Number(v)),
+			z
+				.number({ error: 'sampleRateHz must be a number of hertz.' })
+				.min(SAMPLE_RATE_LIMITS.minHz, 'sampleRateHz must be 1 Hz to 1 MHz.')
+				.max(SAMPLE_RATE_LIMITS.maxHz, 'sampleRateHz must be 1 Hz to 1 MHz.')
+				.nullable()
+		)
+	})
+	.strict();
