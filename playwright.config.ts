@@ -25,6 +25,7 @@ export default defineConfig({
 			DATABASE_URL: '.e2e/e2e.db',
 			ORIGIN,
 			DATA_DIR: '.e2e/data',
+			SEED_DEMO: 'true',
 			BODY_SIZE_LIMIT: '52M',
 			SMTP_PORT: '2626'
 		},

@@ -1,7 +1,11 @@
 import type { Handle, ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { setting } from '$lib/server/config';
-import { db } from '$lib/server/db';
+import { db, sqlite } from '$lib/server/db';
+import { holdDatabase } from '$lib/server/db/server-lock';
+import { openSetup } from '$lib/server/setup';
+import { dataDir } from '$lib/server/recordings';
+import { mkdirSync } from 'node:fs';
 import { runMigrations } from '$lib/server/db/client';
 import { isEmpty, seed } from '$lib/server/db/seed';
 import { SESSION_COOKIE, validateSession } from '$lib/server/auth';
@@ -12,12 +16,20 @@ import { startReminderJob, stopReminderJob } from '$lib/server/mail/reminders';
 /** Runs before the server takes its first request: migrate, then seed an empty database. */
 export const init: ServerInit = async () => {
 	runMigrations(db);
-	if (setting('SEED_DEMO') !== 'false' && isEmpty(db)) {
+	holdDatabase(sqlite.name);
+	mkdirSync(dataDir(), { recursive: true, mode: 0o700 });
+	// the demo (with its published passwords) only when asked for: `npm start` asks, `node build` not
+	if (setting('SEED_DEMO') === 'true' && isEmpty(db)) {
 		const r = await seed(db);
 		console.log(
 			`[detune] empty database: demo data added (${r.sites} sites, ${r.assets} assets, ${r.users} users)`
 		);
 	}
+	const token = openSetup();
+	if (token)
+		console.log(
+			`[detune] no admin account yet: create the first one at ${setting('ORIGIN') ?? ''}/setup?token=${token} (this link works once, until the server restarts)`
+		);
 	await startCatcher();
 	if (setting('MAIL_JOBS') !== 'false') startReminderJob();
 	// adapter-node's graceful shutdown (SIGTERM/SIGINT): let the process end

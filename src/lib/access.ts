@@ -28,6 +28,7 @@ export const ROUTE_ACCESS: Record<string, RouteEntry> = {
 	// service worker can keep it for offline use; its data comes from the guarded sync API
 	'/(floor)/field': { access: 'public' },
 	'/offline': { access: 'public' },
+	'/setup': { access: 'public', sample: '/setup?token=x' },
 	'/setup/certificate': { access: 'public' },
 	'/setup/certificate/detune-ca.crt': { access: 'public' },
 	'/(app)/settings': { access: ALL },

@@ -66,6 +66,7 @@ export async function startBuiltServer(
 		DATABASE_URL: join(dir, 'detune.db'),
 		DATA_DIR: join(dir, 'data'),
 		MAIL_CATCHER: 'false',
+		SEED_DEMO: 'true',
 		MAIL_JOBS: 'false',
 		...(serve ? {} : { HOST: '127.0.0.1', ORIGIN: origin }),
 		...options.env

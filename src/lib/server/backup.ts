@@ -4,6 +4,7 @@
  * stopped: it replaces the database file.
  */
 import {
+	chmodSync,
 	cpSync,
 	existsSync,
 	mkdirSync,
@@ -14,6 +15,7 @@ import {
 } from 'node:fs';
 import { join, resolve } from 'node:path';
 import Database from 'better-sqlite3';
+import { serverHolding } from './db/server-lock.ts';
 
 export interface BackupManifest {
 	createdAt: string;
@@ -36,7 +38,8 @@ export async function backup(
 	into: string
 ): Promise<BackupManifest> {
 	const dest = resolve(into);
-	mkdirSync(dest, { recursive: true });
+	mkdirSync(dest, { recursive: true, mode: 0o700 });
+	chmodSync(dest, 0o700);
 	const source = new Database(databaseFile, { readonly: true, fileMustExist: true });
 	try {
 		await source.backup(join(dest, 'detune.db'));
@@ -55,11 +58,20 @@ export async function backup(
 		files: countFiles(join(dest, 'files')),
 		integrity
 	};
-	writeFileSync(join(dest, 'manifest.json'), JSON.stringify(manifest, null, 2));
+	writeFileSync(join(dest, 'manifest.json'), JSON.stringify(manifest, null, 2), { mode: 0o600 });
+	chmodSync(join(dest, 'detune.db'), 0o600);
 	return manifest;
 }
 
+/** A restore refused: the server is running on the database, or the backup is not sound. */
+export class RestoreRefused extends Error {}
+
 export function restore(from: string, databaseFile: string, dataDir: string): BackupManifest {
+	const holder = serverHolding(databaseFile);
+	if (holder)
+		throw new RestoreRefused(
+			`A Detune server (process ${holder.pid}) is running on ${databaseFile}. Stop it first: a restore under a running server loses what it writes afterwards.`
+		);
 	const src = resolve(from);
 	const manifest = JSON.parse(readFileSync(join(src, 'manifest.json'), 'utf8')) as BackupManifest;
 	const check = new Database(join(src, manifest.database), { readonly: true, fileMustExist: true });
@@ -69,6 +81,11 @@ export function restore(from: string, databaseFile: string, dataDir: string): Ba
 		throw new Error(`The backup's database failed its integrity check: ${integrity}`);
 	for (const suffix of ['', '-wal', '-shm']) rmSync(databaseFile + suffix, { force: true });
 	cpSync(join(src, manifest.database), databaseFile);
+	chmodSync(databaseFile, 0o600);
+	// sessions do not come back from a backup: everyone signs in again
+	const restored = new Database(databaseFile);
+	restored.prepare('delete from sessions').run();
+	restored.close();
 	rmSync(dataDir, { recursive: true, force: true });
 	if (existsSync(join(src, 'files'))) cpSync(join(src, 'files'), dataDir, { recursive: true });
 	return manifest;

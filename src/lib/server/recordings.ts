@@ -95,10 +95,10 @@ export function ingest(input: IngestInput): {
 	const sha256 = createHash('sha256').update(input.bytes).digest('hex');
 	const file = pathFor(sha256);
 	if (!existsSync(file)) {
-		mkdirSync(dirname(file), { recursive: true });
+		mkdirSync(dirname(file), { recursive: true, mode: 0o700 });
 		// write then rename, so a crash never leaves half a file under its hash
 		const tmp = `${file}.${process.pid}.tmp`;
-		writeFileSync(tmp, input.bytes);
+		writeFileSync(tmp, input.bytes, { mode: 0o600 });
 		renameSync(tmp, file);
 	}
 	db.insert(recordings)

@@ -11,6 +11,7 @@ import * as userQueries from '../db/users.ts';
 import type { Role } from '../../roles.ts';
 import { burnVerification, verifyPassword } from './password.ts';
 import { accountThrottle, addressThrottle } from './throttle.ts';
+import { HashedSessionAdapter } from './hashed-adapter.ts';
 
 export { hashPassword, verifyPassword } from './password.ts';
 
@@ -28,20 +29,23 @@ function secureCookies(): boolean {
 	return (setting('ORIGIN') ?? '').startsWith('https://');
 }
 
-export const lucia = new Lucia(new DrizzleSQLiteAdapter(db, sessions, users), {
-	sessionExpiresIn: SESSION_LIFETIME,
-	sessionCookie: {
-		name: 'detune_session',
-		attributes: { secure: secureCookies(), sameSite: 'lax' }
-	},
-	getUserAttributes: (a) => ({
-		email: a.email,
-		name: a.name,
-		role: a.role,
-		disabled: a.disabled,
-		unitSystem: a.unitSystem
-	})
-});
+export const lucia = new Lucia(
+	new HashedSessionAdapter(new DrizzleSQLiteAdapter(db, sessions, users)),
+	{
+		sessionExpiresIn: SESSION_LIFETIME,
+		sessionCookie: {
+			name: 'detune_session',
+			attributes: { secure: secureCookies(), sameSite: 'lax' }
+		},
+		getUserAttributes: (a) => ({
+			email: a.email,
+			name: a.name,
+			role: a.role,
+			disabled: a.disabled,
+			unitSystem: a.unitSystem
+		})
+	}
+);
 
 declare module 'lucia' {
 	interface Register {

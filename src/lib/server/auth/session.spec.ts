@@ -3,6 +3,9 @@ import { freshDatabase } from '../test-db.ts';
 import * as users from '../db/users.ts';
 import { createSession, endSession, SIGN_IN_FAILED, signIn, validateSession } from './index.ts';
 import { hashPassword } from './password.ts';
+import { hashSessionId } from './hashed-adapter.ts';
+import { db } from '../db/index.ts';
+import { sessions } from '../db/schema.ts';
 
 const HOUR = 3_600_000;
 let userId: string;
@@ -38,6 +41,27 @@ afterEach(() => {
 const idOf = (cookieValue: string) => cookieValue;
 
 describe('sessions', () => {
+	it('are stored as SHA-256 hashes: an id read from the database opens nothing', async () => {
+		const cookie = await createSession(userId);
+		const stored = db
+			.select()
+			.from(sessions)
+			.all()
+			.map((r) => r.id);
+		expect(stored).not.toContain(cookie.value);
+		expect(stored).toContain(hashSessionId(cookie.value));
+		expect((await validateSession(cookie.value)).user?.email).toBe('shift@example.com');
+		for (const leaked of stored) expect((await validateSession(leaked)).user).toBeNull();
+		await endSession(cookie.value);
+		expect(
+			db
+				.select()
+				.from(sessions)
+				.all()
+				.map((r) => r.id)
+		).not.toContain(hashSessionId(cookie.value));
+	});
+
 	it('last a whole 12-hour shift and slide while the tablet is in use', async () => {
 		vi.useFakeTimers({ toFake: ['Date'] });
 		vi.setSystemTime(0);

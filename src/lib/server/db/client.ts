@@ -2,7 +2,7 @@
  * Opens the SQLite database with the settings Detune relies on, and applies the committed
  * migrations. Free of SvelteKit imports so the command-line tools (seed, backup, bench) use it too.
  */
-import { mkdirSync } from 'node:fs';
+import { chmodSync, existsSync, mkdirSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
 import Database from 'better-sqlite3';
 import { drizzle, type BetterSQLite3Database } from 'drizzle-orm/better-sqlite3';
@@ -27,6 +27,10 @@ export function openDatabase(url: string = DEFAULT_DATABASE_URL): Opened {
 	if (file !== ':memory:') mkdirSync(dirname(resolve(file)), { recursive: true });
 	const sqlite = new Database(file);
 	sqlite.pragma('journal_mode = WAL');
+	// the database holds the plant's records and the session hashes: owner only (SQLite gives the
+	// -wal and -shm files the same mode)
+	if (file !== ':memory:')
+		for (const f of [file, `${file}-wal`, `${file}-shm`]) if (existsSync(f)) chmodSync(f, 0o600);
 	sqlite.pragma('foreign_keys = ON');
 	sqlite.pragma('busy_timeout = 5000');
 	sqlite.pragma('synchronous = NORMAL');

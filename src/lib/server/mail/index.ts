@@ -36,7 +36,13 @@ function transport(): Transporter {
 						? { user: setting('SMTP_USER') as string, pass: setting('SMTP_PASSWORD') ?? '' }
 						: undefined
 				}
-			: { host: '127.0.0.1', port: localPort(), secure: false, ignoreTLS: true }
+			: {
+					host: '127.0.0.1',
+					port: localPort(),
+					secure: false,
+					ignoreTLS: true,
+					auth: { user: CATCHER_USER, pass: catcherPassword }
+				}
 	);
 	return transporter;
 }
@@ -136,13 +142,33 @@ function decodeWords(s: string): string {
 }
 
 let catcher: SMTPServer | null = null;
+/**
+ * The catcher takes mail only from this server: a credential made afresh at every start, known
+ * only to this process. Any other local program is refused, so nothing shows in Admin → Mail that
+ * Detune did not send.
+ */
+const CATCHER_USER = 'detune';
+const catcherPassword = Buffer.from(crypto.getRandomValues(new Uint8Array(24))).toString(
+	'base64url'
+);
 
 /** Starts the local catcher when no SMTP relay is configured. */
 export function startCatcher(): Promise<void> {
 	if (!usesCatcher() || catcher) return Promise.resolve();
 	catcher = new SMTPServer({
-		authOptional: true,
-		disabledCommands: ['STARTTLS', 'AUTH'],
+		authOptional: false,
+		// loopback only, so no TLS; the credential is what keeps strangers out
+		allowInsecureAuth: true,
+		authMethods: ['PLAIN', 'LOGIN'],
+		disabledCommands: ['STARTTLS'],
+		onAuth(auth, _session, callback) {
+			const ok =
+				auth.username === CATCHER_USER &&
+				typeof auth.password === 'string' &&
+				auth.password === catcherPassword;
+			if (!ok) return callback(new Error('Authentication refused'));
+			callback(null, { user: CATCHER_USER });
+		},
 		logger: false,
 		size: 5 * 1024 * 1024,
 		onData(stream, session, callback) {

@@ -2,10 +2,12 @@ import { json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
 import { sqlite } from '$lib/server/db';
 import { authorize } from '$lib/server/guard';
+import { health } from '$lib/server/health';
+import { dataDir } from '$lib/server/recordings';
 
-/** Liveness for load balancers and the test runner: the database answers. */
+/** Readiness for load balancers, monitors and the test runner: 503 with what is wrong. */
 export const GET: RequestHandler = (event) => {
 	authorize(event);
-	const row = sqlite.prepare('select 1 as ok').get() as { ok: number };
-	return json({ ok: row.ok === 1 }, { headers: { 'cache-control': 'no-store' } });
+	const h = health(sqlite, dataDir());
+	return json(h, { status: h.ok ? 200 : 503, headers: { 'cache-control': 'no-store' } });
 };

@@ -9,7 +9,15 @@ export const GET: RequestHandler = (event) => {
 	const user = requireUser(event);
 	const rec = readableRecording(user, event.params.recordingId);
 	if (!rec) error(404, { message: 'No such recording.', code: 'not-found' });
-	const body = readStored(rec.sha256);
+	let body: Buffer;
+	try {
+		body = readStored(rec.sha256);
+	} catch {
+		error(503, {
+			message: `The file ${rec.fileName} is missing from the data folder; restore it from a backup.`,
+			code: 'file-missing'
+		});
+	}
 	const safeName = rec.fileName.replace(/[^\w.\- ]/g, '_');
 	return new Response(new Uint8Array(body), {
 		headers: {
