@@ -68,6 +68,8 @@ const BAD: Record<string, string[]> = {
 	number: ['NaN', 'Infinity', '-1', '-1e309', '1e309', 'abc', '', '0x', HUGE],
 	optNumber: ['NaN', 'Infinity', '-1', 'abc', '1e309', HUGE],
 	int: ['1.5', '-1', '0', 'NaN', 'abc', '', HUGE],
+	/** a count where 0 is a real answer (a drive with no skip bands) */
+	count: ['1.5', '-1', 'NaN', 'abc', '', HUGE],
 	optInt: ['1.5', '1', '65', 'NaN', 'abc', HUGE],
 	enum: ['', 'bogus', '<script>alert(1)</script>', HUGE],
 	text: ['', ' ', HUGE],
@@ -234,7 +236,7 @@ test.describe('bad input is refused with a message and changes nothing', () => {
 				nominalRpm: 'optNumber',
 				motorPoles: 'optInt',
 				driveRatio: 'number',
-				skipBands: 'int',
+				skipBands: 'count',
 				ruleSetId: 'optId',
 				notes: 'longText'
 			}

@@ -7,8 +7,9 @@ import * as users from '$lib/server/db/users';
 import { createUserForm } from '$lib/schemas/user';
 import { fieldErrors } from '$lib/schemas/form';
 
+// a 404, as for any link that leads nowhere: the link is spent, wrong or from an earlier start
 const refused = () =>
-	error(403, {
+	error(404, {
 		message:
 			'This setup link is not valid: an admin exists already, or the server has restarted since it printed the link.',
 		code: 'setup-closed'

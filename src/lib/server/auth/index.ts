@@ -115,6 +115,20 @@ export async function endAllSessions(userId: string): Promise<void> {
 	await lucia.invalidateUserSessions(userId);
 }
 
+/** How long an account must wait before its next sign-in, and after how many failures. */
+export function signInPause(email: string): { failures: number; waitS: number } {
+	const key = email.trim().toLowerCase();
+	return {
+		failures: accountThrottle.failures(key),
+		waitS: Math.ceil(accountThrottle.retryAfterMs(key) / 1000)
+	};
+}
+
+/** An admin lifts an account's sign-in wait at once (the person called the help desk). */
+export function unlockSignIn(email: string): void {
+	accountThrottle.reset(email.trim().toLowerCase());
+}
+
 /** The one message for a wrong e-mail or password: it never says which. */
 export const SIGN_IN_FAILED = 'That e-mail and password do not match an active account.';
 

@@ -1,7 +1,15 @@
 import { afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
 import { freshDatabase } from '../test-db.ts';
 import * as users from '../db/users.ts';
-import { createSession, endSession, SIGN_IN_FAILED, signIn, validateSession } from './index.ts';
+import {
+	createSession,
+	endSession,
+	SIGN_IN_FAILED,
+	signIn,
+	signInPause,
+	unlockSignIn,
+	validateSession
+} from './index.ts';
 import { hashPassword } from './password.ts';
 import { hashSessionId } from './hashed-adapter.ts';
 import { db } from '../db/index.ts';
@@ -115,11 +123,14 @@ describe('signing in', () => {
 		});
 	});
 
-	it('throttles an account after five failures, whoever tries, and says how long to wait', async () => {
-		for (let i = 0; i < 5; i++) await signIn('locked@example.com', 'bad', `10.1.0.${i}`);
-		const r = await signIn('locked@example.com', 'bad', '10.1.0.99');
+	it('makes an account wait after five failures, whoever tries, and says how long; an unlock lifts it', async () => {
+		for (let i = 0; i < 5; i++) await signIn('shift@example.com', 'bad', `10.1.0.${i}`);
+		const r = await signIn('shift@example.com', 'night-shift-pass', '10.1.0.99');
 		expect(r.ok).toBe(false);
-		expect(r.ok === false && r.message).toMatch(/Too many sign-in attempts. Wait 15 minutes/);
+		expect(r.ok === false && r.message).toMatch(/Too many sign-in attempts. Wait 1 minute/);
+		expect(signInPause('shift@example.com')).toMatchObject({ failures: 5 });
+		unlockSignIn('shift@example.com');
+		expect((await signIn('shift@example.com', 'night-shift-pass', '10.1.0.99')).ok).toBe(true);
 	});
 
 	it('holds its budget when many attempts arrive at once (none slips through while a password is being checked)', async () => {

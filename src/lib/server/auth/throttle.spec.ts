@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { FailureThrottle } from './throttle.ts';
+import { BackoffThrottle, FailureThrottle } from './throttle.ts';
 
 describe('sign-in throttle', () => {
 	it('locks a key after the limit of failures and frees it when the oldest leaves the window', () => {
@@ -19,5 +19,26 @@ describe('sign-in throttle', () => {
 		expect(t.retryAfterMs('a', 1)).toBeGreaterThan(0);
 		t.reset('a');
 		expect(t.retryAfterMs('a', 1)).toBe(0);
+	});
+
+	it('per account, waits grow with each failure and never exceed the cap: no lock-out for the holder', () => {
+		const t = new BackoffThrottle({
+			free: 4,
+			firstWaitMs: 30_000,
+			maxWaitMs: 15 * 60_000,
+			forgetAfterMs: 3_600_000
+		});
+		const waits: number[] = [];
+		let now = 0;
+		for (let i = 0; i < 12; i++) {
+			now += t.retryAfterMs('holder', now); // tries again as soon as allowed
+			t.fail('holder', now);
+			waits.push(t.retryAfterMs('holder', now) / 1000);
+		}
+		expect(waits).toEqual([0, 0, 0, 30, 60, 120, 240, 480, 900, 900, 900, 900]);
+		t.reset('holder'); // an admin's unlock, or a successful sign-in
+		expect(t.retryAfterMs('holder', now)).toBe(0);
+		t.fail('quiet', 0);
+		expect(t.failures('quiet', 3_600_001)).toBe(0);
 	});
 });

@@ -1,14 +1,17 @@
 import { fail } from '@sveltejs/kit';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
 import * as users from '$lib/server/db/users';
-import { endAllSessions, hashPassword } from '$lib/server/auth';
+import { endAllSessions, hashPassword, signInPause, unlockSignIn } from '$lib/server/auth';
 import { requireUser } from '$lib/server/guard';
 import { createUserForm, resetPasswordForm, updateUserForm, userIdForm } from '$lib/schemas/user';
 import { fieldErrors, formToObject } from '$lib/schemas/form';
 
 export const load: PageServerLoad = (event) => {
 	requireUser(event);
-	return { users: users.list(), sites: users.allSites() };
+	return {
+		users: users.list().map((u) => ({ ...u, signIn: signInPause(u.email) })),
+		sites: users.allSites()
+	};
 };
 
 /** Maps the domain errors of the users module to form failures. */
@@ -82,6 +85,19 @@ export const actions: Actions = {
 			return domainFailure('update', parsed.data.id, e);
 		}
 		return { action: 'update', id: parsed.data.id, done: 'Saved.' };
+	},
+	/** Lifts an account's sign-in wait after failed attempts (the holder called for help). */
+	unlock: async (event) => {
+		const actor = requireUser(event);
+		const parsed = userIdForm.safeParse(formToObject(await event.request.formData()));
+		if (!parsed.success)
+			return fail(400, { action: 'unlock', id: null, errors: fieldErrors(parsed.error) });
+		const u = users.byId(parsed.data.id);
+		if (!u)
+			return fail(404, { action: 'unlock', id: parsed.data.id, errors: { form: 'No such user.' } });
+		unlockSignIn(u.email);
+		console.log(`[detune] sign-in of ${u.email} unlocked by ${actor.email}`);
+		return { action: 'unlock', id: u.id, done: 'Sign-in unlocked: they can sign in now.' };
 	},
 	disable: (event) => setDisabled(event, true),
 	enable: (event) => setDisabled(event, false),
