@@ -60,4 +60,20 @@ describe('PDF reports', () => {
 		expect(text).toContain('Check history');
 		for (const caution of CAUTIONS) expect(text).toContain(caution);
 	});
+
+	it('prints Latin, Greek and Cyrillic names as typed, and says so for a character outside the font', async () => {
+		const asset = db.select().from(assets).where(eq(assets.tag, 'LBM-IDF-110')).get()!;
+		db.update(assets).set({ name: 'Pumpe Ω Ж' }).where(eq(assets.id, asset.id)).run();
+		try {
+			const text = await textOf((await assetReport(asset.id))!.pdf);
+			expect(text).toContain('Pumpe Ω Ж');
+			expect(text).not.toMatch(/outside the report's font/);
+			db.update(assets).set({ name: 'Pumpe Ω Ж 泵' }).where(eq(assets.id, asset.id)).run();
+			const cjk = await textOf((await assetReport(asset.id))!.pdf);
+			expect(cjk).toContain('Pumpe Ω Ж ?');
+			expect(cjk).toMatch(/1 character in names or notes is outside the report's font/);
+		} finally {
+			db.update(assets).set({ name: asset.name }).where(eq(assets.id, asset.id)).run();
+		}
+	});
 });

@@ -4,6 +4,7 @@
  * when, who reviewed, and the cautions. Text stays text, so it can be searched and extracted.
  */
 import PDFDocument from 'pdfkit';
+import { useInter } from './fonts.ts';
 import { desc, eq } from 'drizzle-orm';
 import { db } from '../db/index.ts';
 import { checks, users } from '../db/schema.ts';
@@ -47,12 +48,12 @@ function heading(doc: PDFKit.PDFDocument, text: string) {
 	if (doc.y > 720) doc.addPage();
 	doc
 		.moveDown(0.6)
-		.font('Helvetica-Bold')
+		.font('Bold')
 		.fontSize(13)
 		.fillColor(accent)
 		.text(text)
 		.moveDown(0.2)
-		.font('Helvetica')
+		.font('Body')
 		.fontSize(9.5)
 		.fillColor(ink);
 }
@@ -109,7 +110,7 @@ function table(doc: PDFKit.PDFDocument, head: string[], rows: Cell[][], widths: 
 		if (doc.y > 760) doc.addPage();
 		const y = doc.y;
 		let x = x0;
-		doc.font(bold ? 'Helvetica-Bold' : 'Helvetica').fontSize(8.5);
+		doc.font(bold ? 'Bold' : 'Body').fontSize(8.5);
 		let h = 0;
 		cells.forEach((c, i) => {
 			if (typeof c === 'string') doc.text(c, x, y, { width: widths[i] - 4 });
@@ -125,7 +126,7 @@ function table(doc: PDFKit.PDFDocument, head: string[], rows: Cell[][], widths: 
 	};
 	line(head, true);
 	for (const r of rows) line(r);
-	doc.font('Helvetica').fontSize(9.5);
+	doc.font('Body').fontSize(9.5);
 }
 
 /** Frequency against speed: excitation lines, natural frequencies with their margin bands, the range, the speed. */
@@ -228,6 +229,25 @@ function diagram(
 function cautions(doc: PDFKit.PDFDocument) {
 	heading(doc, 'Cautions');
 	for (const c of CAUTIONS) doc.text(`- ${c}`);
+	const missing = missingGlyphs.get(doc)?.() ?? 0;
+	if (missing > 0)
+		doc
+			.moveDown(0.5)
+			.fontSize(8)
+			.fillColor(muted)
+			.text(
+				`${missing} character${missing === 1 ? ' in names or notes is' : 's in names or notes are'} outside the report's font (Inter: Latin, Greek, Cyrillic) and print as "?"; the screen shows them as typed.`
+			)
+			.fillColor(ink)
+			.fontSize(9.5);
+}
+
+const missingGlyphs = new WeakMap<PDFKit.PDFDocument, () => number>();
+
+function newReport(title: string): PDFKit.PDFDocument {
+	const doc = new PDFDocument({ size: 'A4', margin: 48, info: { Title: title, Author: 'Detune' } });
+	missingGlyphs.set(doc, useInter(doc));
+	return doc;
 }
 
 function loadCheck(checkId: string) {
@@ -266,7 +286,7 @@ function checkSection(doc: PDFKit.PDFDocument, d: NonNullable<ReturnType<typeof 
 	doc.text(
 		`Rule: ${sheet.ruleSet ? `${sheet.ruleSet.name} (${sheet.ruleSet.source}${sheet.ruleSet.edition ? `, ${sheet.ruleSet.edition}` : ''})` : 'Detune default 10 % (common practice)'}. Margin = |fn - fe| / fe.`
 	);
-	doc.moveDown(0.3).font('Helvetica-Bold').fontSize(12);
+	doc.moveDown(0.3).font('Bold').fontSize(12);
 	const vy = doc.y;
 	const x0 = doc.page.margins.left;
 	doc.text('Verdict over the speed range:', x0, vy, { lineBreak: false });
@@ -275,7 +295,7 @@ function checkSection(doc: PDFKit.PDFDocument, d: NonNullable<ReturnType<typeof 
 	verdictText(doc, c.result.verdictAtSpeed, x0 + 430, vy, 12);
 	doc.x = x0;
 	doc.y = vy + 18;
-	doc.font('Helvetica').fontSize(9.5);
+	doc.font('Body').fontSize(9.5);
 	heading(doc, 'Natural frequencies');
 	table(
 		doc,
@@ -340,9 +360,9 @@ function assetHeader(
 	sheet: NonNullable<ReturnType<typeof assetQueries.sheet>>,
 	title: string
 ) {
-	doc.font('Helvetica-Bold').fontSize(18).fillColor(ink).text(`Detune - ${title}`);
+	doc.font('Bold').fontSize(18).fillColor(ink).text(`Detune - ${title}`);
 	doc
-		.font('Helvetica')
+		.font('Body')
 		.fontSize(9)
 		.fillColor(muted)
 		.text(`Generated ${when(Date.now())}`)
@@ -364,11 +384,7 @@ function assetHeader(
 export async function checkReport(checkId: string): Promise<{ pdf: Buffer; tag: string } | null> {
 	const d = loadCheck(checkId);
 	if (!d) return null;
-	const doc = new PDFDocument({
-		size: 'A4',
-		margin: 48,
-		info: { Title: `Detune check ${d.sheet.asset.tag}`, Author: 'Detune' }
-	});
+	const doc = newReport(`Detune check ${d.sheet.asset.tag}`);
 	assetHeader(doc, d.sheet, 'resonance check report');
 	checkSection(doc, d);
 	cautions(doc);
@@ -384,11 +400,7 @@ export async function assetReport(assetId: string): Promise<{ pdf: Buffer; tag: 
 		.where(eq(checks.assetId, assetId))
 		.orderBy(desc(checks.checkedAt))
 		.all();
-	const doc = new PDFDocument({
-		size: 'A4',
-		margin: 48,
-		info: { Title: `Detune asset ${sheet.asset.tag}`, Author: 'Detune' }
-	});
+	const doc = newReport(`Detune asset ${sheet.asset.tag}`);
 	assetHeader(doc, sheet, 'asset resonance report');
 	heading(doc, 'Check history');
 	if (history.length === 0) doc.text('No checks yet.');
