@@ -1,4 +1,5 @@
 import { defineConfig } from '@playwright/test';
+import { CHROMIUM, CHROMIUM_ARGS } from './tests/support/chromium.ts';
 
 const PORT = 4173;
 const ORIGIN = `http://127.0.0.1:${PORT}`;
@@ -39,17 +40,8 @@ export default defineConfig({
 		headless: true,
 		serviceWorkers: 'allow',
 		launchOptions: {
-			executablePath: '/usr/bin/chromium',
-			args: [
-				'--headless',
-				'--no-sandbox',
-				'--disable-gpu',
-				'--disable-quic',
-				'--no-first-run',
-				'--disable-background-networking',
-				'--disable-component-update',
-				'--disable-sync'
-			]
+			executablePath: CHROMIUM,
+			args: CHROMIUM_ARGS
 		}
 	}
 });

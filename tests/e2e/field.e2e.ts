@@ -1,24 +1,16 @@
 import { chromium, expect, test, type Page } from '@playwright/test';
 import { signIn, signInApi, ORIGIN } from './helpers.ts';
 import { openFieldOnline, outboxCount, pickAsset, saveChecks, typeMode } from './floor.ts';
+import { CHROMIUM, CHROMIUM_ARGS } from '../support/chromium.ts';
 
 /** A browser profile on disk, so that a test can close the browser and start it again. */
 function launchProfile(dir: string) {
 	return chromium.launchPersistentContext(dir, {
-		executablePath: '/usr/bin/chromium',
+		executablePath: CHROMIUM,
 		baseURL: ORIGIN,
 		serviceWorkers: 'allow',
 		viewport: { width: 1024, height: 768 },
-		args: [
-			'--headless',
-			'--no-sandbox',
-			'--disable-gpu',
-			'--disable-quic',
-			'--no-first-run',
-			'--disable-background-networking',
-			'--disable-component-update',
-			'--disable-sync'
-		]
+		args: CHROMIUM_ARGS
 	});
 }
 

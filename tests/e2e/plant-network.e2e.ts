@@ -12,6 +12,7 @@ import { join } from 'node:path';
 import { chromium, expect, test, type Browser } from '@playwright/test';
 import { startBuiltServer, type BuiltServer } from '../support/built-server.ts';
 import { outboxCount, openFieldOnline, saveChecks } from './floor.ts';
+import { CHROMIUM, CHROMIUM_ARGS } from '../support/chromium.ts';
 
 const HOST = 'detune.plant.test';
 
@@ -27,19 +28,9 @@ function homeTrusting(caFile: string): string {
 
 function tablet(home?: string): Promise<Browser> {
 	return chromium.launch({
-		executablePath: '/usr/bin/chromium',
+		executablePath: CHROMIUM,
 		env: { ...process.env, ...(home ? { HOME: home } : {}) },
-		args: [
-			'--headless',
-			'--no-sandbox',
-			'--disable-gpu',
-			'--disable-quic',
-			'--no-first-run',
-			'--disable-background-networking',
-			'--disable-component-update',
-			'--disable-sync',
-			`--host-resolver-rules=MAP ${HOST} 127.0.0.1`
-		]
+		args: [...CHROMIUM_ARGS, `--host-resolver-rules=MAP ${HOST} 127.0.0.1`]
 	});
 }
 
