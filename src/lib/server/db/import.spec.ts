@@ -60,4 +60,46 @@ describe('asset import', () => {
 				.errors[0]
 		).toMatchObject({ row: 3, column: 'tag', message: 'Tag A-1 is also on row 2.' });
 	});
+
+	it('answers a header of a million columns with one short message', () => {
+		// on the first version each unknown column was its own message: a 129 MB answer
+		const header = Array.from({ length: 1_000_000 }, (_, i) => `c${i}`).join(',');
+		const v = validate(`${header}\nA-1`);
+		expect(v.errors).toHaveLength(1);
+		expect(v.errors[0].message).toMatch(/^The header row is 7,888,889 characters long/);
+		expect(JSON.stringify(v).length).toBeLessThan(500);
+	});
+
+	it('names several unknown columns in one message', () => {
+		const extra = Array.from({ length: 40 }, (_, i) => `x${i}`).join(',');
+		const v = validate(
+			`tag,name,site_code,min_rpm,max_rpm,${extra}\nA-1,x,KRW,1,1${','.repeat(40)}`
+		);
+		expect(v.errors).toEqual([
+			{
+				row: 1,
+				column: '',
+				message:
+					'Unknown columns “x0”, “x1”, “x2”, “x3”, “x4” and 35 more; the template lists the columns.'
+			}
+		]);
+	});
+
+	it('says a picture or a workbook is not CSV text instead of naming its bytes as columns', () => {
+		// a PNG's signature and IHDR chunk, read as UTF-8 the way File.text() reads it
+		const png = new TextDecoder().decode(
+			new Uint8Array([
+				0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 0x0d, 0x49, 0x48, 0x44, 0x52, 0, 0,
+				1, 0, 0, 0, 1, 0, 8, 6, 0, 0, 0
+			])
+		);
+		expect(validate(png).errors).toEqual([
+			expect.objectContaining({
+				row: 1,
+				message: expect.stringMatching(/^This file is not CSV text/)
+			})
+		]);
+		const xlsx = new TextDecoder().decode(new Uint8Array([0x50, 0x4b, 3, 4, 20, 0, 6, 0]));
+		expect(validate(xlsx).errors[0].message).toMatch(/zipped file \(an \.xlsx workbook/);
+	});
 });

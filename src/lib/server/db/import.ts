@@ -78,22 +78,59 @@ const COLUMN_OF: Record<string, string> = {
 	ruleSetId: 'rule_set'
 };
 
+/** The longest header row read: every known column, spaced and quoted, fits several times over. */
+const MAX_HEADER_CHARS = 4096;
+
+/**
+ * What makes a text no asset list before any parsing: bytes of a binary file (a picture, a
+ * spreadsheet saved as .xlsx) or a header row far longer than the known columns can make.
+ */
+function refuseText(text: string): string | null {
+	const head = text.slice(0, 4096);
+	if (head.startsWith('PK\u0003\u0004'))
+		return 'This is a zipped file (an .xlsx workbook or similar), not CSV text; save the sheet as “CSV UTF-8” and load that.';
+	// NUL, other C0 controls than tab/CR/LF, or the decoder's replacement character: not UTF-8 text
+	// eslint-disable-next-line no-control-regex -- finding control characters is the point
+	const odd = head.match(/[\u0000-\u0008\u000e-\u001f\ufffd]/g)?.length ?? 0;
+	if (odd > 0 && odd >= head.length / 200)
+		return 'This file is not CSV text (it holds binary bytes, as a picture or a spreadsheet does); save the sheet as “CSV UTF-8” and load that.';
+	const end = text.search(/\r?\n/);
+	const headerChars = end < 0 ? text.length : end;
+	if (headerChars > MAX_HEADER_CHARS)
+		return `The header row is ${headerChars.toLocaleString('en')} characters long; the known columns fit in ${MAX_HEADER_CHARS.toLocaleString('en')}. The template lists them.`;
+	return null;
+}
+
+/** The one message for every unknown column: the first few by name, the count of the rest. */
+function unknownColumns(headers: string[]): RowError | null {
+	const known = new Set<string>(IMPORT_COLUMNS.map((c) => c[0]));
+	const unknown = headers.filter((h) => !known.has(h));
+	if (!unknown.length) return null;
+	const named = unknown
+		.slice(0, 5)
+		.map((h) => `“${h.length > 40 ? h.slice(0, 40) + '…' : h}”`)
+		.join(', ');
+	const more = unknown.length > 5 ? ` and ${unknown.length - 5} more` : '';
+	return {
+		row: 1,
+		column: unknown.length === 1 ? unknown[0] : '',
+		message: `Unknown column${unknown.length === 1 ? '' : 's'} ${named}${more}; the template lists the columns.`
+	};
+}
+
 export function validate(text: string): { rows: ValidRow[]; errors: RowError[]; total: number } {
-	const parsed = Papa.parse<Record<string, string>>(text.replace(/^\uFEFF/, ''), {
+	text = text.replace(/^\uFEFF/, '');
+	const refused = refuseText(text);
+	if (refused) return { rows: [], errors: [{ row: 1, column: '', message: refused }], total: 0 };
+	const parsed = Papa.parse<Record<string, string>>(text, {
 		header: true,
 		skipEmptyLines: 'greedy',
 		transformHeader: (h) => h.trim().toLowerCase()
 	});
 	const errors: RowError[] = [];
 	const headers = parsed.meta.fields ?? [];
-	const known = new Set<string>(IMPORT_COLUMNS.map((c) => c[0]));
-	for (const h of headers)
-		if (!known.has(h))
-			errors.push({
-				row: 1,
-				column: h,
-				message: `Unknown column “${h}”; the template lists the columns.`
-			});
+	const unknown = unknownColumns(headers);
+	if (unknown) errors.push(unknown);
 	for (const need of ['tag', 'name', 'site_code', 'min_rpm', 'max_rpm'])
 		if (!headers.includes(need))
 			errors.push({ row: 1, column: need, message: `The column “${need}” is missing.` });
