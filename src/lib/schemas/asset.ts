@@ -72,3 +72,18 @@ export const assetForm = z
 	});
 
 export type AssetForm = z.infer<typeof assetForm>;
+
+/** The parts of a source form that are not the kind's own fields (those: `source-form.ts`). */
+export const sourceFormMeta = z.object({
+	sourceId: z.string().max(64).optional(),
+	kind: z.string().max(32).optional(),
+	label: z.string().trim().max(80, 'Label: at most 80 characters.').default('')
+});
+
+/** A reviewer's mark on a check, with an optional comment. */
+export const reviewForm = z
+	.object({
+		checkId: z.string().min(1, 'Which check?').max(64),
+		comment: z.string().trim().max(1000, 'Comment: at most 1000 characters.').default('')
+	})
+	.strict();

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { followUpMove, followUpUpdate } from './follow-up.ts';
+import { followUpMove, followUpUpdate, parseListQuery } from './follow-up.ts';
 
 const base = { id: 'f-1', assigneeId: '', dueDate: '', priority: 'normal', notes: '' };
 
@@ -23,5 +23,15 @@ describe('follow-up forms', () => {
 	it('never move a follow-up to retested by hand', () => {
 		expect(followUpMove.safeParse({ id: 'f-1', status: 'retested' }).success).toBe(false);
 		expect(followUpMove.safeParse({ id: 'f-1', status: 'done' }).success).toBe(true);
+	});
+
+	it('read the list address through one schema: a status outside the list is refused, empty is absent', () => {
+		// the first version passed ?status= to the query unchecked
+		const ok = parseListQuery(new URLSearchParams('status=open&overdue=yes&assignee='));
+		expect(ok.success && ok.data).toEqual({ status: 'open', overdue: 'yes' });
+		const bad = parseListQuery(new URLSearchParams('status=closed'));
+		expect(bad.success).toBe(false);
+		expect(bad.error?.issues[0].message).toBe('status: open, scheduled, done, retested.');
+		expect(parseListQuery(new URLSearchParams('assignee=nobody')).success).toBe(false);
 	});
 });

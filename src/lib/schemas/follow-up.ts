@@ -49,5 +49,28 @@ export const followUpMove = z
 	})
 	.strict();
 
+/**
+ * The follow-ups list's address: a status tab, one assignee (planners), overdue only, a follow-up
+ * to open (`id`, from the e-mail's link) and the prefill of the create form (`new`, `check`).
+ */
+export const followUpListQuery = z
+	.object({
+		status: z.enum(FOLLOW_UP_STATUS_LIST, {
+			error: `status: ${FOLLOW_UP_STATUS_LIST.join(', ')}.`
+		}),
+		assignee: z.uuid({ error: 'assignee: a user id.' }),
+		overdue: z.literal('yes', { error: 'overdue: yes, or leave it out.' }),
+		id: z.string().max(64),
+		new: z.string().max(64),
+		check: z.string().max(64)
+	})
+	.partial();
+
+export type FollowUpListQuery = z.infer<typeof followUpListQuery>;
+
+/** The list's address parsed; empty parameters count as absent. */
+export const parseListQuery = (params: URLSearchParams) =>
+	followUpListQuery.safeParse(Object.fromEntries([...params].filter(([, v]) => v !== '')));
+
 export type FollowUpCreate = z.infer<typeof followUpCreate>;
 export type FollowUpUpdate = z.infer<typeof followUpUpdate>;

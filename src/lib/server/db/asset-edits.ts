@@ -24,6 +24,13 @@ function changed<T extends Record<string, unknown>>(before: T, after: Partial<T>
 	return { before: b, after: a, any: Object.keys(a).length > 0 };
 }
 
+/** A review of a check that is not (or no longer) on this asset. */
+export class UnknownCheckError extends Error {
+	constructor() {
+		super('No such check on this asset.');
+	}
+}
+
 export class UnknownRuleSetError extends Error {
 	constructor() {
 		super('Rule set: choose one from the list (that one does not exist, or was just removed).');
@@ -207,7 +214,7 @@ export function markReviewed(
 			.from(checks)
 			.where(and(eq(checks.id, checkId), eq(checks.assetId, assetId)))
 			.get();
-		if (!c) throw new Error('No such check on this asset.');
+		if (!c) throw new UnknownCheckError();
 		tx.update(checks)
 			.set({ reviewedBy: actorId, reviewedAt: now, reviewComment: comment })
 			.where(eq(checks.id, checkId))

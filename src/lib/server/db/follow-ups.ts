@@ -8,11 +8,19 @@ import { db } from './index.ts';
 import { assets, checks, followUps, sites, users } from './schema.ts';
 import { refreshAsset } from './status.ts';
 import * as audit from './audit.ts';
-import type { FollowUpCreate, FollowUpUpdate } from '../../schemas/follow-up.ts';
+import type { FollowUpCreate, FollowUpListQuery, FollowUpUpdate } from '../../schemas/follow-up.ts';
 import type { Tx } from './client.ts';
 import { readableAsset } from '../scope.ts';
 
-export class FollowUpError extends Error {}
+/** A refused follow-up write, with its HTTP status: 400 bad choice, 404 gone, 409 closed. */
+export class FollowUpError extends Error {
+	constructor(
+		message: string,
+		readonly status: 400 | 404 | 409 = 400
+	) {
+		super(message);
+	}
+}
 
 const columns = {
 	id: followUps.id,
@@ -46,11 +54,29 @@ function select() {
 
 export type FollowUpRow = Awaited<ReturnType<ReturnType<typeof select>['all']>>[number];
 
+/** The list as its address filters it; a technician sees only what is assigned to them. */
+export function listFor(
+	user: { id: string; role: string },
+	q: Pick<FollowUpListQuery, 'status' | 'assignee' | 'overdue'>,
+	today: string
+) {
+	return list({
+		status: q.status,
+		assigneeId: user.role === 'technician' ? user.id : q.assignee,
+		overdueOn: q.overdue ? today : undefined
+	});
+}
+
 export function list(
-	filter: { status?: string; assigneeId?: string; overdueOn?: string; assetId?: string } = {}
+	filter: {
+		status?: (typeof followUps.status.enumValues)[number];
+		assigneeId?: string;
+		overdueOn?: string;
+		assetId?: string;
+	} = {}
 ) {
 	const c = [];
-	if (filter.status) c.push(eq(followUps.status, filter.status as 'open'));
+	if (filter.status) c.push(eq(followUps.status, filter.status));
 	if (filter.assigneeId) c.push(eq(followUps.assigneeId, filter.assigneeId));
 	if (filter.assetId) c.push(eq(followUps.assetId, filter.assetId));
 	if (filter.overdueOn)
@@ -114,7 +140,7 @@ export function create(input: FollowUpCreate, actorId: string, now = Date.now())
 	const remedy = suggestRemedy(input.checkId, input.assetId);
 	db.transaction((tx) => {
 		if (!tx.select({ id: assets.id }).from(assets).where(eq(assets.id, input.assetId)).get())
-			throw new FollowUpError('No such asset.');
+			throw new FollowUpError('No such asset.', 404);
 		if (
 			input.checkId &&
 			!tx
@@ -159,9 +185,9 @@ export function update(
 ): { assigneeChanged: boolean } {
 	return db.transaction((tx) => {
 		const before = tx.select().from(followUps).where(eq(followUps.id, input.id)).get();
-		if (!before) throw new FollowUpError('No such follow-up.');
+		if (!before) throw new FollowUpError('No such follow-up.', 404);
 		if (before.status === 'retested')
-			throw new FollowUpError('This follow-up is closed by a clear retest.');
+			throw new FollowUpError('This follow-up is closed by a clear retest.', 409);
 		checkAssignee(tx, input.assigneeId, before.assetId);
 		const status = before.status === 'open' && input.dueDate ? 'scheduled' : before.status;
 		tx.update(followUps)
@@ -209,9 +235,9 @@ export function move(
 ): void {
 	db.transaction((tx) => {
 		const before = tx.select().from(followUps).where(eq(followUps.id, id)).get();
-		if (!before) throw new FollowUpError('No such follow-up.');
+		if (!before) throw new FollowUpError('No such follow-up.', 404);
 		if (before.status === 'retested')
-			throw new FollowUpError('This follow-up is closed by a clear retest.');
+			throw new FollowUpError('This follow-up is closed by a clear retest.', 409);
 		tx.update(followUps).set({ status, updatedAt: now }).where(eq(followUps.id, id)).run();
 		audit.record(
 			tx,

@@ -1,11 +1,17 @@
-import { fail } from '@sveltejs/kit';
+import { error } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
 import { requireRole, requireUser } from '$lib/server/guard';
 import * as followUps from '$lib/server/db/follow-ups';
 import * as users from '$lib/server/db/users';
 import * as assetQueries from '$lib/server/db/assets';
-import { followUpCreate, followUpMove, followUpUpdate } from '$lib/schemas/follow-up';
+import {
+	followUpCreate,
+	followUpMove,
+	followUpUpdate,
+	parseListQuery
+} from '$lib/schemas/follow-up';
 import { fieldErrors, formToObject } from '$lib/schemas/form';
+import { doneAction, failAction } from '$lib/server/forms';
 import { send } from '$lib/server/mail';
 import { followUpMail } from '$lib/server/mail/messages';
 import { runReminders } from '$lib/server/mail/reminders';
@@ -14,21 +20,18 @@ import { readableAsset } from '$lib/server/scope';
 
 export const load: PageServerLoad = (event) => {
 	const user = requireUser(event);
-	const q = event.url.searchParams;
+	const parsed = parseListQuery(event.url.searchParams);
+	if (!parsed.success) error(400, parsed.error.issues[0].message);
+	const q = parsed.data;
 	const today = new Date().toISOString().slice(0, 10);
-	const filter = {
-		status: q.get('status') || undefined,
-		assigneeId: user.role === 'technician' ? user.id : q.get('assignee') || undefined,
-		overdueOn: q.get('overdue') === 'yes' ? today : undefined
-	};
 	const planner = canPlan(user.role);
 	// the form to raise one from a flagged check: planners only, and only for an asset they may read
-	const newFor = planner ? q.get('new') : null;
+	const newFor = planner ? q.new : null;
 	const prefillAsset = newFor ? readableAsset(user, newFor) : null;
 	return {
 		today,
 		canPlan: planner,
-		items: followUps.list(filter),
+		items: followUps.listFor(user, q, today),
 		// names and e-mail addresses go to those who assign, never to everyone
 		assignees: planner ? users.byRole('technician').concat(users.byRole('supervisor')) : [],
 		assets: planner
@@ -37,8 +40,8 @@ export const load: PageServerLoad = (event) => {
 		prefill: prefillAsset
 			? {
 					assetId: prefillAsset.id,
-					checkId: q.get('check') ?? '',
-					remedy: followUps.suggestRemedy(q.get('check'), prefillAsset.id)
+					checkId: q.check ?? '',
+					remedy: followUps.suggestRemedy(q.check ?? null, prefillAsset.id)
 				}
 			: null
 	};
@@ -59,20 +62,18 @@ export const actions: Actions = {
 		const actor = requireRole(event, PLANNERS);
 		const raw = formToObject(await event.request.formData());
 		const parsed = followUpCreate.safeParse(raw);
-		if (!parsed.success)
-			return fail(400, { action: 'create', id: 'new', errors: fieldErrors(parsed.error) });
+		if (!parsed.success) return failAction(400, 'create', 'new', fieldErrors(parsed.error), raw);
 		try {
 			const id = followUps.create(parsed.data, actor.id);
 			if (parsed.data.assigneeId) await notifyAssignee(id);
-			return {
-				action: 'create',
-				id: 'new',
-				done:
-					'Follow-up created.' + (parsed.data.assigneeId ? ' The assignee has been e-mailed.' : '')
-			};
+			return doneAction(
+				'create',
+				'new',
+				'Follow-up created.' + (parsed.data.assigneeId ? ' The assignee has been e-mailed.' : '')
+			);
 		} catch (e) {
 			if (e instanceof followUps.FollowUpError)
-				return fail(400, { action: 'create', id: 'new', errors: { form: e.message } });
+				return failAction(e.status, 'create', 'new', { form: e.message }, raw);
 			throw e;
 		}
 	},
@@ -81,46 +82,43 @@ export const actions: Actions = {
 		const raw = formToObject(await event.request.formData());
 		const parsed = followUpUpdate.safeParse(raw);
 		if (!parsed.success)
-			return fail(400, {
-				action: 'update',
-				id: String(raw.id ?? ''),
-				errors: fieldErrors(parsed.error)
-			});
+			return failAction(400, 'update', String(raw.id ?? ''), fieldErrors(parsed.error));
 		try {
 			const r = followUps.update(parsed.data, actor.id);
 			if (r.assigneeChanged) await notifyAssignee(parsed.data.id);
-			return {
-				action: 'update',
-				id: parsed.data.id,
-				done: 'Saved.' + (r.assigneeChanged ? ' The assignee has been e-mailed.' : '')
-			};
+			return doneAction(
+				'update',
+				parsed.data.id,
+				'Saved.' + (r.assigneeChanged ? ' The assignee has been e-mailed.' : '')
+			);
 		} catch (e) {
 			if (e instanceof followUps.FollowUpError)
-				return fail(400, { action: 'update', id: parsed.data.id, errors: { form: e.message } });
+				return failAction(e.status, 'update', parsed.data.id, { form: e.message });
 			throw e;
 		}
 	},
 	move: async (event) => {
 		const actor = requireRole(event, PLANNERS);
-		const parsed = followUpMove.safeParse(formToObject(await event.request.formData()));
+		const raw = formToObject(await event.request.formData());
+		const parsed = followUpMove.safeParse(raw);
 		if (!parsed.success)
-			return fail(400, { action: 'move', id: '', errors: fieldErrors(parsed.error) });
+			return failAction(400, 'move', String(raw.id ?? ''), fieldErrors(parsed.error));
 		try {
 			followUps.move(parsed.data.id, parsed.data.status, actor.id);
 		} catch (e) {
 			if (e instanceof followUps.FollowUpError)
-				return fail(400, { action: 'move', id: parsed.data.id, errors: { form: e.message } });
+				return failAction(e.status, 'move', parsed.data.id, { form: e.message });
 			throw e;
 		}
-		return { action: 'move', id: parsed.data.id, done: `Marked ${parsed.data.status}.` };
+		return doneAction('move', parsed.data.id, `Marked ${parsed.data.status}.`);
 	},
 	remind: async (event) => {
 		requireRole(event, PLANNERS);
 		const r = await runReminders();
-		return {
-			action: 'remind',
-			id: 'all',
-			done: `Reminders: ${r.sent} sent, ${r.skipped} already sent before.`
-		};
+		return doneAction(
+			'remind',
+			'all',
+			`Reminders: ${r.sent} sent, ${r.skipped} already sent before.`
+		);
 	}
 };

@@ -1,10 +1,10 @@
-import { fail } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
 import { requireRole, requireUser } from '$lib/server/guard';
 import * as rules from '$lib/server/db/rule-sets';
 import { inTurn } from '$lib/server/turns';
 import { ruleSetForm } from '$lib/schemas/rule-set';
 import { fieldErrors } from '$lib/schemas/form';
+import { doneAction, failAction } from '$lib/server/forms';
 import { SOURCE_KINDS } from '$lib/schemas/excitation';
 import { EDITORS } from '$lib/roles';
 
@@ -35,18 +35,19 @@ export const actions: Actions = {
 		const form = await event.request.formData();
 		const id = String(form.get('id') ?? '') || null;
 		const parsed = parse(form);
-		if (!parsed.success) return fail(400, { id: id ?? 'new', errors: fieldErrors(parsed.error) });
+		if (!parsed.success) return failAction(400, 'save', id ?? 'new', fieldErrors(parsed.error));
 		try {
 			const r = await inTurn(() => rules.save(id, parsed.data, actor.id));
-			return {
-				id: id ?? 'new',
-				done: id
+			return doneAction(
+				'save',
+				id ?? 'new',
+				id
 					? `Saved; ${r.recomputed} asset verdict${r.recomputed === 1 ? '' : 's'} recomputed.`
 					: 'Rule set created.'
-			};
+			);
 		} catch (e) {
 			if (e instanceof rules.RuleSetError)
-				return fail(e.status, { id: id ?? 'new', errors: { form: e.message } });
+				return failAction(e.status, 'save', id ?? 'new', { form: e.message });
 			throw e;
 		}
 	}

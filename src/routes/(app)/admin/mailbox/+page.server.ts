@@ -1,4 +1,3 @@
-import { fail } from '@sveltejs/kit';
 import { z } from 'zod';
 import { desc } from 'drizzle-orm';
 import type { Actions, PageServerLoad } from './$types';
@@ -8,6 +7,7 @@ import { mail } from '$lib/server/db/schema';
 import { mailSettings, send } from '$lib/server/mail';
 import { email } from '$lib/schemas/user';
 import { fieldErrors, formToObject } from '$lib/schemas/form';
+import { doneAction, failAction } from '$lib/server/forms';
 
 /** The mail settings in use, the local catcher's mailbox (development, demo, tests) and what was sent. */
 export const load: PageServerLoad = (event) => {
@@ -39,7 +39,7 @@ export const actions: Actions = {
 	test: async (event) => {
 		requireRole(event, ['admin']);
 		const parsed = testForm.safeParse(formToObject(await event.request.formData()));
-		if (!parsed.success) return fail(400, { errors: fieldErrors(parsed.error) });
+		if (!parsed.success) return failAction(400, 'test', null, fieldErrors(parsed.error));
 		const text =
 			'This is a test message from Detune. If it arrived, follow-up assignments and reminders will reach people too.';
 		const r = await send({
@@ -51,11 +51,9 @@ export const actions: Actions = {
 			dedupeKey: `test:${crypto.randomUUID()}`
 		});
 		if (r === 'failed')
-			return fail(502, {
-				errors: {
-					to: 'The mail server refused the message or could not be reached; the error is in the Sent list below.'
-				}
+			return failAction(502, 'test', null, {
+				to: 'The mail server refused the message or could not be reached; the error is in the Sent list below.'
 			});
-		return { done: `Test message sent to ${parsed.data.to}.` };
+		return doneAction('test', null, `Test message sent to ${parsed.data.to}.`);
 	}
 };

@@ -1,10 +1,10 @@
-import { fail } from '@sveltejs/kit';
 import type { z } from 'zod';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
 import { requireRole, requireUser } from '$lib/server/guard';
 import * as siteQueries from '$lib/server/db/sites';
 import { areaCreate, areaRename, siteForm, siteUpdate } from '$lib/schemas/site';
 import { fieldErrors, formToObject } from '$lib/schemas/form';
+import { doneAction, failAction } from '$lib/server/forms';
 
 export const load: PageServerLoad = (event) => {
 	requireUser(event);
@@ -26,13 +26,12 @@ async function act<S extends z.ZodType<Record<string, unknown>>>(
 	const raw = formToObject(await event.request.formData());
 	const id = idKey === 'new' ? 'new' : String(raw[idKey] ?? '');
 	const parsed = schema.safeParse(raw);
-	if (!parsed.success)
-		return fail(400, { action, id, values: raw, errors: fieldErrors(parsed.error) });
+	if (!parsed.success) return failAction(400, action, id, fieldErrors(parsed.error), raw);
 	try {
-		return { action, id, done: run(parsed.data, actor.id) };
+		return doneAction(action, id, run(parsed.data, actor.id));
 	} catch (e) {
 		if (e instanceof siteQueries.SiteError)
-			return fail(e.status, { action, id, values: raw, errors: { [e.field]: e.message } });
+			return failAction(e.status, action, id, { [e.field]: e.message }, raw);
 		throw e;
 	}
 }

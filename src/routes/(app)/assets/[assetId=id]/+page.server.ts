@@ -1,4 +1,4 @@
-import { error, fail } from '@sveltejs/kit';
+import { error } from '@sveltejs/kit';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
 import { requireRole, requireUser } from '$lib/server/guard';
 import * as assetQueries from '$lib/server/db/assets';
@@ -9,15 +9,23 @@ import * as edits from '$lib/server/db/asset-edits';
 import * as audit from '$lib/server/db/audit';
 import * as rules from '$lib/server/db/rule-sets';
 import { computeCheck } from '$lib/checks/compute';
-import { assetForm } from '$lib/schemas/asset';
+import { assetForm, reviewForm, sourceFormMeta } from '$lib/schemas/asset';
 import { fieldErrors, formToObject } from '$lib/schemas/form';
+import { doneAction, failAction } from '$lib/server/forms';
 import { SOURCE_KINDS, type SourceKind } from '$lib/schemas/excitation';
 import { formFromParams, paramsFromForm } from '$lib/schemas/source-form';
 import { canEditAssets, canPlan, EDITORS } from '$lib/roles';
 
-const MAX_LABEL = 80;
-const labelError = (label: string): Record<string, string> =>
-	label.length > MAX_LABEL ? { label: `Label: at most ${MAX_LABEL} characters.` } : {};
+/** A source form: its label (checked here) and the kind's own fields (`paramsFromForm`). */
+function sourceFields(kind: SourceKind, raw: Record<string, unknown>, units: 'metric' | 'us') {
+	const meta = sourceFormMeta.safeParse(raw);
+	const p = paramsFromForm(kind, raw, units);
+	if (meta.success && p.ok) return { ok: true as const, label: meta.data.label, params: p.params };
+	return {
+		ok: false as const,
+		errors: { ...(p.ok ? {} : p.errors), ...(meta.success ? {} : fieldErrors(meta.error)) }
+	};
+}
 
 function loadSheet(event: RequestEvent) {
 	const user = requireUser(event);
@@ -85,31 +93,22 @@ export const actions: Actions = {
 	updateAsset: async (event) => {
 		const actor = requireRole(event, EDITORS);
 		const { sheet } = loadSheet(event);
-		const raw = formToObject(await event.request.formData());
-		const parsed = assetForm.safeParse(raw);
-		if (!parsed.success)
-			return fail(400, {
-				action: 'updateAsset',
-				id: sheet.asset.id,
-				errors: fieldErrors(parsed.error)
-			});
+		const id = sheet.asset.id;
+		const parsed = assetForm.safeParse(formToObject(await event.request.formData()));
+		if (!parsed.success) return failAction(400, 'updateAsset', id, fieldErrors(parsed.error));
 		let changed: boolean;
 		try {
-			changed = edits.updateAsset(sheet.asset.id, parsed.data, actor.id);
+			changed = edits.updateAsset(id, parsed.data, actor.id);
 		} catch (e) {
 			if (e instanceof edits.UnknownRuleSetError)
-				return fail(400, {
-					action: 'updateAsset',
-					id: sheet.asset.id,
-					errors: { ruleSetId: e.message }
-				});
+				return failAction(400, 'updateAsset', id, { ruleSetId: e.message });
 			throw e;
 		}
-		return {
-			action: 'updateAsset',
-			id: sheet.asset.id,
-			done: changed ? 'Asset saved; margins recomputed.' : 'Nothing changed.'
-		};
+		return doneAction(
+			'updateAsset',
+			id,
+			changed ? 'Asset saved; margins recomputed.' : 'Nothing changed.'
+		);
 	},
 	updateSource: async (event) => {
 		const actor = requireRole(event, EDITORS);
@@ -117,25 +116,17 @@ export const actions: Actions = {
 		const raw = formToObject(await event.request.formData());
 		const source = sheet.sources.find((s) => s.id === raw.sourceId);
 		if (!source)
-			return fail(404, {
-				action: 'updateSource',
-				id: String(raw.sourceId ?? ''),
-				errors: { form: 'That excitation source is no longer on this asset.' }
+			return failAction(404, 'updateSource', String(raw.sourceId ?? ''), {
+				form: 'That excitation source is no longer on this asset.'
 			});
-		const p = paramsFromForm(source.kind as SourceKind, raw, actor.unitSystem);
-		const label = String(raw.label ?? '').trim();
-		if (!p.ok || label.length > MAX_LABEL)
-			return fail(400, {
-				action: 'updateSource',
-				id: source.id,
-				errors: { ...(p.ok ? {} : p.errors), ...labelError(label) }
-			});
-		const changed = edits.updateSource(sheet.asset.id, source.id, label, p.params, actor.id);
-		return {
-			action: 'updateSource',
-			id: source.id,
-			done: changed ? 'Saved; margins recomputed.' : 'Nothing changed.'
-		};
+		const f = sourceFields(source.kind as SourceKind, raw, actor.unitSystem);
+		if (!f.ok) return failAction(400, 'updateSource', source.id, f.errors);
+		const changed = edits.updateSource(sheet.asset.id, source.id, f.label, f.params, actor.id);
+		return doneAction(
+			'updateSource',
+			source.id,
+			changed ? 'Saved; margins recomputed.' : 'Nothing changed.'
+		);
 	},
 	addSource: async (event) => {
 		const actor = requireRole(event, EDITORS);
@@ -143,56 +134,39 @@ export const actions: Actions = {
 		const raw = formToObject(await event.request.formData());
 		const kind = String(raw.kind ?? '') as SourceKind;
 		if (!SOURCE_KINDS.includes(kind))
-			return fail(400, {
-				action: 'addSource',
-				id: 'new',
-				errors: { kind: 'Choose the kind of source.' }
-			});
-		const p = paramsFromForm(kind, raw, actor.unitSystem);
-		const label = String(raw.label ?? '').trim();
-		if (!p.ok || label.length > MAX_LABEL)
-			return fail(400, {
-				action: 'addSource',
-				id: 'new',
-				errors: { ...(p.ok ? {} : p.errors), ...labelError(label) },
-				kind
-			});
-		edits.addSource(sheet.asset.id, kind, label, p.params, actor.id);
-		return { action: 'addSource', id: 'new', done: 'Source added; margins recomputed.' };
+			return failAction(400, 'addSource', 'new', { kind: 'Choose the kind of source.' });
+		const f = sourceFields(kind, raw, actor.unitSystem);
+		if (!f.ok) return failAction(400, 'addSource', 'new', f.errors, raw);
+		edits.addSource(sheet.asset.id, kind, f.label, f.params, actor.id);
+		return doneAction('addSource', 'new', 'Source added; margins recomputed.');
 	},
 	deleteSource: async (event) => {
 		const actor = requireRole(event, EDITORS);
 		const { sheet } = loadSheet(event);
 		const raw = formToObject(await event.request.formData());
-		if (!sheet.sources.some((s) => s.id === raw.sourceId))
-			return fail(404, {
-				action: 'deleteSource',
-				id: String(raw.sourceId ?? ''),
-				errors: { form: 'That excitation source is no longer on this asset.' }
+		const source = sheet.sources.find((s) => s.id === raw.sourceId);
+		if (!source)
+			return failAction(404, 'deleteSource', String(raw.sourceId ?? ''), {
+				form: 'That excitation source is no longer on this asset.'
 			});
-		edits.deleteSource(sheet.asset.id, String(raw.sourceId), actor.id);
-		return { action: 'deleteSource', id: String(raw.sourceId), done: 'Source removed.' };
+		edits.deleteSource(sheet.asset.id, source.id, actor.id);
+		return doneAction('deleteSource', source.id, 'Source removed.');
 	},
 	review: async (event) => {
 		const actor = requireRole(event, EDITORS);
 		const { sheet } = loadSheet(event);
 		const raw = formToObject(await event.request.formData());
-		const comment = String(raw.comment ?? '').trim();
-		if (comment.length > 1000)
-			return fail(400, {
-				action: 'review',
-				id: String(raw.checkId ?? ''),
-				errors: { comment: 'Comment: at most 1000 characters.' }
-			});
+		const parsed = reviewForm.safeParse(raw);
+		if (!parsed.success)
+			return failAction(400, 'review', String(raw.checkId ?? ''), fieldErrors(parsed.error));
+		const { checkId, comment } = parsed.data;
 		try {
-			edits.markReviewed(sheet.asset.id, String(raw.checkId ?? ''), comment, actor.id);
+			edits.markReviewed(sheet.asset.id, checkId, comment, actor.id);
 		} catch (e) {
-			return fail(404, {
-				action: 'review',
-				id: String(raw.checkId ?? ''),
-				errors: { form: (e as Error).message }
-			});
+			if (e instanceof edits.UnknownCheckError)
+				return failAction(404, 'review', checkId, { form: e.message });
+			throw e;
 		}
-		return { action: 'review', id: String(raw.checkId), done: 'Marked reviewed.' };
+		return doneAction('review', checkId, 'Marked reviewed.');
 	}
 };

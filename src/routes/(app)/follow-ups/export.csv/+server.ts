@@ -1,4 +1,6 @@
+import { error } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
+import { parseListQuery } from '$lib/schemas/follow-up';
 import { requireUser } from '$lib/server/guard';
 import * as followUps from '$lib/server/db/follow-ups';
 import { toCsv } from '$lib/server/csv';
@@ -6,11 +8,9 @@ import { toCsv } from '$lib/server/csv';
 /** GET: the follow-ups (filters as on the page) as CSV. */
 export const GET: RequestHandler = (event) => {
 	const user = requireUser(event);
-	const q = event.url.searchParams;
-	const rows = followUps.list({
-		status: q.get('status') || undefined,
-		assigneeId: user.role === 'technician' ? user.id : q.get('assignee') || undefined
-	});
+	const parsed = parseListQuery(event.url.searchParams);
+	if (!parsed.success) error(400, parsed.error.issues[0].message);
+	const rows = followUps.listFor(user, parsed.data, new Date().toISOString().slice(0, 10));
 	const head = [
 		'tag',
 		'asset',
