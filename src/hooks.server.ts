@@ -7,6 +7,7 @@ import { openSetup } from '$lib/server/setup';
 import { dataDir } from '$lib/server/recordings';
 import { mkdirSync } from 'node:fs';
 import { runMigrations } from '$lib/server/db/client';
+import { startPlannerUpkeep, stopPlannerUpkeep } from '$lib/server/db/upkeep';
 import { isEmpty, seed } from '$lib/server/db/seed';
 import { SESSION_COOKIE, validateSession } from '$lib/server/auth';
 import { decide, refusal } from '$lib/server/guard';
@@ -25,6 +26,7 @@ export const init: ServerInit = async () => {
 			`[detune] empty database: demo data added (${r.sites} sites, ${r.assets} assets, ${r.users} users)`
 		);
 	}
+	startPlannerUpkeep(sqlite);
 	const token = openSetup();
 	if (token)
 		console.log(
@@ -35,6 +37,7 @@ export const init: ServerInit = async () => {
 	// adapter-node's graceful shutdown (SIGTERM/SIGINT): let the process end
 	process.once('sveltekit:shutdown', () => {
 		stopReminderJob();
+		stopPlannerUpkeep();
 		void stopCatcher();
 	});
 };

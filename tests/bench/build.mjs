@@ -20,6 +20,7 @@ await build({
 const r = spawnSync(
 	process.execPath,
 	['--expose-gc', `${root}.bench/run.mjs`, ...process.argv.slice(2)],
-	{ stdio: 'inherit', cwd: root }
+	// the bench's own process never touches data/: its app modules get an empty in-memory database
+	{ stdio: 'inherit', cwd: root, env: { ...process.env, DATABASE_URL: ':memory:' } }
 );
 process.exit(r.status ?? 1);

@@ -8,12 +8,12 @@ import { spawnSync } from 'node:child_process';
 import { engineBench } from './engine.bench.ts';
 import { syncBench } from './sync.bench.ts';
 import { recordingsBench } from './recordings.bench.ts';
-import { boardBench } from './board.bench.ts';
+import { scaleBench } from './scale.bench.ts';
 import { loadBench } from './load.bench.ts';
 import { floorBench } from './floor.bench.ts';
 import { printTable, type Figure } from './harness.ts';
 
-// `npm run bench -- board` runs only the named parts (floor, sync, board, load, recordings, engine)
+// `npm run bench -- board` runs only the named parts (floor, sync, scale, load, recordings, engine)
 const only = process.argv.slice(2);
 const wanted = (part: string) => only.length === 0 || only.includes(part);
 const figures: Figure[] = [];
@@ -30,9 +30,9 @@ if (wanted('sync')) {
 	console.log('[bench] sync over loopback …');
 	figures.push(...(await syncBench()));
 }
-if (wanted('board')) {
-	console.log('[bench] Margin board on 10,000 assets / 200,000 checks …');
-	figures.push(...(await boardBench()));
+if (wanted('scale') || wanted('board')) {
+	console.log('[bench] Margin board and push at 1,000, 10,000 and 100,000 assets …');
+	figures.push(...(await scaleBench()));
 	globalThis.gc?.();
 }
 if (wanted('load')) {

@@ -5,7 +5,7 @@ import { boardQuery } from '../../schemas/board.ts';
 import { demoId } from './seed.ts';
 import { eq } from 'drizzle-orm';
 import { db } from './index.ts';
-import { sites, users } from './schema.ts';
+import { assetStatus, sites, users } from './schema.ts';
 import { updateSite } from './sites.ts';
 
 beforeAll(async () => {
@@ -43,6 +43,44 @@ describe('the Margin board query', () => {
 		expect(p1.rows).toHaveLength(10);
 		expect(p2.rows[0].id).not.toBe(p1.rows[0].id);
 		expect(all(q({ site }), 'all').length).toBe(query(q({ site }), 'all').total);
+	});
+
+	it('finds any part of a tag or name, as a plain substring search over every row would', () => {
+		// the oracle: every row, lower-cased String.includes; searches of 3+ characters go through
+		// the trigram index (migration 0005), shorter ones through LIKE
+		const every = all(q(), 'all');
+		const oracle = (typed: string) => {
+			const needle = q({ q: typed }).q ?? ''; // as the address is read: trimmed
+			return every
+				.filter((r) => [r.tag, r.name].some((t) => t.toLowerCase().includes(needle.toLowerCase())))
+				.map((r) => r.tag)
+				.sort();
+		};
+		for (const needle of ['rwp-10', 'RAW WATER', 'w', 'KR', 'pump 5', 'x"y', '%_', ' fan', 'ter p'])
+			expect(
+				all(q({ q: needle }), 'all')
+					.map((r) => r.tag)
+					.sort(),
+				needle
+			).toEqual(oracle(needle));
+		expect(oracle('rwp-10').length).toBeGreaterThan(1);
+	});
+
+	it('finds an asset by its new name once it is renamed, and no longer by the old one', () => {
+		const id = demoId('asset:KRW-RWP-101');
+		const before = db.select().from(assetStatus).where(eq(assetStatus.assetId, id)).get()!;
+		db.update(assetStatus)
+			.set({ name: 'Zanzibar intake' })
+			.where(eq(assetStatus.assetId, id))
+			.run();
+		try {
+			expect(query(q({ q: 'zanzib' }), 'all').rows.map((r) => r.tag)).toEqual(['KRW-RWP-101']);
+			expect(query(q({ q: before.name }), 'all').rows.map((r) => r.tag)).not.toContain(
+				'KRW-RWP-101'
+			);
+		} finally {
+			db.update(assetStatus).set({ name: before.name }).where(eq(assetStatus.assetId, id)).run();
+		}
 	});
 
 	it('sorts by site name, not by the order of the sites’ ids', () => {

@@ -9,67 +9,72 @@ import { areas, assetStatus, assets, sites } from './schema.ts';
 import type { BoardQuery, BoardResponse, BoardRow } from '../../schemas/board.ts';
 
 /**
- * Values go into the SQL either as themselves (the benchmark's bare statements) or as named
- * placeholders of a prepared statement kept per query shape (the API: no query building per call).
+ * Every value goes into the SQL as a named placeholder, so that one prepared statement per query
+ * shape serves every call (no query building per request); `values` gives the names their values.
  */
-type Bind = (name: string, value: unknown) => unknown;
-const asValue: Bind = (_name, value) => value;
-const asPlaceholder: Bind = (name) => sql.placeholder(name);
+const p = (name: string) => sql.placeholder(name);
 
-function staleExpr(bind: Bind, now: number): SQL<number> {
-	return sql<number>`(${assetStatus.staleAfter} is not null and ${assetStatus.staleAfter} < ${bind('now', now)})`;
+function staleExpr(): SQL<number> {
+	return sql<number>`(${assetStatus.staleAfter} is not null and ${assetStatus.staleAfter} < ${p('now')})`;
 }
 
 /** `contains` as a LIKE pattern: `%`, `_` and the escape character are searched as themselves. */
 const searchPattern = (text: string) => `%${text.replace(/[\\%_]/g, (m) => `\\${m}`)}%`;
 
-function conditions(
-	q: BoardQuery,
-	now: number,
-	scope: string[] | 'all',
-	withVerdict: boolean,
-	bind: Bind = asValue
-): SQL | undefined {
+/**
+ * Three characters or more are searched in the trigram index (migration 0005: any part of a tag
+ * or name, case-insensitive, as one quoted phrase so that no character has a meaning); shorter
+ * text, which no trigram can hold, by LIKE over the table.
+ */
+const byTrigrams = (text: string) => [...text].length >= 3;
+const searchPhrase = (text: string) => `"${text.replace(/"/g, '""')}"`;
+
+function conditions(q: BoardQuery, scope: string[] | 'all', withVerdict: boolean): SQL | undefined {
 	const c: (SQL | undefined)[] = [];
 	if (scope !== 'all')
 		c.push(
 			scope.length
 				? sql`${assetStatus.siteId} in (${sql.join(
-						scope.map((id, i) => sql`${bind(`scope${i}`, id)}`),
+						scope.map((_, i) => sql`${p(`scope${i}`)}`),
 						sql`, `
 					)})`
 				: sql`0`
 		);
-	if (q.site) c.push(sql`${assetStatus.siteId} = ${bind('site', q.site)}`);
-	if (q.area) c.push(sql`${assetStatus.areaId} = ${bind('area', q.area)}`);
-	if (q.kind) c.push(sql`${assetStatus.machineKind} = ${bind('kind', q.kind)}`);
-	if (withVerdict && q.verdict) c.push(sql`${assetStatus.verdict} = ${bind('verdict', q.verdict)}`);
-	if (q.stale === 'yes') c.push(sql`${assetStatus.staleAfter} < ${bind('now', now)}`);
+	if (q.site) c.push(sql`${assetStatus.siteId} = ${p('site')}`);
+	if (q.area) c.push(sql`${assetStatus.areaId} = ${p('area')}`);
+	if (q.kind) c.push(sql`${assetStatus.machineKind} = ${p('kind')}`);
+	if (withVerdict && q.verdict) c.push(sql`${assetStatus.verdict} = ${p('verdict')}`);
+	if (q.stale === 'yes') c.push(sql`${assetStatus.staleAfter} < ${p('now')}`);
 	if (q.stale === 'no')
+		c.push(sql`(${assetStatus.staleAfter} is null or ${assetStatus.staleAfter} >= ${p('now')})`);
+	if (q.q && byTrigrams(q.q))
 		c.push(
-			sql`(${assetStatus.staleAfter} is null or ${assetStatus.staleAfter} >= ${bind('now', now)})`
+			sql`${assetStatus}.rowid in (select rowid from asset_search where asset_search match ${p('phrase')})`
 		);
-	if (q.q) {
-		const pattern = searchPattern(q.q);
+	else if (q.q)
 		c.push(
 			or(
-				sql`${assetStatus.tag} like ${bind('pattern', pattern)} escape '\\'`,
-				sql`${assetStatus.name} like ${bind('pattern', pattern)} escape '\\'`
+				sql`${assetStatus.tag} like ${p('pattern')} escape '\\'`,
+				sql`${assetStatus.name} like ${p('pattern')} escape '\\'`
 			)
 		);
-	}
 	return c.length ? and(...c) : undefined;
 }
 
 /** The named values of a query, for its prepared statement. */
-function values(q: BoardQuery, now: number, scope: string[] | 'all'): Record<string, unknown> {
+export function values(
+	q: BoardQuery,
+	now: number,
+	scope: string[] | 'all'
+): Record<string, unknown> {
 	const v: Record<string, unknown> = { now, limit: q.size, offset: (q.page - 1) * q.size };
 	if (scope !== 'all') scope.forEach((id, i) => (v[`scope${i}`] = id));
 	if (q.site) v.site = q.site;
 	if (q.area) v.area = q.area;
 	if (q.kind) v.kind = q.kind;
 	if (q.verdict) v.verdict = q.verdict;
-	if (q.q) v.pattern = searchPattern(q.q);
+	if (q.q && byTrigrams(q.q)) v.phrase = searchPhrase(q.q);
+	else if (q.q) v.pattern = searchPattern(q.q);
 	return v;
 }
 
@@ -81,27 +86,25 @@ const shapeOf = (q: BoardQuery, scope: string[] | 'all') =>
 		!!q.kind,
 		q.verdict ? 1 : 0,
 		q.stale ?? '',
-		!!q.q,
+		q.q ? (byTrigrams(q.q) ? 'trigram' : 'like') : '',
 		q.sort,
 		q.dir
 	].join('|');
 
 function ordering(q: BoardQuery): SQL[] {
 	const d = q.dir === 'desc' ? desc : asc;
-	// SQLite puts NULLs first when ascending; unchecked assets (no figures) go last either way
+	// unchecked assets (no figures) go last either way: SQLite puts NULLs last when descending, and
+	// reads "asc nulls last" from the same plain index (status_over_range_idx and the like)
 	const nullable = (col: AnyColumn): SQL[] =>
-		q.dir === 'desc' ? [desc(col)] : [sql`${col} is null`, asc(col)];
+		q.dir === 'desc' ? [desc(col)] : [sql`${col} asc nulls last`];
 	switch (q.sort) {
 		case 'tag':
 			return [d(assetStatus.tag)];
 		case 'name':
 			return [d(assetStatus.name), asc(assetStatus.tag)];
 		case 'site':
-			// by the site's name (a lookup by key per row; sites are few), then the tag
-			return [
-				d(sql`(select ${sites.name} from ${sites} where ${sites.id} = ${assetStatus.siteId})`),
-				asc(assetStatus.tag)
-			];
+			// by the site's name (kept in the row, status_site_name_idx), then the tag
+			return [d(assetStatus.siteName), asc(assetStatus.tag)];
 		case 'checked':
 			return [...nullable(assetStatus.checkedAt), asc(assetStatus.tag)];
 		case 'atSpeed':
@@ -127,7 +130,7 @@ function ordering(q: BoardQuery): SQL[] {
 }
 
 /** The board columns from asset_status alone: one table, so its indexes serve filter and order. */
-function base(now: number, bind: Bind = asValue) {
+function base() {
 	return db
 		.select({
 			id: assetStatus.assetId,
@@ -143,7 +146,7 @@ function base(now: number, bind: Bind = asValue) {
 			worstMarginOverRangePct: assetStatus.worstMarginOverRangePct,
 			worstPair: assetStatus.worstPair,
 			verdict: assetStatus.verdict,
-			stale: staleExpr(bind, now),
+			stale: staleExpr(),
 			openFollowUps: assetStatus.openFollowUps
 		})
 		.from(assetStatus);
@@ -174,14 +177,20 @@ let lookups: {
 	speeds: ReturnType<ReturnType<typeof speedLookup>['prepare']>;
 } | null = null;
 
-/** Adds site and area names and the speed range to a page of rows (three small lookups by key). */
-function complete(rows: BaseRow[]): BoardRow[] {
-	if (rows.length === 0) return [];
+/** The three page-completion lookups, prepared once. */
+export function completionLookups() {
 	lookups ??= {
 		sites: siteLookup().prepare(),
 		areas: areaLookup().prepare(),
 		speeds: speedLookup().prepare()
 	};
+	return lookups;
+}
+
+/** Adds site and area names and the speed range to a page of rows (three small lookups by key). */
+function complete(rows: BaseRow[]): BoardRow[] {
+	if (rows.length === 0) return [];
+	const lookups = completionLookups();
 	const { sites: siteIds, areas: areaIds, assets: assetIds } = completionIds(rows);
 	const siteNames = new Map(lookups.sites.all({ ids: siteIds }).map((r) => [r.id, r.name]));
 	const areaNames = new Map(lookups.areas.all({ ids: areaIds }).map((r) => [r.id, r.name]));
@@ -201,7 +210,7 @@ function complete(rows: BaseRow[]): BoardRow[] {
 }
 
 /** The distinct site, area and asset ids of a page, each as a JSON array. */
-function completionIds(rows: { id: string; siteId: string; areaId: string | null }[]) {
+export function completionIds(rows: { id: string; siteId: string; areaId: string | null }[]) {
 	const areaIds = new Set<string>();
 	const siteIds = new Set<string>();
 	for (const r of rows) {
@@ -215,23 +224,23 @@ function completionIds(rows: { id: string; siteId: string; areaId: string | null
 	};
 }
 
-function rowsStatement(q: BoardQuery, scope: string[] | 'all', bind: Bind, now: number) {
-	return base(now, bind)
-		.where(conditions(q, now, scope, true, bind))
+function rowsStatement(q: BoardQuery, scope: string[] | 'all') {
+	return base()
+		.where(conditions(q, scope, true))
 		.orderBy(...ordering(q))
-		.limit(bind('limit', q.size) as number)
-		.offset(bind('offset', (q.page - 1) * q.size) as number);
+		.limit(p('limit') as unknown as number)
+		.offset(p('offset') as unknown as number);
 }
 
-function countsStatement(q: BoardQuery, scope: string[] | 'all', bind: Bind, now: number) {
+function countsStatement(q: BoardQuery, scope: string[] | 'all') {
 	return db
 		.select({
 			verdict: assetStatus.verdict,
 			n: sql<number>`count(*)`,
-			stale: sql<number>`sum(${staleExpr(bind, now)})`
+			stale: sql<number>`sum(${staleExpr()})`
 		})
 		.from(assetStatus)
-		.where(conditions(q, now, scope, false, bind))
+		.where(conditions(q, scope, false))
 		.groupBy(assetStatus.verdict);
 }
 
@@ -241,13 +250,14 @@ type Prepared = {
 };
 const prepared = new Map<string, Prepared>();
 
-function statementsFor(q: BoardQuery, scope: string[] | 'all'): Prepared {
+/** The prepared rows and counts statements for this query's shape (made once per shape). */
+export function statementsFor(q: BoardQuery, scope: string[] | 'all'): Prepared {
 	const key = shapeOf(q, scope);
 	let p = prepared.get(key);
 	if (!p) {
 		p = {
-			rows: rowsStatement(q, scope, asPlaceholder, 0).prepare(),
-			counts: countsStatement(q, scope, asPlaceholder, 0).prepare()
+			rows: rowsStatement(q, scope).prepare(),
+			counts: countsStatement(q, scope).prepare()
 		};
 		if (prepared.size > 500) prepared.clear();
 		prepared.set(key, p);
@@ -274,10 +284,10 @@ export function query(q: BoardQuery, scope: string[] | 'all', now = Date.now()):
 
 /** Every row of the filtered list, for CSV export. */
 export function all(q: BoardQuery, scope: string[] | 'all', now = Date.now()): BoardRow[] {
-	const rows = base(now)
-		.where(conditions(q, now, scope, true))
+	const rows = base()
+		.where(conditions(q, scope, true))
 		.orderBy(...ordering(q))
-		.all();
+		.all(values(q, now, scope));
 	const out: BoardRow[] = [];
 	for (let i = 0; i < rows.length; i += 500) out.push(...complete(rows.slice(i, i + 500)));
 	return out;
@@ -292,17 +302,4 @@ export function filterOptions() {
 			.orderBy(asc(areas.name))
 			.all()
 	};
-}
-
-/** The page-completion lookups (sites, areas, speeds) and their ids, for the benchmark's bare-SQL comparison. */
-export const completionSql = () =>
-	[siteLookup(), areaLookup(), speedLookup()].map((q) => q.toSQL().sql);
-export { completionIds };
-
-/** The two statements the board runs (rows, counts), for the benchmark's bare-SQL comparison. */
-export function sqlOf(q: BoardQuery, scope: string[] | 'all', now = Date.now()) {
-	return [
-		rowsStatement(q, scope, asValue, now).toSQL(),
-		countsStatement(q, scope, asValue, now).toSQL()
-	];
 }

@@ -16,6 +16,7 @@ import {
 	primaryKey
 } from 'drizzle-orm/sqlite-core';
 
+import { sql } from 'drizzle-orm';
 import { ROLES } from '../../roles.ts';
 export { ROLES, type Role } from '../../roles.ts';
 
@@ -361,6 +362,8 @@ export const assetStatus = sqliteTable(
 		machineKind: text('machine_kind').notNull().default('other'),
 		tag: text('tag').notNull().default(''),
 		name: text('name').notNull().default(''),
+		/** the site's name, so that "by site" reads an index instead of sorting every asset */
+		siteName: text('site_name').notNull().default(''),
 		/** checked_at + the site's recheck interval: stale once now passes it */
 		staleAfter: integer('stale_after'),
 		/** change number (sync_state) of the last write, so a pull sends a tablet the new latest check */
@@ -372,6 +375,27 @@ export const assetStatus = sqliteTable(
 		index('status_site_worst_idx').on(t.siteId, t.verdictRank, t.worstMarginOverRangePct),
 		index('status_verdict_idx').on(t.verdict, t.staleAfter),
 		index('status_tag_idx').on(t.tag),
-		index('status_version_idx').on(t.version)
+		index('status_version_idx').on(t.version),
+		// counts by kind, by site and within one verdict, read from an index each (at 100,000
+		// assets: 1.5 ms instead of 88 ms for one kind); and every board order but name and
+		// follow-ups as an index, alone and within a verdict tab, so that the first page is read
+		// in order instead of sorting every asset (SQLite reads "asc nulls last" from a plain index)
+		index('status_kind_verdict_idx').on(t.machineKind, t.verdict, t.staleAfter),
+		index('status_site_verdict_idx').on(t.siteId, t.verdict, t.staleAfter),
+		index('status_verdict_board_idx').on(
+			t.verdict,
+			sql`${t.verdictRank} desc`,
+			t.worstMarginOverRangePct,
+			t.tag
+		),
+		index('status_verdict_tag_idx').on(t.verdict, t.tag),
+		index('status_site_name_idx').on(t.siteName, t.tag),
+		index('status_verdict_site_name_idx').on(t.verdict, t.siteName, t.tag),
+		index('status_over_range_idx').on(t.worstMarginOverRangePct, t.tag),
+		index('status_verdict_over_range_idx').on(t.verdict, t.worstMarginOverRangePct, t.tag),
+		index('status_at_speed_idx').on(t.worstMarginAtSpeedPct, t.tag),
+		index('status_verdict_at_speed_idx').on(t.verdict, t.worstMarginAtSpeedPct, t.tag),
+		index('status_checked_tag_idx').on(t.checkedAt, t.tag),
+		index('status_verdict_checked_idx').on(t.verdict, t.checkedAt, t.tag)
 	]
 );

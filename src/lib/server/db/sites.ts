@@ -96,6 +96,11 @@ export function updateSite(
 			})
 			.where(eq(sites.id, id))
 			.run();
+		if (before.name !== form.name)
+			tx.update(assetStatus)
+				.set({ siteName: form.name, updatedAt: now })
+				.where(eq(assetStatus.siteId, id))
+				.run();
 		let restaled = 0;
 		if (before.recheckDays !== form.recheckDays) {
 			restaled = tx

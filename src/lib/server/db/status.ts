@@ -34,6 +34,7 @@ function write(tx: Tx, assetId: string, row: StatusRow, now: number): void {
 			machineKind: assets.machineKind,
 			tag: assets.tag,
 			name: assets.name,
+			siteName: sites.name,
 			recheckDays: sites.recheckDays
 		})
 		.from(assets)
@@ -47,6 +48,7 @@ function write(tx: Tx, assetId: string, row: StatusRow, now: number): void {
 		machineKind: asset.machineKind,
 		tag: asset.tag,
 		name: asset.name,
+		siteName: asset.siteName,
 		staleAfter: row.checkedAt === null ? null : row.checkedAt + asset.recheckDays * 86_400_000,
 		assetId,
 		latestCheckId: row.latestCheckId,
