@@ -3,7 +3,7 @@ import nodemailer from 'nodemailer';
 import { freshDatabase } from '../test-db.ts';
 import { db } from '../db/index.ts';
 import { mail } from '../db/schema.ts';
-import { send, startCatcher, stopCatcher } from './index.ts';
+import { readMessage, send, startCatcher, stopCatcher } from './index.ts';
 
 const PORT = 2727; // vite.config.ts sets SMTP_PORT for the unit tests
 
@@ -63,5 +63,26 @@ describe('local mail catcher', () => {
 				.all()
 				.filter((m) => m.subject === 'Looks official')
 		).toEqual([]);
+	});
+
+	it('reads subject and text in every encoding a mail program may use', async () => {
+		// messages written by nodemailer's own composer (an independent writer), in each transfer
+		// encoding; the first version decoded quoted-printable only and showed base64 as it came
+		const composer = nodemailer.createTransport({ streamTransport: true, buffer: true });
+		for (const textEncoding of ['quoted-printable', 'base64'] as const) {
+			const info = await composer.sendMail({
+				from: 'detune@example.com',
+				to: 'tech@example.com',
+				subject: 'Pumpe Ω läuft — Проверка',
+				text: 'Retest at 1 180 rpm: 24.6 Hz ± 2 %.\nZeile zwei: Größe, Ж.',
+				html: '<p>Retest</p>',
+				textEncoding
+			});
+			const read = await readMessage(info.message as Buffer);
+			expect(read.subject, textEncoding).toBe('Pumpe Ω läuft — Проверка');
+			expect(read.text, textEncoding).toBe(
+				'Retest at 1 180 rpm: 24.6 Hz ± 2 %.\nZeile zwei: Größe, Ж.'
+			);
+		}
 	});
 });

@@ -6,6 +6,7 @@
  */
 import nodemailer, { type Transporter } from 'nodemailer';
 import { SMTPServer } from 'smtp-server';
+import { simpleParser } from 'mailparser';
 import { eq } from 'drizzle-orm';
 import { db } from '../db/index.ts';
 import { mail } from '../db/schema.ts';
@@ -103,42 +104,19 @@ export async function send(m: Outgoing): Promise<'sent' | 'duplicate' | 'failed'
 	}
 }
 
-/** Decodes quoted-printable text (RFC 2045 §6.7), as nodemailer writes non-ASCII bodies. */
-export function decodeQuotedPrintable(s: string): string {
-	const bytes: number[] = [];
-	const soft = s.replace(/=\r?\n/g, '');
-	for (let i = 0; i < soft.length; i++) {
-		if (soft[i] === '=' && /^[0-9A-F]{2}$/i.test(soft.slice(i + 1, i + 3))) {
-			bytes.push(parseInt(soft.slice(i + 1, i + 3), 16));
-			i += 2;
-		} else bytes.push(...new TextEncoder().encode(soft[i]));
-	}
-	return new TextDecoder().decode(new Uint8Array(bytes));
-}
-
-/** The subject and the text/plain part of a raw message (enough for the mailbox page). */
-export function readMessage(raw: string): { subject: string; text: string } {
-	const [head] = raw.split(/\r?\n\r?\n/, 1);
-	const subject =
-		/^Subject: (.*(?:\r?\n[ \t].*)*)/im.exec(head)?.[1]?.replace(/\r?\n[ \t]/g, ' ') ?? '';
-	const parts = raw.split(/\r?\n--[^\r\n]+\r?\n/);
-	const plain = parts.find((p) => /^Content-Type: text\/plain/im.test(p)) ?? raw;
-	const [partHead, ...rest] = plain.split(/\r?\n\r?\n/);
-	let body = rest.join('\n\n').replace(/\r?\n--[^\r\n]+--\s*$/, '');
-	if (/Content-Transfer-Encoding: quoted-printable/i.test(partHead))
-		body = decodeQuotedPrintable(body);
-	return { subject: decodeWords(subject), text: body.trim() };
-}
-
-function decodeWords(s: string): string {
-	// whitespace between two encoded words is folding, not text (RFC 2047 §6.2)
-	return s
-		.replace(/\?=\s+=\?/g, '?==?')
-		.replace(/=\?utf-8\?([QB])\?([^?]*)\?=/gi, (_m, enc: string, data: string) =>
-			enc.toUpperCase() === 'B'
-				? new TextDecoder().decode(Uint8Array.from(atob(data), (c) => c.charCodeAt(0)))
-				: decodeQuotedPrintable(data.replace(/_/g, ' '))
-		);
+/**
+ * The subject and the plain text of a raw message, for the mailbox page: mailparser decodes the
+ * MIME structure, transfer encodings (quoted-printable, base64) and encoded-word headers.
+ */
+export async function readMessage(
+	raw: Buffer | string
+): Promise<{ subject: string; text: string }> {
+	const m = await simpleParser(raw, {
+		skipHtmlToText: false,
+		skipImageLinks: true,
+		skipTextLinks: true
+	});
+	return { subject: m.subject ?? '', text: (m.text ?? '').trim() };
 }
 
 let catcher: SMTPServer | null = null;
@@ -174,9 +152,13 @@ export function startCatcher(): Promise<void> {
 		onData(stream, session, callback) {
 			const chunks: Buffer[] = [];
 			stream.on('data', (c: Buffer) => chunks.push(c));
-			stream.on('end', () => {
-				const raw = Buffer.concat(chunks).toString('utf8');
-				const { subject, text } = readMessage(raw);
+			stream.on('end', async () => {
+				const bytes = Buffer.concat(chunks);
+				const raw = bytes.toString('utf8');
+				const { subject, text } = await readMessage(bytes).catch((e: Error) => ({
+					subject: '',
+					text: `(the message could not be read: ${e.message})`
+				}));
 				const to = session.envelope.rcptTo.map((r) => r.address).join(', ');
 				db.insert(mail)
 					.values({
