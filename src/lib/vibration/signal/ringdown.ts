@@ -1,22 +1,30 @@
 /**
  * Bump-test (ring-down) analysis of a response-only recording: the modes it holds, each with its
- * frequency and its damping estimated two ways.
+ * natural frequency and its damping estimated two ways, on a machine that may be running.
  *
  * Method (../shared/domain.md §6.1; Trethewey & Cafeo 1992; Ewins, Modal Testing §4):
- * 1. remove mean and linear trend; find the hit; flag clipping and a second hit;
- * 2. optionally apply an exponential window e^(−t/τ_w) (its added damping Δζ = 1/(ω_n·τ_w) is
- *    subtracted again);
- * 3. zero-padded FFT (fft.js); peaks ranked by prominence, frequency by Gaussian interpolation;
- * 4. damping from the half-power bandwidth ζ = (f₂ − f₁)/(2f) (F5), and from the decay of the
- *    mode's envelope: complex demodulation at the mode frequency, a triangular low-pass, and a
- *    straight-line fit to ln(envelope) (the log decrement per unit time, F4);
- * 5. quality flags: resolution too coarse for the bandwidth (fewer than 5 resolution steps across
- *    it), record shorter than six time constants, clipping, double hit, the two estimates
- *    disagreeing. A peak whose envelope does not decay is a steady tone (line frequency, a running
- *    machine nearby), reported apart, not as a mode.
+ * 1. remove mean and linear trend; flag clipping;
+ * 2. steady tones (running speed, its orders, line frequency): a peak present with the same level
+ *    in every eighth of the record is a tone. Its frequency is refined on the whole record, its
+ *    amplitude and phase fitted by least squares on the parts without the hit's ring-down (before
+ *    the hit and the last quarter), and it is subtracted, so it neither hides the hit nor takes a
+ *    mode's place nor sets the peak threshold;
+ * 3. the hit: the first short window whose RMS rises 8× (18 dB) above the pre-hit level, found on
+ *    the signal without its tones; a second hit is flagged;
+ * 4. optionally an exponential window e^(−t/τ_w) from the hit (its added damping Δζ = 1/(ω_n·τ_w)
+ *    is subtracted again);
+ * 5. zero-padded FFT (fft.js); peaks above the spectrum's noise floor (5× its median) and above a
+ *    fraction of the tallest decaying peak, frequency by Gaussian interpolation;
+ * 6. per mode, complex demodulation at the peak: the envelope's log-linear slope gives σ = ζω_n
+ *    (F4) and the phase slope the damped frequency f_d; then f_n = √(f_d² + (σ/2π)²). Half-power
+ *    damping ζ = (f₂ − f₁)/(2f) (F5) only where that approximation holds (ζ ≤ 0.1);
+ * 7. one amplitude for ranking: the peak's DFT magnitude undone for the mode's decay over the
+ *    analysed record, so it does not depend on how long the record runs;
+ * 8. quality flags beside each estimate (resolution, short record, clipping, double hit, poor fit,
+ *    damping disagreement, a close neighbour, a tone nearby, heavy damping).
  */
 import { finite, integerAtLeast, positive, VibrationInputError } from '../errors.ts';
-import { bucketMax, magnitude, nextPow2, realFft } from './spectrum.ts';
+import { analyticBand, bucketMax, magnitude, nextPow2, realFft } from './spectrum.ts';
 import { findPeaks, halfPowerBins, interpolatePeak } from './peaks.ts';
 
 export type ModeFlag =
@@ -25,7 +33,11 @@ export type ModeFlag =
 	| 'clipping'
 	| 'double-hit'
 	| 'damping-disagreement'
-	| 'poor-envelope-fit';
+	| 'poor-envelope-fit'
+	| 'close-mode'
+	| 'tone-nearby'
+	| 'heavy-damping'
+	| 'half-power-invalid';
 
 export const FLAG_TEXT: Record<ModeFlag, string> = {
 	'coarse-resolution': 'frequency resolution too coarse for this bandwidth: record longer',
@@ -33,8 +45,18 @@ export const FLAG_TEXT: Record<ModeFlag, string> = {
 	clipping: 'the signal is clipped: reduce the sensor range or hit softer',
 	'double-hit': 'a second hit follows the first: repeat the hit',
 	'damping-disagreement': 'half-power and decay estimates of damping disagree',
-	'poor-envelope-fit': 'the decay of this mode is not a clean exponential'
+	'poor-envelope-fit': 'the decay of this mode is not a clean exponential',
+	'close-mode':
+		'another mode lies within a few resolution steps: the two beat, so damping and amplitude are uncertain',
+	'tone-nearby':
+		'a steady tone of the running machine lies close by: check it on a stopped machine',
+	'heavy-damping': 'heavily damped (ζ > 0.1): the peak is broad and its frequency less sharp',
+	'half-power-invalid':
+		'half-power damping is not valid above ζ ≈ 0.1: the decay estimate is reported'
 };
+
+/** How a mode's frequency was found. */
+export type FrequencySource = 'decay-fit' | 'spectral-peak';
 
 export interface RingdownOptions {
 	/**
@@ -45,8 +67,10 @@ export interface RingdownOptions {
 	zeroPad?: number;
 	/** most modes reported (default 6) */
 	maxModes?: number;
-	/** smallest prominence kept, as a fraction of the tallest peak (default 0.02) */
+	/** smallest prominence kept, as a fraction of the tallest decaying peak (default 0.02) */
 	minProminence?: number;
+	/** peaks must also stand this many times above the spectrum's median (noise floor; default 5) */
+	noiseFactor?: number;
 	minFrequencyHz?: number;
 	maxFrequencyHz?: number;
 	/** exponential window time constant τ_w, s (none by default) */
@@ -57,11 +81,15 @@ export interface RingdownOptions {
 }
 
 export interface RingdownMode {
+	/** the natural frequency f_n, Hz (from the decay fit; else the spectral peak, see frequencySource) */
 	frequencyHz: number;
+	/** the damped frequency f_d = f_n √(1 − ζ²) the record rings at, Hz */
+	dampedFrequencyHz: number;
+	frequencySource: FrequencySource;
 	/** the reported damping ratio: the envelope estimate when its fit is clean, else half-power */
 	dampingRatio: number | null;
 	qFactor: number | null;
-	/** initial amplitude of the mode, in the recording's unit (from the envelope; else the spectrum) */
+	/** initial amplitude of the mode in the recording's unit: the spectral peak undone for the decay */
 	amplitude: number;
 	halfPowerDamping: number | null;
 	decayDamping: number | null;
@@ -73,8 +101,10 @@ export interface RingdownMode {
 
 export interface RingdownResult {
 	modes: RingdownMode[];
-	/** peaks that did not decay: steady tones, not modes */
+	/** steady tones (running speed, orders, line), found and subtracted before the modes */
 	tones: { frequencyHz: number; amplitude: number }[];
+	/** RMS of the record before the hit, tones removed, in the recording's unit */
+	preHitRms: number;
 	sampleRateHz: number;
 	samples: number;
 	durationS: number;
@@ -88,7 +118,9 @@ export interface RingdownResult {
 	waveform: { timeS: number[]; value: number[]; envelope: number[] };
 }
 
-const DEFAULTS = { maxModes: 6, minProminence: 0.02, disagreement: 0.3 };
+const DEFAULTS = { maxModes: 6, minProminence: 0.02, noiseFactor: 5, disagreement: 0.3 };
+/** the half-power approximation ζ ≈ Δf/2f is used up to this damping ratio (common practice) */
+const HALF_POWER_LIMIT = 0.1;
 const PAD_UP_TO = 65_536;
 
 /** Removes mean and linear trend (least squares), in place on a copy. */
@@ -173,7 +205,7 @@ function demodulatedEnvelope(
 	fs: number,
 	f: number,
 	L: number
-): { env: Float64Array; step: number } {
+): { env: Float64Array; re: Float64Array; im: Float64Array; step: number } {
 	const n = x.length;
 	const D = Math.max(1, Math.floor(L / 8));
 	const m = Math.floor(n / D);
@@ -206,7 +238,7 @@ function demodulatedEnvelope(
 	const bb = movingAverage(movingAverage(im, Lb), Lb);
 	const env = new Float64Array(m);
 	for (let i = 0; i < m; i++) env[i] = 2 * Math.sqrt(a[i] * a[i] + bb[i] * bb[i]);
-	return { env, step: D };
+	return { env, re: a, im: bb, step: D };
 }
 
 function movingAverage(x: Float64Array, L: number): Float64Array {
@@ -276,6 +308,557 @@ function validateSamples(samples: ArrayLike<number>): void {
 	}
 }
 
+/** Slope of the unwrapped phase of (re, im)[from … to) against time, rad/s (null when too short). */
+function phaseSlope(
+	re: Float64Array,
+	im: Float64Array,
+	fs: number,
+	from: number,
+	to: number,
+	step: number
+): number | null {
+	if (to - from < 8) return null;
+	let prev = Math.atan2(im[from], re[from]);
+	let unwrapped = prev;
+	let n = 0;
+	let st = 0;
+	let sy = 0;
+	let stt = 0;
+	let sty = 0;
+	for (let i = from; i < to; i++) {
+		const ph = Math.atan2(im[i], re[i]);
+		let d = ph - prev;
+		if (d > Math.PI) d -= 2 * Math.PI;
+		else if (d < -Math.PI) d += 2 * Math.PI;
+		unwrapped += d;
+		prev = ph;
+		const t = (i * step + step / 2) / fs;
+		n++;
+		st += t;
+		sy += unwrapped;
+		stt += t * t;
+		sty += t * unwrapped;
+	}
+	const vt = stt - (st * st) / n;
+	return vt > 0 ? (sty - (st * sy) / n) / vt : null;
+}
+
+/**
+ * The median of xs[from … to), as a noise floor: from at most 4,096 evenly spaced values (a
+ * spectrum's median needs no more, and sorting 32,768 bins per record cost more than its FFT).
+ */
+function medianLevel(xs: Float64Array, from: number, to: number): number {
+	const count = Math.max(0, to - from);
+	if (count === 0) return 0;
+	const take = Math.min(count, 4096);
+	const pick = new Float64Array(take);
+	for (let i = 0; i < take; i++) pick[i] = xs[from + Math.floor((i * count) / take)];
+	pick.sort();
+	return pick[take >> 1];
+}
+
+/** Magnitude spectrum of x[from … from+len) under a Hann window, scaled to sine amplitude. */
+function hannSpectrum(
+	x: Float64Array,
+	from: number,
+	hann: Float64Array,
+	nfft: number
+): Float64Array {
+	const len = hann.length;
+	const seg = new Float64Array(len);
+	let wsum = 0;
+	for (let i = 0; i < len; i++) {
+		seg[i] = x[from + i] * hann[i];
+		wsum += hann[i];
+	}
+	const mag = magnitude(realFft(seg, nfft));
+	for (let k = 0; k < mag.length; k++) mag[k] *= 2 / wsum;
+	return mag;
+}
+
+/** |Σ x e^(−iωt)| over x under a Hann window: the projection a tone's frequency maximises. */
+function projection(x: Float64Array, fs: number, f: number): number {
+	const n = x.length;
+	const w = (2 * Math.PI * f) / fs;
+	const cw = Math.cos(w);
+	const sw = Math.sin(w);
+	let c = 1;
+	let s = 0;
+	let re = 0;
+	let im = 0;
+	for (let i = 0; i < n; i++) {
+		const h = 0.5 - 0.5 * Math.cos((2 * Math.PI * i) / (n - 1));
+		re += h * x[i] * c;
+		im -= h * x[i] * s;
+		const c2 = c * cw - s * sw;
+		s = s * cw + c * sw;
+		c = c2;
+		if ((i & 1023) === 1023) {
+			const r = Math.hypot(c, s);
+			c /= r;
+			s /= r;
+		}
+	}
+	return Math.hypot(re, im);
+}
+
+/** Solves the small symmetric system A·p = y in place (Gaussian elimination, partial pivoting). */
+function solveSmall(A: number[][], y: number[]): number[] | null {
+	const m = y.length;
+	for (let c = 0; c < m; c++) {
+		let piv = c;
+		for (let r = c + 1; r < m; r++) if (Math.abs(A[r][c]) > Math.abs(A[piv][c])) piv = r;
+		if (Math.abs(A[piv][c]) < 1e-300) return null;
+		[A[c], A[piv]] = [A[piv], A[c]];
+		[y[c], y[piv]] = [y[piv], y[c]];
+		for (let r = c + 1; r < m; r++) {
+			const k = A[r][c] / A[c][c];
+			for (let j = c; j < m; j++) A[r][j] -= k * A[c][j];
+			y[r] -= k * y[c];
+		}
+	}
+	const p = new Array<number>(m).fill(0);
+	for (let r = m - 1; r >= 0; r--) {
+		let v = y[r];
+		for (let j = r + 1; j < m; j++) v -= A[r][j] * p[j];
+		p[r] = v / A[r][r];
+	}
+	return p;
+}
+
+/**
+ * Least-squares a·cos(ωi) + b·sin(ωi) + c + d·i over the samples where `use(i)` holds: the line
+ * takes up what the whole-record detrend left in the parts used (a drift the fit must not bend
+ * the tone's phase to follow). Returns the sinusoid's a and b.
+ */
+function fitSinusoid(
+	x: Float64Array,
+	fs: number,
+	f: number,
+	use: (i: number) => boolean
+): { a: number; b: number; explained: number } {
+	const w = (2 * Math.PI * f) / fs;
+	const A = [0, 1, 2, 3].map(() => [0, 0, 0, 0]);
+	const y = [0, 0, 0, 0];
+	const n = x.length;
+	for (let i = 0; i < n; i++) {
+		if (!use(i)) continue;
+		const u = [Math.cos(w * i), Math.sin(w * i), 1, i / n];
+		for (let r = 0; r < 4; r++) {
+			y[r] += x[i] * u[r];
+			for (let c = r; c < 4; c++) A[r][c] += u[r] * u[c];
+		}
+	}
+	for (let r = 0; r < 4; r++) for (let c = 0; c < r; c++) A[r][c] = A[c][r];
+	const rhs = [...y];
+	const p = solveSmall(A, y);
+	// the sum of squares the fit explains, pᵀy: what a frequency search must maximise
+	return p
+		? { a: p[0], b: p[1], explained: p.reduce((s, v, r) => s + v * rhs[r], 0) }
+		: { a: 0, b: 0, explained: 0 };
+}
+
+interface Tone {
+	frequencyHz: number;
+	amplitude: number;
+}
+
+const TONE_SEGMENTS = 8;
+
+/**
+ * Steady tones: peaks that stand at the same level in each eighth of the record (a mode rings
+ * down, and is absent before the hit). Frequencies are refined on the whole record by the
+ * projection's maximum (golden-section search over one segment bin).
+ */
+export function findTones(x: Float64Array, fs: number, fMax: number): number[] {
+	const len = Math.floor(x.length / TONE_SEGMENTS);
+	if (len < 256) return [];
+	const T = x.length / fs;
+	// no zero padding: a tone's line spans a Hann main lobe, and the ±1 bin below catches it
+	const nfft = nextPow2(len);
+	const hann = new Float64Array(len);
+	for (let i = 0; i < len; i++) hann[i] = 0.5 - 0.5 * Math.cos((2 * Math.PI * i) / (len - 1));
+	const spectra = Array.from({ length: TONE_SEGMENTS }, (_, s) =>
+		hannSpectrum(x, s * len, hann, nfft)
+	);
+	// the segments the hit rings in (RMS well above the median segment's) leak its modes into
+	// every bin nearby: the steadiness test leaves them out
+	const segRms = Array.from({ length: TONE_SEGMENTS }, (_, s) => {
+		let e = 0;
+		for (let i = s * len; i < (s + 1) * len; i++) e += x[i] * x[i];
+		return Math.sqrt(e / len);
+	});
+	const medianRms = [...segRms].sort((a, b) => a - b)[TONE_SEGMENTS / 2];
+	const hitSegments = new Set(
+		segRms.flatMap((r, i) => (r > 1.3 * medianRms ? [i] : [])).slice(0, TONE_SEGMENTS - 4)
+	);
+	const bins = spectra[0].length;
+	const kMax = Math.min(bins - 2, Math.floor((fMax / fs) * nfft));
+	// the lowest level across the segments, per bin (±1 bin: a tone's line may sit between bins)
+	const low = new Float64Array(bins);
+	for (let k = 1; k < bins - 1; k++) {
+		let m = Infinity;
+		for (const sp of spectra) m = Math.min(m, Math.max(sp[k - 1], sp[k], sp[k + 1]));
+		low[k] = m;
+	}
+	const floor = medianLevel(low, 4, kMax);
+	const df = fs / nfft;
+	const tones: number[] = [];
+	for (const p of findPeaks(low, 4, kMax, 8 * floor, 2)) {
+		// steady: the highest segment no more than 1.5× the lowest, and no trend over the record
+		const levels = spectra
+			.filter((_, i) => !hitSegments.has(i))
+			.map((sp) => Math.max(sp[p.bin - 1], sp[p.bin], sp[p.bin + 1]));
+		const hi = Math.max(...levels);
+		const lo = Math.min(...levels);
+		const mid = Math.floor(levels.length / 2);
+		const firstHalf = levels.slice(0, mid).reduce((a, b) => a + b, 0) / mid;
+		const lastHalf = levels.slice(mid).reduce((a, b) => a + b, 0) / (levels.length - mid);
+		if (lo <= 0 || hi / lo > 1.5 || Math.abs(Math.log(firstHalf / lastHalf)) > 0.2) continue;
+		// the projection has side lobes every 1/T: a grid at a quarter of that over ±2 segment
+		// bins finds the main lobe, golden section then its top
+		const step = 1 / (4 * T);
+		let best = (p.bin - 2) * df;
+		let bestP = -1;
+		for (let f = Math.max(step, (p.bin - 2) * df); f <= (p.bin + 2) * df; f += step) {
+			const pr = projection(x, fs, f);
+			if (pr > bestP) [best, bestP] = [f, pr];
+		}
+		const f = goldenMax((f) => projection(x, fs, f), best - step, best + step, 1e-6 * step);
+		tones.push(f);
+	}
+	return tones;
+}
+
+/** Golden-section search for the maximum of `g` on [a, b]. */
+function goldenMax(g: (f: number) => number, a: number, b: number, tol: number): number {
+	const r = (Math.sqrt(5) - 1) / 2;
+	let c = b - r * (b - a);
+	let d = a + r * (b - a);
+	let gc = g(c);
+	let gd = g(d);
+	for (let i = 0; i < 40 && b - a > tol; i++) {
+		if (gc > gd) {
+			b = d;
+			d = c;
+			gd = gc;
+			c = b - r * (b - a);
+			gc = g(c);
+		} else {
+			a = c;
+			c = d;
+			gc = gd;
+			d = a + r * (b - a);
+			gd = g(d);
+		}
+	}
+	return (a + b) / 2;
+}
+
+/**
+ * x less the tones, fitted together by least squares on the samples `use` selects (backfitting:
+ * each tone in turn against the record less the others, three rounds, which converges to the
+ * joint fit, so neighbouring tones do not bias each other). With `refine`, each tone's frequency
+ * is searched within ±`refine` Hz for the best fit: the part before the hit and the end of the
+ * record are far apart, so the fit is sharp in frequency.
+ */
+function withoutTones(
+	x: Float64Array,
+	fs: number,
+	frequencies: number[],
+	use: (i: number) => boolean,
+	refine = 0
+): { rest: Float64Array; tones: Tone[] } {
+	const rest = Float64Array.from(x);
+	const fit = frequencies.map((f) => ({ f, a: 0, b: 0 }));
+	const add = (t: { f: number; a: number; b: number }, sign: number) => {
+		const w = (2 * Math.PI * t.f) / fs;
+		for (let i = 0; i < rest.length; i++)
+			rest[i] += sign * (t.a * Math.cos(w * i) + t.b * Math.sin(w * i));
+	};
+	for (let round = 0; round < (fit.length > 1 ? 3 : 1); round++)
+		for (const t of fit) {
+			add(t, +1); // the record less the other tones
+			if (refine > 0) {
+				const span = round === 0 ? refine : refine / 4;
+				t.f = goldenMax(
+					(f) => fitSinusoid(rest, fs, f, use).explained,
+					t.f - span,
+					t.f + span,
+					1e-7 * t.f
+				);
+			}
+			const { a, b } = fitSinusoid(rest, fs, t.f, use);
+			Object.assign(t, { a, b });
+			add(t, -1);
+		}
+	return { rest, tones: fit.map((t) => ({ frequencyHz: t.f, amplitude: Math.hypot(t.a, t.b) })) };
+}
+
+/**
+ * The hit: the first window of ~1 ms whose RMS exceeds 8× (18 dB) the pre-hit level (the median
+ * window before the loudest one), and at least a twentieth of the loudest; then the first sample
+ * in the window before it or in it that stands 5× above the pre-hit RMS. A record that starts with
+ * the hit has no quiet part before its loudest window: there the hit is the first sample above a
+ * tenth of the largest (tones are already out, so a running machine cannot put it at sample 0).
+ */
+function findHit(x: Float64Array, fs: number): { hit: number; preRms: number } {
+	const w = Math.max(8, Math.round(0.001 * fs));
+	const e = rmsEnvelope(x, w);
+	let loudest = 0;
+	let at = 0;
+	for (let k = 0; k < e.length; k++) if (e[k] > loudest) [loudest, at] = [e[k], k];
+	const before = e.slice(0, at).sort();
+	const pre = before[Math.floor(before.length / 2)] ?? Infinity;
+	if (before.length < 4 || pre > loudest / 8) {
+		let max = 0;
+		for (let i = 0; i < x.length; i++) max = Math.max(max, Math.abs(x[i]));
+		let hit = 0;
+		while (hit < x.length - 1 && Math.abs(x[hit]) < 0.1 * max) hit++;
+		return { hit, preRms: before.length ? before[0] : 0 };
+	}
+	const threshold = Math.max(8 * pre, loudest / 20);
+	let k = 0;
+	while (k < at && e[k] <= threshold) k++;
+	const from = Math.max(0, (k - 1) * w);
+	let peak = 0;
+	for (let i = from; i < Math.min(x.length, (k + 1) * w); i++)
+		peak = Math.max(peak, Math.abs(x[i]));
+	const level = Math.min(peak, Math.max(5 * Math.SQRT2 * pre, 0.1 * peak));
+	let hit = from;
+	while (hit < x.length - 1 && Math.abs(x[hit]) < level) hit++;
+	return { hit, preRms: pre };
+}
+
+interface Segment {
+	x: Float64Array;
+	windowed: Float64Array;
+	mag: Float64Array;
+	fs: number;
+	df: number;
+	n: number;
+	T: number;
+	resolution: number;
+	tauW: number | null;
+}
+
+/**
+ * A heavily damped mode is gone in a few periods, too soon for an envelope. Its band (the peak ±
+ * three half-power widths), back in the time domain, is fitted by the two-term linear prediction
+ * x[i] = c₁x[i−1] + c₂x[i−2] that a damped sinusoid obeys exactly (Prony's method for one mode):
+ * r = √(−c₂) = e^(−σ/fs), cos θ = c₁/(2r), θ = ω_d/fs. Fitted from the band's largest value down
+ * to a hundredth of it. `quality` is the share of the band's energy the prediction explains.
+ */
+function pronyOneMode(x: Float64Array, fs: number, f: number, hpHz: [number, number]) {
+	// the record itself first, when this mode is all it holds; else the mode's band
+	const whole = prony(x, fs, f);
+	if (whole && whole.quality >= 0.99 && Math.abs(whole.fd - f) < hpHz[1] - hpHz[0]) return whole;
+	const n = x.length;
+	const nfft = 2 * nextPow2(n);
+	const df = fs / nfft;
+	const half = Math.min(3 * (hpHz[1] - hpHz[0]), 0.9 * f);
+	const { re } = analyticBand(
+		realFft(x, nfft),
+		Math.floor((f - half) / df),
+		Math.ceil((f + half) / df),
+		n
+	);
+	return prony(re, fs, f);
+}
+
+function prony(re: Float64Array, fs: number, f: number) {
+	const n = re.length;
+	let peak = 0;
+	let at = 0;
+	for (let i = 0; i < n; i++) if (Math.abs(re[i]) > peak) [peak, at] = [Math.abs(re[i]), i];
+	let to = at;
+	let quiet = 0;
+	// the end: a full period below a hundredth of the peak
+	const period = Math.max(2, Math.round(fs / f));
+	while (to < n && quiet < period) {
+		quiet = Math.abs(re[to]) < 0.01 * peak ? quiet + 1 : 0;
+		to++;
+	}
+	let a11 = 0;
+	let a12 = 0;
+	let a22 = 0;
+	let b1 = 0;
+	let b2 = 0;
+	let e = 0;
+	for (let i = Math.max(2, at); i < to; i++) {
+		a11 += re[i - 1] * re[i - 1];
+		a12 += re[i - 1] * re[i - 2];
+		a22 += re[i - 2] * re[i - 2];
+		b1 += re[i] * re[i - 1];
+		b2 += re[i] * re[i - 2];
+		e += re[i] * re[i];
+	}
+	const det = a11 * a22 - a12 * a12;
+	if (to - at < 8 || det <= 0 || e <= 0) return null;
+	const c1 = (b1 * a22 - b2 * a12) / det;
+	const c2 = (b2 * a11 - b1 * a12) / det;
+	if (c2 >= 0) return null;
+	const r = Math.sqrt(-c2);
+	const cos = c1 / (2 * r);
+	if (r >= 1 || Math.abs(cos) >= 1) return null;
+	const sigma = -Math.log(r) * fs;
+	const fd = (Math.acos(cos) * fs) / (2 * Math.PI);
+	const quality = (c1 * b1 + c2 * b2) / e;
+	return { sigma, fd, quality };
+}
+
+/** Characterises one spectral peak: a mode (with its flags), or null when it does not ring down. */
+function characterise(
+	seg: Segment,
+	p: { bin: number; prominence: number },
+	neighbours: number[],
+	tones: Tone[],
+	tallest: number,
+	recordFlags: ModeFlag[],
+	disagreement: number
+): RingdownMode | 'steady' | 'residue' {
+	const { x, mag, fs, df, n, T, resolution, tauW } = seg;
+	const ip = interpolatePeak(mag, p.bin);
+	const fPeak = ip.bin * df;
+	const hp = halfPowerBins(mag, p.bin, ip.height);
+	const hpHz: [number, number] | null = hp ? [hp[0] * df, hp[1] * df] : null;
+	const windowDampingAt = (f: number) => (tauW === null ? 0 : 1 / (2 * Math.PI * f * tauW));
+	const hpRaw = hpHz
+		? Math.max(0, (hpHz[1] - hpHz[0]) / (2 * fPeak) - windowDampingAt(fPeak))
+		: null;
+	// envelope and phase by demodulation, rejecting the nearest neighbour and the 2f image
+	const nearest = neighbours.length
+		? Math.min(...neighbours.map((f) => Math.abs(f - fPeak)))
+		: Infinity;
+	// the low-pass must also follow the decay: a heavily damped mode is gone in a few periods
+	const sigmaHp = hpHz ? Math.PI * (hpHz[1] - hpHz[0]) : 0;
+	const L = Math.min(
+		Math.floor(n / 8),
+		sigmaHp > 0 ? Math.max(8, Math.ceil(fs / (2 * sigmaHp))) : Infinity,
+		Math.max(8, Math.ceil((2 * fs) / Math.min(nearest, fPeak)))
+	);
+	// only until the mode has rung down: ten time constants by the half-power estimate
+	const span = hpHz
+		? Math.min(n, Math.ceil((fs * 10) / (Math.PI * (hpHz[1] - hpHz[0]))) + 8 * L)
+		: n;
+	const { env, re, im, step } = demodulatedEnvelope(
+		span < n ? x.subarray(0, span) : x,
+		fs,
+		fPeak,
+		L
+	);
+	const m = env.length;
+	const edge = Math.ceil((2 * L) / step);
+	const from = Math.min(m - 1, edge);
+	let to = m - edge;
+	let envPeak = 0;
+	for (let i = from; i < to; i++) envPeak = Math.max(envPeak, env[i]);
+	let floor = Infinity;
+	for (let i = Math.max(from, to - Math.floor(m / 10)); i < to; i++)
+		floor = Math.min(floor, env[i]);
+	if (floor < 0.1 * envPeak) {
+		let i = from;
+		while (i < to && env[i] > Math.max(3 * floor, 0.01 * envPeak)) i++;
+		to = i;
+	}
+	const fit = to - from > 8 ? logLinearFit(env, fs, from, to, step) : null;
+	const prony =
+		hpRaw !== null && hpRaw > 0.05 && (fit === null || fit.r2 < 0.95)
+			? pronyOneMode(x, fs, fPeak, hpHz as [number, number])
+			: null;
+	const useProny = prony !== null && prony.quality >= 0.95;
+	const sigma = useProny ? prony.sigma : fit ? -fit.slope : null;
+	const cleanFit =
+		useProny || (fit !== null && fit.r2 >= 0.95 && fit.points >= 8 && sigma !== null && sigma > 0);
+	// a line that does not ring down (a tone the segment test could not see: a short record)
+	const steady =
+		(sigma === null || sigma * T < 0.2) && (hpHz === null || hpHz[1] - hpHz[0] < 3 * resolution);
+	if (steady) return 'steady';
+	// what is left of a subtracted tone (its speed wanders a little): poorly fitted, at the tone,
+	// and a small fraction of it
+	const residue = tones.some(
+		(t) =>
+			Math.abs(t.frequencyHz - fPeak) < 4 * resolution && (2 * ip.height) / n < 0.05 * t.amplitude
+	);
+	if (residue && !cleanFit) return 'residue';
+	// demodulated at the peak, the phase turns at f_d − f_peak
+	const slope = cleanFit && !useProny ? phaseSlope(re, im, fs, from, to, step) : null;
+	const fd = useProny ? prony.fd : slope !== null ? fPeak + slope / (2 * Math.PI) : fPeak;
+	const decayDamping = cleanFit
+		? (sigma as number) / Math.hypot(sigma as number, 2 * Math.PI * fd)
+		: null;
+	const fn = cleanFit ? Math.hypot(fd, (sigma as number) / (2 * Math.PI)) : fPeak;
+	const halfPowerValid = hpRaw !== null && hpRaw <= HALF_POWER_LIMIT;
+	const zeta =
+		decayDamping !== null && decayDamping > 0 ? decayDamping : halfPowerValid ? hpRaw : null;
+	const flags: ModeFlag[] = [...recordFlags];
+	if (hpHz && hpHz[1] - hpHz[0] < 5 * resolution) flags.push('coarse-resolution');
+	const w = 2 * Math.PI * fn;
+	if (zeta !== null && zeta > 0 && T < 6 / (zeta * w)) flags.push('short-record');
+	if (!cleanFit) flags.push('poor-envelope-fit');
+	if (hpRaw !== null && !halfPowerValid) flags.push('half-power-invalid');
+	if (zeta !== null && zeta > HALF_POWER_LIMIT) flags.push('heavy-damping');
+	const band = hpHz ? hpHz[1] - hpHz[0] : 2 * resolution;
+	if (nearest < Math.max(4 * resolution, 3 * band)) flags.push('close-mode');
+	if (tones.some((t) => Math.abs(t.frequencyHz - fPeak) < Math.max(3 * resolution, 2 * band)))
+		flags.push('tone-nearby');
+	if (
+		halfPowerValid &&
+		decayDamping !== null &&
+		Math.abs((hpRaw as number) - decayDamping) / Math.max(hpRaw as number, decayDamping) >
+			disagreement
+	)
+		flags.push('damping-disagreement');
+	// one amplitude: B = 2|X|·(1 − e^(−σ'/fs)) / (1 − e^(−σ'T)), σ' the decay of the analysed
+	// (windowed) record; → 2|X|/n as σ' → 0
+	const sigmaW = (zeta !== null ? zeta * w : 0) + (tauW === null ? 0 : 1 / tauW);
+	const amplitude =
+		sigmaW > 0
+			? (2 * ip.height * -Math.expm1(-sigmaW / fs)) / -Math.expm1(-sigmaW * T)
+			: (2 * ip.height) / n;
+	return {
+		frequencyHz: fn,
+		dampedFrequencyHz: zeta !== null ? fn * Math.sqrt(Math.max(0, 1 - zeta * zeta)) : fd,
+		frequencySource: cleanFit ? 'decay-fit' : 'spectral-peak',
+		dampingRatio: zeta !== null && zeta > 0 ? zeta : null,
+		qFactor: zeta !== null && zeta > 0 ? 1 / (2 * zeta) : null,
+		amplitude,
+		halfPowerDamping: hpRaw,
+		decayDamping,
+		halfPowerHz: hpHz,
+		prominence: p.prominence / tallest,
+		flags
+	};
+}
+
+/** Mean and trend removed, clipping seen, tones found and subtracted, the hit located. */
+function prepare(samples: ArrayLike<number>, fs: number, fMax: number) {
+	const clipped = isClipped(samples);
+	const x0 = detrend(samples);
+	let max = 0;
+	for (let i = 0; i < x0.length; i++) max = Math.max(max, Math.abs(x0[i]));
+	if (max === 0)
+		throw new VibrationInputError(
+			'samples',
+			'a signal that is not constant (this recording is flat)',
+			'flat'
+		);
+	const toneHz = findTones(x0, fs, fMax);
+	// first pass: tones fitted on the last quarter of the record (a ring-down record lets the modes
+	// die out), to find the hit under them; second pass: fitted where the modes are absent, before
+	// the hit and in the last quarter, which pins their frequency over the whole record
+	const tail = Math.floor(0.75 * x0.length);
+	const refine = 0.5 / (x0.length / fs); // half a resolution step of the whole record
+	let { rest, tones } = withoutTones(x0, fs, toneHz, (i) => i >= tail, refine);
+	let { hit, preRms } = findHit(rest, fs);
+	if (toneHz.length) {
+		const quiet = (i: number) => i < hit - Math.round(0.002 * fs) || i >= tail;
+		({ rest, tones } = withoutTones(x0, fs, toneHz, quiet, refine));
+		({ hit, preRms } = findHit(rest, fs));
+	}
+	return { clipped, x0, rest, tones, hit, preRms };
+}
+
 /**
  * The modes of a ring-down recording, strongest first. `samples` in any unit (g, m/s², mm/s …);
  * amplitudes come back in the same unit.
@@ -290,36 +873,24 @@ export function analyzeRingdown(
 	const opt = { ...DEFAULTS, ...options };
 	const maxModes = integerAtLeast('maxModes', opt.maxModes, 1);
 	const minProm = positive('minProminence', opt.minProminence);
+	const noiseFactor = positive('noiseFactor', opt.noiseFactor);
 	const tauW =
 		opt.exponentialWindowS === null || opt.exponentialWindowS === undefined
 			? null
 			: positive('exponentialWindowS', opt.exponentialWindowS);
 	const progress = opt.onProgress ?? (() => {});
+	const fMaxAsked = Math.min(opt.maxFrequencyHz ?? Infinity, 0.45 * fs);
 
-	const clipped = isClipped(samples);
-	const x0 = detrend(samples);
-	progress(0.05);
-	// the hit: the first sample above a tenth of the largest, less a short pre-trigger
-	let max = 0;
-	for (let i = 0; i < x0.length; i++) max = Math.max(max, Math.abs(x0[i]));
-	if (max === 0)
-		throw new VibrationInputError(
-			'samples',
-			'a signal that is not constant (this recording is flat)',
-			'flat'
-		);
-	let hit = 0;
-	while (hit < x0.length && Math.abs(x0[hit]) < 0.1 * max) hit++;
+	const { clipped, x0, rest, tones, hit, preRms } = prepare(samples, fs, fMaxAsked);
+	progress(0.2);
 	const start = Math.max(0, hit - Math.round(0.002 * fs));
-	const x = x0.subarray(start);
+	const x = rest.subarray(start);
 	const n = x.length;
 	if (n < 64) throw new VibrationInputError('samples', 'at least 64 samples after the hit', n);
-	const doubleHit = hasSecondHit(x, fs);
 	const recordFlags: ModeFlag[] = [
 		...(clipped ? (['clipping'] as const) : []),
-		...(doubleHit ? (['double-hit'] as const) : [])
+		...(hasSecondHit(x, fs) ? (['double-hit'] as const) : [])
 	];
-
 	let windowed: Float64Array = x;
 	if (tauW !== null) {
 		windowed = new Float64Array(n);
@@ -329,112 +900,98 @@ export function analyzeRingdown(
 		opt.zeroPad !== undefined
 			? Math.min(nextPow2(n) * nextPow2(integerAtLeast('zeroPad', opt.zeroPad, 1)), 1 << 22)
 			: Math.min(2 * nextPow2(n), Math.max(nextPow2(n), PAD_UP_TO));
-	const spec = realFft(windowed, nfft);
-	const mag = magnitude(spec);
+	const mag = magnitude(realFft(windowed, nfft));
 	progress(0.45);
 	const df = fs / nfft;
 	const T = n / fs;
 	const resolution = 1 / T;
-	const fMin = Math.max(opt.minFrequencyHz ?? 0, 2 * resolution);
-	const fMax = Math.min(opt.maxFrequencyHz ?? Infinity, 0.45 * fs);
-	let tallest = 0;
-	for (let k = Math.ceil(fMin / df); k <= Math.floor(fMax / df) && k < mag.length; k++)
-		tallest = Math.max(tallest, mag[k]);
-	const peaks = findPeaks(
+	const kMin = Math.ceil(Math.max(opt.minFrequencyHz ?? 0, 2 * resolution) / df);
+	const kMax = Math.min(mag.length - 1, Math.floor(fMaxAsked / df));
+	const seg: Segment = { x, windowed, mag, fs, df, n, T, resolution, tauW };
+	const candidates = peakCandidates(
 		mag,
-		Math.ceil(fMin / df),
-		Math.floor(fMax / df),
-		tallest * minProm,
-		Math.round((2 * resolution) / df)
-	)
-		.filter((p) => p.prominence >= tallest * minProm)
+		kMin,
+		kMax,
+		minProm,
+		noiseFactor,
+		resolution,
+		df,
+		maxModes
+	);
+
+	const modes: RingdownMode[] = [];
+	const steadyTones: Tone[] = [...tones];
+	candidates.list.forEach((p, idx) => {
+		progress(0.45 + (0.5 * idx) / Math.max(1, candidates.list.length));
+		const neighbours = candidates.list.filter((q) => q !== p).map((q) => q.bin * df);
+		const got = characterise(
+			seg,
+			p,
+			neighbours,
+			tones,
+			candidates.tallest,
+			recordFlags,
+			opt.disagreement
+		);
+		if (got === 'residue') return;
+		if (got === 'steady')
+			steadyTones.push({ frequencyHz: p.bin * df, amplitude: (2 * p.height) / n });
+		else if (modes.length < maxModes) modes.push(got);
+	});
+	modes.sort((a, b) => b.amplitude - a.amplitude);
+	progress(1);
+	return {
+		modes,
+		tones: steadyTones.sort((a, b) => a.frequencyHz - b.frequencyHz),
+		preHitRms: preRms,
+		sampleRateHz: fs,
+		samples: samples.length,
+		durationS: samples.length / fs,
+		resolutionHz: resolution,
+		nfft,
+		hitIndex: hit,
+		flags: recordFlags,
+		...chartData(x0, mag, fs, df, n, fMaxAsked)
+	};
+}
+
+/**
+ * Peaks of the hit's spectrum, most prominent first: above `noiseFactor` × the median magnitude
+ * in the band (the noise floor; tones are already out) and `minProminence` × the tallest, and at
+ * least two resolution steps from a more prominent one.
+ */
+function peakCandidates(
+	mag: Float64Array,
+	kMin: number,
+	kMax: number,
+	minProm: number,
+	noiseFactor: number,
+	resolution: number,
+	df: number,
+	maxModes: number
+) {
+	let tallest = 0;
+	for (let k = kMin; k <= kMax; k++) tallest = Math.max(tallest, mag[k]);
+	const floor = medianLevel(mag, kMin, kMax + 1);
+	const least = Math.max(tallest * minProm, noiseFactor * floor);
+	const peaks = findPeaks(mag, kMin, kMax, least, Math.round((2 * resolution) / df))
+		.filter((p) => p.prominence >= least)
 		.sort((a, b) => b.prominence - a.prominence);
-	// keep peaks at least two resolution steps from a more prominent one
 	const kept: typeof peaks = [];
 	for (const p of peaks)
 		if (kept.every((q) => Math.abs(q.bin - p.bin) * df >= 2 * resolution)) kept.push(p);
-	const candidates = kept.slice(0, maxModes + 2);
+	return { list: kept.slice(0, maxModes + 2), tallest };
+}
 
-	const modes: RingdownMode[] = [];
-	const tones: RingdownResult['tones'] = [];
-	candidates.forEach((p, idx) => {
-		progress(0.45 + (0.5 * idx) / Math.max(1, candidates.length));
-		const ip = interpolatePeak(mag, p.bin);
-		const f = ip.bin * df;
-		const hp = halfPowerBins(mag, p.bin, ip.height);
-		const windowDamping = tauW === null ? 0 : 1 / (2 * Math.PI * f * tauW);
-		const hpHz: [number, number] | null = hp ? [hp[0] * df, hp[1] * df] : null;
-		const hpDamping = hpHz ? Math.max(0, (hpHz[1] - hpHz[0]) / (2 * f) - windowDamping) : null;
-		// envelope: reject the neighbours (nearest other candidate) and the 2f image
-		const others = candidates.filter((q) => q !== p).map((q) => Math.abs(q.bin - p.bin) * df);
-		const nearest = others.length ? Math.min(...others) : Infinity;
-		const L = Math.min(Math.floor(n / 8), Math.max(8, Math.ceil((2 * fs) / Math.min(nearest, f))));
-		// the envelope is needed only until the mode has rung down: ten time constants by the
-		// half-power estimate (σ = π·(f₂ − f₁)), plus the filter's length at each end
-		const span = hpHz
-			? Math.min(n, Math.ceil((fs * 10) / (Math.PI * (hpHz[1] - hpHz[0]))) + 8 * L)
-			: n;
-		const { env, step } = demodulatedEnvelope(span < n ? x.subarray(0, span) : x, fs, f, L);
-		const m = env.length;
-		// skip the filter's start-up and its end (2L samples each), then stop in the noise
-		const edge = Math.ceil((2 * L) / step);
-		const from = Math.min(m - 1, edge);
-		let to = m - edge;
-		let envPeak = 0;
-		for (let i = from; i < to; i++) envPeak = Math.max(envPeak, env[i]);
-		let floor = Infinity;
-		for (let i = Math.max(from, to - Math.floor(m / 10)); i < to; i++)
-			floor = Math.min(floor, env[i]);
-		if (floor < 0.1 * envPeak) {
-			let i = from;
-			while (i < to && env[i] > Math.max(3 * floor, 0.01 * envPeak)) i++;
-			to = i;
-		}
-		const fit = to - from > 8 ? logLinearFit(env, fs, from, to, step) : null;
-		const sigma = fit ? -fit.slope : null;
-		const w = 2 * Math.PI * f;
-		const decayDamping =
-			sigma !== null && sigma > 0 ? sigma / Math.hypot(sigma, w) : sigma !== null ? 0 : null;
-		const cleanFit = fit !== null && fit.r2 >= 0.95 && fit.points >= 8;
-		// a peak whose envelope falls by less than a fifth over the whole record, and as narrow as
-		// the resolution allows, is a steady tone
-		const steady =
-			(sigma === null || sigma * T < 0.2) && (hpHz === null || hpHz[1] - hpHz[0] < 3 * resolution);
-		if (steady) {
-			tones.push({
-				frequencyHz: f,
-				amplitude: fit ? Math.exp(fit.intercept) : (2 * ip.height) / n
-			});
-			return;
-		}
-		if (modes.length >= maxModes) return;
-		const zeta = cleanFit && decayDamping !== null && decayDamping > 0 ? decayDamping : hpDamping;
-		const flags: ModeFlag[] = [...recordFlags];
-		if (hpHz && hpHz[1] - hpHz[0] < 5 * resolution) flags.push('coarse-resolution');
-		if (zeta !== null && zeta > 0 && T < 6 / (zeta * w)) flags.push('short-record');
-		if (!cleanFit) flags.push('poor-envelope-fit');
-		if (
-			hpDamping !== null &&
-			decayDamping !== null &&
-			cleanFit &&
-			Math.abs(hpDamping - decayDamping) / Math.max(hpDamping, decayDamping) > opt.disagreement
-		)
-			flags.push('damping-disagreement');
-		modes.push({
-			frequencyHz: f,
-			dampingRatio: zeta !== null && zeta > 0 ? zeta : null,
-			qFactor: zeta !== null && zeta > 0 ? 1 / (2 * zeta) : null,
-			amplitude: fit && cleanFit ? Math.exp(fit.intercept) : (2 * ip.height) / n,
-			halfPowerDamping: hpDamping,
-			decayDamping,
-			halfPowerHz: hpHz,
-			prominence: p.prominence / tallest,
-			flags
-		});
-	});
-	modes.sort((a, b) => b.amplitude - a.amplitude);
-
-	// chart data, decimated without building full-length arrays
+/** Chart data, decimated without building full-length arrays. */
+function chartData(
+	x0: Float64Array,
+	mag: Float64Array,
+	fs: number,
+	df: number,
+	n: number,
+	fMax: number
+): Pick<RingdownResult, 'spectrum' | 'waveform'> {
 	const scale = 2 / n;
 	const kEnd = Math.min(mag.length, Math.ceil(Math.min(fMax, 0.5 * fs) / df) + 1);
 	const spectrum = bucketMax(
@@ -454,17 +1011,7 @@ export function analyzeRingdown(
 	const envelope = wave.x.map(
 		(t) => Math.SQRT2 * (rms[Math.min(rms.length - 1, Math.floor((t * fs) / envW))] ?? 0)
 	);
-	progress(1);
 	return {
-		modes,
-		tones,
-		sampleRateHz: fs,
-		samples: samples.length,
-		durationS: samples.length / fs,
-		resolutionHz: resolution,
-		nfft,
-		hitIndex: hit,
-		flags: recordFlags,
 		spectrum: { frequencyHz: spectrum.x, magnitude: spectrum.y },
 		waveform: { timeS: wave.x, value: wave.y, envelope }
 	};

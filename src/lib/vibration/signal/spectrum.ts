@@ -96,3 +96,33 @@ export function bucketMax(
 	}
 	return { x: xs, y: ys };
 }
+
+/**
+ * The analytic signal of one band: bins k1 … k2 of a one-sided spectrum, doubled, everything else
+ * zero, transformed back (fft.js inverse, which divides by N). Its magnitude is the band's
+ * envelope and its phase the band's oscillation, with no image at twice the frequency. Returns the
+ * first `length` samples.
+ */
+export function analyticBand(
+	s: OneSided,
+	k1: number,
+	k2: number,
+	length: number
+): { re: Float64Array; im: Float64Array } {
+	const f = fftOf(s.nfft);
+	const input = f.createComplexArray() as number[];
+	const out = f.createComplexArray() as number[];
+	for (let k = Math.max(1, k1); k <= Math.min(s.re.length - 1, k2); k++) {
+		input[2 * k] = 2 * s.re[k];
+		input[2 * k + 1] = 2 * s.im[k];
+	}
+	f.inverseTransform(out, input);
+	const n = Math.min(length, s.nfft);
+	const re = new Float64Array(n);
+	const im = new Float64Array(n);
+	for (let i = 0; i < n; i++) {
+		re[i] = out[2 * i];
+		im[i] = out[2 * i + 1];
+	}
+	return { re, im };
+}
