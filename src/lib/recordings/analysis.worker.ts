@@ -3,8 +3,7 @@
  * Parses and analyses a recording off the main thread, so the screen never freezes: messages
  * { file, sampleRateHz, choice } in; { type: 'progress' | 'done' | 'error' } out.
  */
-import { parseCsvBlob } from './csv.ts';
-import { parseWav } from './wav.ts';
+import { parseRecordingFile } from './parse.ts';
 import { analyzeRecording, defaultChoice, type AnalysisChoice } from './analyze.ts';
 import { checkSize } from './types.ts';
 
@@ -21,13 +20,9 @@ self.onmessage = async (e: MessageEvent<Request>) => {
 	try {
 		checkSize(file.name, file.size);
 		post({ type: 'progress', stage: 'Reading the file', fraction: 0 });
-		const isWav =
-			/\.wav$/i.test(file.name) || file.type === 'audio/wav' || file.type === 'audio/x-wav';
-		const recording = isWav
-			? parseWav(new Uint8Array(await file.arrayBuffer()), file.name)
-			: await parseCsvBlob(file, sampleRateHz, (f) =>
-					post({ type: 'progress', stage: 'Reading the file', fraction: f * 0.5 })
-				);
+		const recording = await parseRecordingFile(file, sampleRateHz, (f) =>
+			post({ type: 'progress', stage: 'Reading the file', fraction: f * 0.5 })
+		);
 		const pick = choice ?? defaultChoice(recording);
 		post({ type: 'progress', stage: 'Finding the modes', fraction: 0.5 });
 		const analysis = analyzeRecording(recording, pick, (f) =>

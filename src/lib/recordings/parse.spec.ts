@@ -3,6 +3,7 @@ import { WaveFile } from 'wavefile';
 import { parseCsvText } from './csv.ts';
 import { parseWav } from './wav.ts';
 import { RecordingError } from './types.ts';
+import { formatOf } from './parse.ts';
 
 const sine = (n: number, fs: number, f: number, a = 0.5) =>
 	Array.from({ length: n }, (_, i) => a * Math.exp(-i / n) * Math.sin((2 * Math.PI * f * i) / fs));
@@ -173,6 +174,20 @@ describe('CSV recordings', () => {
 		expect(() => parseCsvText(uneven, 'u.csv')).toThrow(/not evenly spaced at data row 51/);
 		expect(() => parseCsvText('x'.repeat(60 * 1024 * 1024), 'big.csv')).toThrow(
 			'big.csv is 60.0 MB; recordings may be at most 50 MB.'
+		);
+	});
+});
+
+describe('one way into a recording', () => {
+	it('decides the format by one rule, for the tablet and the server alike', () => {
+		// the first version had two: the worker read any file not named .wav as CSV, the server
+		// refused it; a .WAV sent as application/octet-stream and a .txt now read the same in both
+		expect(formatOf('hit.WAV', 'application/octet-stream')).toBe('wav');
+		expect(formatOf('blob', 'audio/x-wav')).toBe('wav');
+		expect(formatOf('hit.txt', '')).toBe('csv');
+		expect(formatOf('export', 'text/csv')).toBe('csv');
+		expect(() => formatOf('photo.png', 'image/png')).toThrow(
+			'photo.png is neither a CSV nor a WAV file.'
 		);
 	});
 });

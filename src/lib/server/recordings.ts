@@ -10,10 +10,9 @@ import { eq } from 'drizzle-orm';
 import { db } from './db/index.ts';
 import { recordings } from './db/schema.ts';
 import { setting } from './config.ts';
-import { parseCsvText } from '../recordings/csv.ts';
-import { parseWav } from '../recordings/wav.ts';
+import { parseRecordingBytes } from '../recordings/parse.ts';
 import { analyzeRecording, defaultChoice } from '../recordings/analyze.ts';
-import { RecordingError, type Recording } from '../recordings/types.ts';
+import type { Recording } from '../recordings/types.ts';
 
 export function dataDir(): string {
 	return resolve(setting('DATA_DIR') ?? 'data/files');
@@ -40,12 +39,12 @@ export function parseFile(
 	mediaType: string,
 	sampleRateHz: number | null
 ): Recording {
-	const isWav = /\.wav$/i.test(fileName) || /audio\/(x-)?wav/.test(mediaType);
-	if (isWav)
-		return parseWav(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength), fileName);
-	if (/\.(csv|txt)$/i.test(fileName) || mediaType.startsWith('text/'))
-		return parseCsvText(bytes.toString('utf8'), fileName, sampleRateHz);
-	throw new RecordingError(`${fileName} is neither a CSV nor a WAV file.`);
+	return parseRecordingBytes(
+		new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength),
+		fileName,
+		mediaType,
+		sampleRateHz
+	);
 }
 
 export function analyse(rec: Recording): StoredAnalysis {
