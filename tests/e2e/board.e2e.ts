@@ -145,3 +145,25 @@ test('a technician reaches neither the edit forms nor the import, and the server
 	).toBe(source.params.count);
 	await api.close();
 });
+
+test('a supervisor gives a drive motor its slip: an odd pole count is refused, the slip is kept and reaches the tablet', async ({
+	page
+}) => {
+	await signIn(page, 'supervisor');
+	await page.goto('/board?q=LBM-IDF-110');
+	await page.getByRole('link', { name: 'LBM-IDF-110' }).click();
+	await expect(page.getByTestId('sheet-title')).toContainText('LBM-IDF-110');
+	const form = page.getByTestId('asset-form');
+	await form.getByLabel('Motor poles').fill('5');
+	await form.getByRole('button', { name: /^Save/ }).click();
+	await expect(form.getByText('Motor poles: an even number (poles come in pairs).')).toBeVisible();
+	await form.getByLabel('Motor poles').fill('6');
+	await form.getByLabel(/^Motor slip/).fill('1.7');
+	await form.getByRole('button', { name: /^Save/ }).click();
+	await expect(page.getByText('Asset saved; margins recomputed.')).toBeVisible();
+	await page.reload();
+	await expect(page.getByTestId('asset-form').getByLabel(/^Motor slip/)).toHaveValue('1.7');
+	// what the tablet receives for the same asset carries the slip too
+	const pulled = await (await page.request.get('/api/sync/pull?since=0')).json();
+	expect(pulled.assets.find((a: { tag: string }) => a.tag === 'LBM-IDF-110').slipPct).toBe(1.7);
+});

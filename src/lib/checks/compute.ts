@@ -9,6 +9,7 @@ import {
 	modeRemedies,
 	type AvoidancePlan,
 	type CheckResult,
+	type ExcitationSource,
 	type MarginRule,
 	type Mode,
 	type ModeRemedy
@@ -19,6 +20,8 @@ export interface AssetForCheck {
 	minRpm: number;
 	maxRpm: number;
 	motorPoles: number | null;
+	/** the motor's slip at rated load, %; null or absent: drive Hz and 2× line are synchronous */
+	slipPct?: number | null;
 	driveRatio: number;
 	skipBands: number;
 	sources: StoredSource[];
@@ -63,16 +66,18 @@ export function computeCheck(
 	modes: Mode[]
 ): ComputedCheck {
 	const rule = ruleOf(ruleSet);
+	const slip = asset.slipPct === null || asset.slipPct === undefined ? null : asset.slipPct / 100;
 	const input = {
 		speedRange: { minRpm: asset.minRpm, maxRpm: asset.maxRpm },
 		measuredRpm,
-		sources: toEngineSources(asset.sources),
+		sources: withSlip(toEngineSources(asset.sources), slip),
 		modes,
 		rule
 	};
 	const result = evaluateCheck(input);
 	const bands = avoidanceBands(input, {
 		poles: asset.motorPoles,
+		slip,
 		motorRpmPerShaftRpm: asset.driveRatio,
 		skipBands: asset.skipBands
 	});
@@ -108,5 +113,13 @@ export function sameSummary(
 		a.verdictAtSpeed === b.verdictAtSpeed &&
 		close(a.worstMarginAtSpeedPct, b.worstMarginAtSpeedPct) &&
 		close(a.worstMarginOverRangePct, b.worstMarginOverRangePct)
+	);
+}
+
+/** The asset's slip on every 2× line taken from a drive (the source gives poles and ratio). */
+function withSlip(sources: ExcitationSource[], slip: number | null): ExcitationSource[] {
+	if (slip === null) return sources;
+	return sources.map((s) =>
+		s.kind === 'line' && s.drive ? { ...s, drive: { ...s.drive, slip } } : s
 	);
 }

@@ -50,6 +50,14 @@ export const assetForm = z
 				.int('Motor poles: a whole number.')
 				.min(2, 'Motor poles: at least 2.')
 				.max(64)
+				.refine((p) => p % 2 === 0, 'Motor poles: an even number (poles come in pairs).')
+				.nullable()
+		),
+		slipPct: optionalNumber('Slip').pipe(
+			z
+				.number()
+				.min(0, 'Slip: 0 % or more.')
+				.max(10, 'Slip: at most 10 % (a running induction motor slips 0.5–5 %).')
 				.nullable()
 		),
 		driveRatio: numberText('Drive ratio').pipe(

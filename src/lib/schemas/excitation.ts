@@ -62,7 +62,12 @@ export const sourceParams = {
 		.object({
 			lineFrequencyHz: pos('Line frequency').max(1000),
 			drive: z
-				.object({ poles: count('Poles').min(2), motorRpmPerShaftRpm: pos('Motor/shaft ratio') })
+				.object({
+					poles: count('Poles')
+						.min(2)
+						.refine((p) => p % 2 === 0, 'Poles: an even number (poles come in pairs).'),
+					motorRpmPerShaftRpm: pos('Motor/shaft ratio')
+				})
 				.strict()
 				.nullable()
 				.optional()

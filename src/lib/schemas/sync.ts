@@ -211,6 +211,8 @@ export interface PulledAsset {
 	maxRpm: number;
 	nominalRpm: number | null;
 	motorPoles: number | null;
+	/** motor slip at rated load, % (null: unknown) */
+	slipPct: number | null;
 	driveRatio: number;
 	skipBands: number;
 	ruleSetId: string | null;

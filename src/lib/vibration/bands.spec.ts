@@ -3,8 +3,10 @@ import {
 	avoidanceBands,
 	evaluateCheck,
 	excitationWindowHz,
+	excitationCatalogue,
 	modeRemedies,
 	retuneTo,
+	slipFromNameplate,
 	type CheckInput
 } from './index.ts';
 
@@ -116,6 +118,60 @@ describe('avoidance bands', () => {
 		expect(excitationWindowHz(10, 1, 0.1)[1]).toBe(Infinity);
 	});
 });
+
+describe('slip and poles (motor nameplate arithmetic, common practice)', () => {
+	it('derives the slip from the nameplate: 4 poles, 60 Hz, 1,780 rpm → 1.11 % (domain.md §5, induction motors)', () => {
+		// n_sync = 120 · 60 / 4 = 1,800 rpm; s = 20 / 1,800; slip frequency s · 60 = 0.667 Hz
+		const s = slipFromNameplate(1780, 4, 60);
+		expect(s).toBeCloseTo(20 / 1800, 12);
+		expect(s * 60).toBeCloseTo(0.667, 3);
+		expect(() => slipFromNameplate(1800, 4, 60)).toThrow(/below the synchronous 1800 rpm/);
+	});
+
+	it('puts 2× line of a drive at twice its output frequency, slip included', () => {
+		// the first version used motor rpm × p / 120 with no slip: 1.1 % low here. At 1,780 rpm on
+		// a 4-pole motor with 1.11 % slip the drive puts out 60 Hz, so 2× line is 120 Hz.
+		const s = 20 / 1800;
+		const [line] = excitationCatalogue([
+			{
+				id: 'l',
+				kind: 'line',
+				lineFrequencyHz: 60,
+				drive: { poles: 4, motorRpmPerShaftRpm: 1, slip: s }
+			}
+		]);
+		expect(((line.order as number) * 1780) / 60).toBeCloseTo(120, 9);
+		const [synchronous] = excitationCatalogue([
+			{ id: 'l', kind: 'line', lineFrequencyHz: 60, drive: { poles: 4, motorRpmPerShaftRpm: 1 } }
+		]);
+		expect(((synchronous.order as number) * 1780) / 60).toBeCloseTo(118.67, 2);
+	});
+
+	it('gives drive Hz with the slip: f = p · n / (120 (1 − s))', () => {
+		const plan = avoidanceBands(pumpForSlip, { poles: 4, motorRpmPerShaftRpm: 1, slip: 0.02 });
+		const [b] = plan.bands;
+		expect(b.driveLowHz).toBeCloseTo((b.lowRpm * 4) / (120 * 0.98), 9);
+		expect(plan.slipNote).toMatch(/include the motor’s slip of 2 %/);
+	});
+
+	it('refuses an odd pole count and an impossible slip', () => {
+		expect(() => avoidanceBands(pumpForSlip, { poles: 3 })).toThrow(/even number/);
+		expect(() =>
+			excitationCatalogue([
+				{ id: 'l', kind: 'line', lineFrequencyHz: 50, drive: { poles: 5, motorRpmPerShaftRpm: 1 } }
+			])
+		).toThrow(/even number/);
+		expect(() => avoidanceBands(pumpForSlip, { poles: 4, slip: 0.5 })).toThrow(/slip/);
+	});
+});
+
+const pumpForSlip: CheckInput = {
+	speedRange: { minRpm: 600, maxRpm: 1800 },
+	measuredRpm: 1450,
+	sources: [{ id: 's', kind: 'shaft', orders: [1] }],
+	modes: [{ frequencyHz: 24 }],
+	rule: { kind: 'fixed', percent: 10 }
+};
 
 describe('remedies', () => {
 	const input: CheckInput = {

@@ -10,6 +10,8 @@
  */
 import {
 	atLeast,
+	evenPoles,
+	slipFraction,
 	integerAtLeast,
 	object,
 	positive,
@@ -30,8 +32,10 @@ import {
 export interface DriveSettings {
 	/** motor rpm per reference-shaft rpm (belt or gearbox ratio); 1 for direct drive */
 	motorRpmPerShaftRpm?: number;
-	/** motor poles, for drive output Hz */
+	/** motor poles, for drive output Hz (an even number) */
 	poles?: number | null;
+	/** the induction motor's slip as a fraction (0.011 for 1.1 %); null or absent: synchronous */
+	slip?: number | null;
 	/** skip bands the drive offers (default 3) */
 	skipBands?: number;
 }
@@ -48,7 +52,7 @@ export interface AvoidanceBand {
 	highRpm: number;
 	motorLowRpm: number;
 	motorHighRpm: number;
-	/** drive output Hz at the band edges (synchronous, before slip); null without motor poles */
+	/** drive output Hz at the band edges (motor rpm × p / (120 (1 − s)); synchronous without a slip); null without motor poles */
 	driveLowHz: number | null;
 	driveHighHz: number | null;
 	causes: BandCause[];
@@ -141,15 +145,33 @@ export function mergeBands<T extends { lo: number; hi: number; causes: BandCause
 	return out;
 }
 
+/**
+ * An induction motor's slip from its nameplate: s = 1 − n_rated / n_sync, n_sync = 120·f/p
+ * (common practice). 4 poles, 60 Hz, 1,780 rpm → n_sync 1,800 rpm, s = 1.11 %.
+ */
+export function slipFromNameplate(
+	ratedRpm: number,
+	poles: number,
+	lineFrequencyHz: number
+): number {
+	const p = evenPoles(poles);
+	const f = positive('line frequency', lineFrequencyHz);
+	const sync = (120 * f) / p;
+	const n = positive('rated speed', ratedRpm);
+	if (n >= sync)
+		throw new VibrationInputError('rated speed', `below the synchronous ${sync} rpm`, ratedRpm);
+	return slipFraction(1 - n / sync);
+}
+
 /** Avoidance bands of a check over its speed range. */
 export function avoidanceBands(input: CheckInput, drive: DriveSettings = {}): AvoidancePlan {
 	object('check', input);
 	const range = validateSpeedRange(input.speedRange);
 	const ratio = positive('motorRpmPerShaftRpm', drive.motorRpmPerShaftRpm ?? 1);
-	const poles =
-		drive.poles === null || drive.poles === undefined
-			? null
-			: integerAtLeast('poles', drive.poles, 2);
+	const poles = drive.poles === null || drive.poles === undefined ? null : evenPoles(drive.poles);
+	const slip = drive.slip === null || drive.slip === undefined ? null : slipFraction(drive.slip);
+	// drive output Hz per motor rpm: f = p·n / (120 (1 − s)) (common practice; domain.md §6.3)
+	const hzPerMotorRpm = poles === null ? null : poles / (120 * (1 - (slip ?? 0)));
 	const slots = integerAtLeast('skipBands', drive.skipBands ?? 3, 0);
 	const lines = excitationCatalogue(input.sources);
 	const modes = modeList(input);
@@ -182,8 +204,8 @@ export function avoidanceBands(input: CheckInput, drive: DriveSettings = {}): Av
 		highRpm: b.hi,
 		motorLowRpm: b.lo * ratio,
 		motorHighRpm: b.hi * ratio,
-		driveLowHz: poles === null ? null : (b.lo * ratio * poles) / 120,
-		driveHighHz: poles === null ? null : (b.hi * ratio * poles) / 120,
+		driveLowHz: hzPerMotorRpm === null ? null : b.lo * ratio * hzPerMotorRpm,
+		driveHighHz: hzPerMotorRpm === null ? null : b.hi * ratio * hzPerMotorRpm,
 		causes: b.causes
 	}));
 	const noClearSpeed =
@@ -232,7 +254,9 @@ export function avoidanceBands(input: CheckInput, drive: DriveSettings = {}): Av
 		},
 		speedLimits,
 		slipNote:
-			'Drive Hz are synchronous (motor rpm × poles / 120); an induction motor runs with slip, so set the bands a little higher.'
+			slip === null
+				? 'Drive Hz are synchronous (motor rpm × poles / 120): give the motor’s slip (or its nameplate speed) for the Hz an induction motor needs, 1–3 % higher.'
+				: `Drive Hz include the motor’s slip of ${+(slip * 100).toFixed(2)} % (motor rpm × poles / (120 × (1 − slip))).`
 	};
 }
 

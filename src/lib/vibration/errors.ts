@@ -64,6 +64,22 @@ export function integerAtLeast(name: string, value: unknown, min: number): numbe
 	return v;
 }
 
+/** An induction motor's pole count: a whole, even number of at least 2 (poles come in pairs). */
+export function evenPoles(value: unknown): number {
+	const v = integerAtLeast('motor poles', value, 2);
+	if (v % 2 !== 0)
+		throw new VibrationInputError('motor poles', 'an even number (poles come in pairs)', value);
+	return v;
+}
+
+/** A slip as a fraction: at least 0 and below 0.2 (a running induction motor slips 0.5–5 %). */
+export function slipFraction(value: unknown): number {
+	const v = finite('slip', value);
+	if (v < 0 || v >= 0.2)
+		throw new VibrationInputError('slip', 'from 0 to below 0.2 (0–20 %)', value);
+	return v;
+}
+
 /** A finite number in the closed interval [lo, hi]. */
 export function within(name: string, value: unknown, lo: number, hi: number): number {
 	const v = finite(name, value);

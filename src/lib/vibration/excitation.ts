@@ -5,6 +5,8 @@
  * pass, twice line frequency).
  */
 import {
+	evenPoles,
+	slipFraction,
 	finite,
 	integerAtLeast,
 	nonEmpty,
@@ -54,7 +56,8 @@ export type ExcitationSource =
 	| (SourceBase & {
 			kind: 'line';
 			lineFrequencyHz: number;
-			drive?: { poles: number; motorRpmPerShaftRpm: number } | null;
+			/** on a drive: motor poles (even), motor rpm per shaft rpm, and the slip as a fraction */
+			drive?: { poles: number; motorRpmPerShaftRpm: number; slip?: number | null } | null;
 	  })
 	| (SourceBase & { kind: 'fixed'; frequencyHz: number });
 
@@ -211,10 +214,13 @@ export function excitationLines(source: ExcitationSource): ExcitationLine[] {
 		case 'line': {
 			const fl = positive('lineFrequencyHz', s.lineFrequencyHz);
 			if (s.drive) {
-				const p = integerAtLeast('drive poles', s.drive.poles, 2);
+				const p = evenPoles(s.drive.poles);
 				const mr = positive('motorRpmPerShaftRpm', s.drive.motorRpmPerShaftRpm);
-				// 2 × electrical frequency; electrical Hz = motor rpm · p/120 → per shaft Hz: 2·mr·p/2
-				return [orderLine('2line', '2× line (drive)', mr * p)];
+				const slip =
+					s.drive.slip === null || s.drive.slip === undefined ? 0 : slipFraction(s.drive.slip);
+				// 2 × the drive's output frequency; output Hz = motor rpm · p / (120 (1 − s)), so per
+				// shaft Hz (60 shaft rpm): 2 · mr · p / (2 (1 − s)) = mr · p / (1 − s)
+				return [orderLine('2line', '2× line (drive)', (mr * p) / (1 - slip))];
 			}
 			return [
 				{

@@ -23,7 +23,8 @@ export const IMPORT_COLUMNS = [
 	['min_rpm', 'minimum shaft speed, rpm'],
 	['max_rpm', 'maximum shaft speed, rpm (= min_rpm for fixed speed)'],
 	['nominal_rpm', 'optional'],
-	['motor_poles', 'optional, for drive output Hz'],
+	['motor_poles', 'optional, for drive output Hz (an even number)'],
+	['slip_pct', 'optional, motor slip at rated load, %'],
 	['drive_ratio', 'motor rpm ÷ shaft rpm; 1 for direct drive'],
 	['skip_bands', 'skip bands the drive offers; default 3'],
 	['rule_set', 'rule-set name; empty for the default'],
@@ -42,8 +43,8 @@ export const IMPORT_COLUMNS = [
 
 export const TEMPLATE = [
 	IMPORT_COLUMNS.map((c) => c[0]).join(','),
-	'KRW-RWP-105,Raw water pump 5,KRW,Raw Water Intake,pump,vfd,720,1180,1180,6,1,3,Pump structures 15 %\\, vane pass 20 %,1;2,5,,,,9,25.4,115,0,60,',
-	'LBM-EXF-130,Dryer exhaust fan,LBM,Dryer Section,fan,fixed,1180,1180,1180,6,1,3,,1;2,,9,,,,,,,60,'
+	'KRW-RWP-105,Raw water pump 5,KRW,Raw Water Intake,pump,vfd,720,1180,1180,6,1.7,1,3,Pump structures 15 %\\, vane pass 20 %,1;2,5,,,,9,25.4,115,0,60,',
+	'LBM-EXF-130,Dryer exhaust fan,LBM,Dryer Section,fan,fixed,1180,1180,1180,6,,1,3,,1;2,,9,,,,,,,60,'
 ]
 	.map((l) =>
 		l.replace('Pump structures 15 %\\, vane pass 20 %', '"Pump structures 15 %, vane pass 20 %"')
@@ -73,6 +74,7 @@ const COLUMN_OF: Record<string, string> = {
 	maxRpm: 'max_rpm',
 	nominalRpm: 'nominal_rpm',
 	motorPoles: 'motor_poles',
+	slipPct: 'slip_pct',
 	driveRatio: 'drive_ratio',
 	skipBands: 'skip_bands',
 	ruleSetId: 'rule_set'
@@ -175,6 +177,7 @@ export function validate(text: string): { rows: ValidRow[]; errors: RowError[]; 
 			maxRpm: get('max_rpm'),
 			nominalRpm: get('nominal_rpm'),
 			motorPoles: get('motor_poles'),
+			slipPct: get('slip_pct'),
 			driveRatio: get('drive_ratio') || '1',
 			skipBands: get('skip_bands') || '3',
 			ruleSetId: ruleSetId ?? '',

@@ -126,6 +126,8 @@ export const assets = sqliteTable(
 		maxRpm: real('max_rpm').notNull(),
 		nominalRpm: real('nominal_rpm'),
 		motorPoles: integer('motor_poles'),
+		/** the induction motor's slip at rated load, % (nameplate: (n_sync − n_rated)/n_sync); null: not known */
+		slipPct: real('slip_pct'),
 		/** motor rpm per reference-shaft rpm (belt or gearbox); 1 for direct drive */
 		driveRatio: real('drive_ratio').notNull().default(1),
 		skipBands: integer('skip_bands').notNull().default(3),

@@ -67,6 +67,7 @@ export function pull(
 				maxRpm: assets.maxRpm,
 				nominalRpm: assets.nominalRpm,
 				motorPoles: assets.motorPoles,
+				slipPct: assets.slipPct,
 				driveRatio: assets.driveRatio,
 				skipBands: assets.skipBands,
 				ruleSetId: assets.ruleSetId,
