@@ -35,7 +35,12 @@ export interface RuleSetForCheck {
 
 export function ruleOf(ruleSet: RuleSetForCheck | null | undefined): MarginRule {
 	if (!ruleSet) return DEFAULT_RULE;
-	if (ruleSet.kind === 'amplification') return { kind: 'amplification' };
+	if (ruleSet.kind === 'amplification')
+		return {
+			kind: 'amplification',
+			...(ruleSet.percent !== null ? { percent: ruleSet.percent } : {}),
+			...(ruleSet.perKind ? { perKind: ruleSet.perKind } : {})
+		};
 	return {
 		kind: 'fixed',
 		percent: ruleSet.percent ?? 10,

@@ -188,3 +188,55 @@ describe('evaluating a check', () => {
 		expect(() => evaluateCheck({ ...pump, modes: 'x' as never })).toThrow(/modes must be a list/);
 	});
 });
+
+describe('which rule governs which excitation (domain.md §1.2 API 684, §1.3 API 610)', () => {
+	const amp = { kind: 'amplification' as const };
+	const pump: CheckInput = {
+		speedRange: { minRpm: 900, maxRpm: 1500 },
+		measuredRpm: 1200,
+		sources: [
+			{ id: 's', kind: 'shaft', orders: [1] },
+			{ id: 'v', kind: 'vane', count: 5 }
+		],
+		// a lightly damped housing mode just above the vane-pass band (5 × 25 Hz = 125 Hz at 1,500 rpm)
+		modes: [{ frequencyHz: 131, dampingRatio: 0.25 }],
+		rule: amp
+	};
+
+	it('applies the amplification rule to running-speed orders and a fixed margin to the rest', () => {
+		// AF = 1/(2ζ) = 2 < 2.5: the API 684 reading asks no margin of a rotor critical ...
+		expect(
+			requiredMarginPct(amp, { amplificationFactor: 2, position: 'above', excitationKind: 'shaft' })
+		).toBe(0);
+		// ... but the first version applied it to vane pass too; API 610's structural figure is 10 %
+		expect(
+			requiredMarginPct(amp, { amplificationFactor: 2, position: 'above', excitationKind: 'vane' })
+		).toBe(10);
+		expect(
+			requiredMarginPct(
+				{ kind: 'amplification', percent: 20, perKind: { bearing: 15 } },
+				{ amplificationFactor: 40, position: 'below', excitationKind: 'bearing' }
+			)
+		).toBe(15);
+		const r = evaluateCheck(pump);
+		const vane = r.pairs.find((p) => p.kind === 'vane')!;
+		// 131 Hz is 4.8 % above 125 Hz: under 10 %, not "clear"
+		expect(vane.marginOverRangePct).toBeCloseTo(((131 - 125) / 125) * 100, 9);
+		expect(vane.requiredOverRangePct).toBe(10);
+		expect(vane.verdictOverRange).not.toBe('clear');
+	});
+
+	it('says so when a line sweeps across a mode that the rule lets pass (AF below 2.5)', () => {
+		const crossed = evaluateCheck({
+			...pump,
+			sources: [{ id: 's', kind: 'shaft', orders: [1] }],
+			modes: [{ frequencyHz: 20, dampingRatio: 0.25 }] // 1,200 rpm: inside 15–25 Hz
+		});
+		const [p] = crossed.pairs;
+		expect(p.positionOverRange).toBe('inside');
+		expect(p.verdictOverRange).toBe('clear');
+		expect(p.remark).toMatch(/sweeps across this mode; the rule asks no margin/);
+		const fixed = evaluateCheck({ ...pump, rule: { kind: 'fixed', percent: 10 } });
+		expect(fixed.pairs.every((q) => q.remark === null)).toBe(true);
+	});
+});

@@ -63,11 +63,22 @@ export type MarginRule =
 	  }
 	| {
 			/**
-			 * API RP 684 / API 617 style, from the mode's amplification factor. A mode with no damping
-			 * measured has no AF: the caps (16 % below, 26 % above) apply, the conservative reading.
+			 * API RP 684 / API 617 style, from the mode's amplification factor, for what that rule is
+			 * written for: rotor lateral criticals against the running-speed orders (excitation kind
+			 * `shaft`). A mode with no damping measured has no AF: the caps (16 % below, 26 % above)
+			 * apply, the conservative reading. Every other kind (vane and blade pass, gear mesh,
+			 * bearing tones, belts, line, fixed) keeps a fixed margin: `perKind[kind]`, else
+			 * `percent`, else 10 % (the API 610 structural figure, domain.md §1.3).
 			 */
 			kind: 'amplification';
+			percent?: number;
+			perKind?: Partial<Record<ExcitationKind, number>>;
 	  };
+
+/** The excitation kinds the amplification rule governs; the rest keep a fixed margin. */
+export const AMPLIFICATION_KINDS: readonly ExcitationKind[] = ['shaft'];
+/** The fixed margin beside the amplification rule when the rule set gives none, % (API 610 structural). */
+export const STRUCTURAL_DEFAULT_PCT = 10;
 
 export const DEFAULT_RULE: MarginRule = { kind: 'fixed', percent: 10 };
 
@@ -112,6 +123,11 @@ export function requiredMarginPct(
 			'fixed or amplification',
 			(rule as { kind: unknown }).kind
 		);
+	if (context.excitationKind !== undefined && !AMPLIFICATION_KINDS.includes(context.excitationKind))
+		return nonNegative(
+			`rule percent for ${context.excitationKind}`,
+			rule.perKind?.[context.excitationKind] ?? rule.percent ?? STRUCTURAL_DEFAULT_PCT
+		);
 	const af = context.amplificationFactor;
 	return amplificationRequired(
 		af === null || af === undefined ? null : positive('amplificationFactor', af),
@@ -146,7 +162,12 @@ export function compileRule(
 			'fixed or amplification',
 			(rule as { kind: unknown }).kind
 		);
-	return amplificationRequired;
+	const other = nonNegative('rule percent', rule.percent ?? STRUCTURAL_DEFAULT_PCT);
+	const per: Partial<Record<ExcitationKind, number>> = {};
+	for (const [k, v] of Object.entries(rule.perKind ?? {}))
+		per[k as ExcitationKind] = nonNegative(`rule percent for ${k}`, v);
+	return (af, position, kind) =>
+		AMPLIFICATION_KINDS.includes(kind) ? amplificationRequired(af, position) : (per[kind] ?? other);
 }
 
 const verdictOf = (sm: number, r: number): Verdict =>
@@ -216,7 +237,15 @@ export interface PairResult {
 	requiredOverRangePct: number;
 	verdictOverRange: Verdict;
 	positionOverRange: Position | 'inside';
+	/**
+	 * What a bare verdict would hide: a line that sweeps across the mode while the rule asks no
+	 * margin of it (the amplification rule below AF 2.5) reads "clear", with this remark.
+	 */
+	remark: string | null;
 }
+
+export const CROSSED_NO_MARGIN_REMARK =
+	'The excitation sweeps across this mode; the rule asks no margin (amplification factor below 2.5, critically damped by API 684). Confirm the damping with a second measurement before relying on it.';
 
 export interface CheckInput {
 	speedRange: SpeedRange;
@@ -335,7 +364,8 @@ function pairOf(
 		marginOverRangePct: smRange,
 		requiredOverRangePct: reqRange,
 		verdictOverRange: verdictOf(smRange, reqRange),
-		positionOverRange: position
+		positionOverRange: position,
+		remark: position === 'inside' && reqRange === 0 ? CROSSED_NO_MARGIN_REMARK : null
 	};
 }
 
