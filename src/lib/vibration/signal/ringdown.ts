@@ -344,18 +344,20 @@ function phaseSlope(
 }
 
 /**
- * The median of xs[from … to), as a noise floor: from at most 4,096 evenly spaced values (a
+ * The median of xs[from … to), as a noise floor: from at most 1,024 evenly spaced values (a
  * spectrum's median needs no more, and sorting 32,768 bins per record cost more than its FFT).
  */
 function medianLevel(xs: Float64Array, from: number, to: number): number {
 	const count = Math.max(0, to - from);
 	if (count === 0) return 0;
-	const take = Math.min(count, 4096);
+	const take = Math.min(count, 1024);
 	const pick = new Float64Array(take);
 	for (let i = 0; i < take; i++) pick[i] = xs[from + Math.floor((i * count) / take)];
 	pick.sort();
 	return pick[take >> 1];
 }
+
+let segBuffer: Float64Array | null = null;
 
 /** Magnitude spectrum of x[from … from+len) under a Hann window, scaled to sine amplitude. */
 function hannSpectrum(
@@ -365,7 +367,7 @@ function hannSpectrum(
 	nfft: number
 ): Float64Array {
 	const len = hann.length;
-	const seg = new Float64Array(len);
+	const seg = (segBuffer = segBuffer?.length === len ? segBuffer : new Float64Array(len));
 	let wsum = 0;
 	for (let i = 0; i < len; i++) {
 		seg[i] = x[from + i] * hann[i];
@@ -478,8 +480,21 @@ export function findTones(x: Float64Array, fs: number, fMax: number): number[] {
 	const nfft = nextPow2(len);
 	const hann = new Float64Array(len);
 	for (let i = 0; i < len; i++) hann[i] = 0.5 - 0.5 * Math.cos((2 * Math.PI * i) / (len - 1));
+	const bins0 = nfft / 2 + 1;
+	const kMax0 = Math.min(bins0 - 2, Math.floor((fMax / fs) * nfft));
+	// a tone is in the first and the last eighth alike: when no line stands in both, there is
+	// none, and the six spectra between are not needed (the common case, a stopped machine)
+	const first = hannSpectrum(x, 0, hann, nfft);
+	const last = hannSpectrum(x, (TONE_SEGMENTS - 1) * len, hann, nfft);
+	const both = new Float64Array(bins0);
+	for (let k = 1; k <= kMax0; k++)
+		both[k] = Math.min(
+			Math.max(first[k - 1], first[k], first[k + 1]),
+			Math.max(last[k - 1], last[k], last[k + 1])
+		);
+	if (findPeaks(both, 4, kMax0, 8 * medianLevel(both, 4, kMax0), 2).length === 0) return [];
 	const spectra = Array.from({ length: TONE_SEGMENTS }, (_, s) =>
-		hannSpectrum(x, s * len, hann, nfft)
+		s === 0 ? first : s === TONE_SEGMENTS - 1 ? last : hannSpectrum(x, s * len, hann, nfft)
 	);
 	// the segments the hit rings in (RMS well above the median segment's) leak its modes into
 	// every bin nearby: the steadiness test leaves them out
@@ -495,12 +510,16 @@ export function findTones(x: Float64Array, fs: number, fMax: number): number[] {
 	const bins = spectra[0].length;
 	const kMax = Math.min(bins - 2, Math.floor((fMax / fs) * nfft));
 	// the lowest level across the segments, per bin (±1 bin: a tone's line may sit between bins)
-	const low = new Float64Array(bins);
-	for (let k = 1; k < bins - 1; k++) {
-		let m = Infinity;
-		for (const sp of spectra) m = Math.min(m, Math.max(sp[k - 1], sp[k], sp[k + 1]));
-		low[k] = m;
-	}
+	const low = new Float64Array(bins).fill(Infinity);
+	low[0] = 0;
+	low[bins - 1] = 0;
+	for (const sp of spectra)
+		for (let k = 1, end = Math.min(bins - 1, kMax + 2); k < end; k++) {
+			let v = sp[k - 1] > sp[k] ? sp[k - 1] : sp[k];
+			if (sp[k + 1] > v) v = sp[k + 1];
+			if (v < low[k]) low[k] = v;
+		}
+	for (let k = Math.min(bins - 1, kMax + 2); k < bins; k++) low[k] = 0;
 	const floor = medianLevel(low, 4, kMax);
 	const df = fs / nfft;
 	const tones: number[] = [];
@@ -569,6 +588,7 @@ function withoutTones(
 	use: (i: number) => boolean,
 	refine = 0
 ): { rest: Float64Array; tones: Tone[] } {
+	if (frequencies.length === 0) return { rest: x, tones: [] };
 	const rest = Float64Array.from(x);
 	const fit = frequencies.map((f) => ({ f, a: 0, b: 0 }));
 	const add = (t: { f: number; a: number; b: number }, sign: number) => {
@@ -978,9 +998,11 @@ function peakCandidates(
 		.filter((p) => p.prominence >= least)
 		.sort((a, b) => b.prominence - a.prominence);
 	const kept: typeof peaks = [];
-	for (const p of peaks)
+	for (const p of peaks) {
+		if (kept.length >= maxModes + 2) break; // most prominent first: the rest cannot enter
 		if (kept.every((q) => Math.abs(q.bin - p.bin) * df >= 2 * resolution)) kept.push(p);
-	return { list: kept.slice(0, maxModes + 2), tallest };
+	}
+	return { list: kept, tallest };
 }
 
 /** Chart data, decimated without building full-length arrays. */
