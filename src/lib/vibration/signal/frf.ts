@@ -3,8 +3,14 @@
  * the H1 frequency response function averaged over the accepted hits, and the ordinary coherence
  * (Ewins, Modal Testing §3; Brown, Allemang & Phillips, IMAC 2015 on double hits and overloads).
  *   H1(f) = Σ conj(F)·X / Σ |F|²,   γ²(f) = |Σ conj(F)·X|² / (Σ|F|² · Σ|X|²)
- * A force window keeps the pulse and zeroes the force record after it; the response may take an
- * exponential window (its added damping is subtracted from the modes).
+ *   H2(f) = Σ|X|² / Σ F·conj(X)   (the two bracket the true FRF: H1 low under response noise,
+ *   H2 high under force noise; ISO 7626-5 for impact excitation)
+ * A force window keeps the pulse and zeroes the force record after it. An exponential window,
+ * when asked for, starts at the trigger and weighs force and response alike, so |H| is not scaled
+ * by the pre-trigger; its added damping Δζ = 1/(ω·τ_w) is subtracted from the modes. The usable
+ * band ends where the force spectrum has fallen `forceDropDb` (default 10 dB) below its level at
+ * the low end: above it the hammer put in too little to measure, and no peak there is a mode.
+ * Coherence is 1 by definition with a single hit: it is reported only from three averages on.
  */
 import { positive, VibrationInputError, integerAtLeast } from '../errors.ts';
 import { bucketMax, realFft } from './spectrum.ts';
@@ -25,14 +31,22 @@ export interface FrfMode {
 	qFactor: number | null;
 	/** |H1| at the peak (response unit per force unit) */
 	amplitude: number;
-	coherence: number;
+	/** |H2| at the same frequency; above |H1| by the noise on the force */
+	h2Amplitude: number;
+	/** ordinary coherence at the peak; null below three averages, where it means nothing */
+	coherence: number | null;
 	flags: ('low-coherence' | 'coarse-resolution')[];
 }
+
+/** Averages below which coherence is not reported. */
+export const MIN_COHERENCE_AVERAGES = 3;
 
 export interface ImpactResult {
 	hits: Hit[];
 	averages: number;
 	resolutionHz: number;
+	/** the band the hammer excited: up to where its spectrum fell by forceDropDb */
+	usableBandHz: [number, number];
 	modes: FrfMode[];
 	/** for charts (≤ 2048 points) */
 	frf: { frequencyHz: number[]; magnitude: number[]; coherence: number[] };
@@ -44,6 +58,8 @@ export interface ImpactOptions {
 	/** pre-trigger as a fraction of the segment (default 0.05) */
 	preTrigger?: number;
 	exponentialWindowS?: number | null;
+	/** the fall of the force spectrum, dB below its low-frequency level, that ends the band (default 10) */
+	forceDropDb?: number;
 	maxModes?: number;
 	minProminence?: number;
 	maxFrequencyHz?: number;
@@ -148,10 +164,13 @@ export function analyzeImpact(
 		}
 		const f = new Float64Array(seg);
 		const x = new Float64Array(seg);
-		const pulseEnd = h.index - s0 + h.width * 3;
+		const trig = h.index - s0;
+		const pulseEnd = trig + h.width * 3;
 		for (let i = 0; i < seg; i++) {
-			f[i] = i <= pulseEnd ? force[s0 + i] : 0; // force window
-			x[i] = response[s0 + i] * (tauW ? Math.exp(-i / fs / tauW) : 1);
+			// exponential window from the trigger, on both channels
+			const w = tauW && i > trig ? Math.exp(-(i - trig) / fs / tauW) : 1;
+			f[i] = i <= pulseEnd ? force[s0 + i] * w : 0; // force window
+			x[i] = response[s0 + i] * w;
 		}
 		const F = realFft(f, nfft);
 		const X = realFft(x, nfft);
@@ -168,14 +187,18 @@ export function analyzeImpact(
 	if (averages === 0)
 		throw new VibrationInputError('force channel', 'a hit with a full segment after it', 0);
 	const mag = new Float64Array(half + 1);
+	const mag2 = new Float64Array(half + 1);
 	const coh = new Float64Array(half + 1);
 	for (let k = 0; k <= half; k++) {
 		mag[k] = gff[k] > 0 ? Math.hypot(gre[k], gim[k]) / gff[k] : 0;
+		const gfx = Math.hypot(gre[k], gim[k]);
+		mag2[k] = gfx > 0 ? gxx[k] / gfx : 0;
 		coh[k] = gff[k] > 0 && gxx[k] > 0 ? (gre[k] ** 2 + gim[k] ** 2) / (gff[k] * gxx[k]) : 0;
 	}
 	const df = fs / nfft;
 	const resolution = fs / seg;
-	const fMax = Math.min(options.maxFrequencyHz ?? Infinity, 0.45 * fs);
+	const kBand = usableBandEnd(gff, positive('forceDropDb', options.forceDropDb ?? 10));
+	const fMax = Math.min(options.maxFrequencyHz ?? Infinity, 0.45 * fs, kBand * df);
 	const kMax = Math.floor(fMax / df);
 	let tallest = 0;
 	for (let k = 2; k <= kMax; k++) tallest = Math.max(tallest, mag[k]);
@@ -191,14 +214,17 @@ export function analyzeImpact(
 		const windowDamping = tauW ? 1 / (2 * Math.PI * f * tauW) : 0;
 		const zeta = hp ? Math.max(0, ((hp[1] - hp[0]) * df) / (2 * f) - windowDamping) : null;
 		const flags: FrfMode['flags'] = [];
-		if (coh[p.bin] < 0.9) flags.push('low-coherence');
+		const coherence = averages >= MIN_COHERENCE_AVERAGES ? coh[p.bin] : null;
+		if (coherence !== null && coherence < 0.9) flags.push('low-coherence');
+
 		if (hp && (hp[1] - hp[0]) * df < 5 * resolution) flags.push('coarse-resolution');
 		return {
 			frequencyHz: f,
 			dampingRatio: zeta && zeta > 0 ? zeta : null,
 			qFactor: zeta && zeta > 0 ? 1 / (2 * zeta) : null,
 			amplitude: ip.height,
-			coherence: coh[p.bin],
+			h2Amplitude: interpolatePeak(mag2, p.bin).height,
+			coherence,
 			flags
 		};
 	});
@@ -209,15 +235,29 @@ export function analyzeImpact(
 		(k) => mag[k],
 		(k) => k * df
 	);
-	const cohDec = dec.x.map((fx) => coh[Math.round(fx / df)]);
+	const cohDec =
+		averages >= MIN_COHERENCE_AVERAGES ? dec.x.map((fx) => coh[Math.round(fx / df)]) : [];
 	progress(1);
 	return {
 		hits,
 		averages,
 		resolutionHz: resolution,
+		usableBandHz: [0, kMax * df],
 		modes,
 		frf: { frequencyHz: dec.x, magnitude: dec.y, coherence: cohDec }
 	};
+}
+
+/**
+ * The last bin of the band the hammer excited: the first where the force autospectrum falls
+ * `dropDb` below its level at the low end (the median of bins 1–8).
+ */
+function usableBandEnd(gff: Float64Array, dropDb: number): number {
+	const low = Array.from(gff.subarray(1, 9)).sort((a, b) => a - b)[4] ?? 0;
+	const floor = low * 10 ** (-dropDb / 10); // gff is a power spectrum
+	let k = 1;
+	while (k < gff.length - 1 && gff[k] >= floor) k++;
+	return k;
 }
 
 function nextHitGap(h: Hit, hits: Hit[], length: number): number {
