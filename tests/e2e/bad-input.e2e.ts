@@ -750,6 +750,12 @@ test.describe('bad input is refused with a message and changes nothing', () => {
 			await upload('t,a\n0,1\n', 'text/csv', { sampleRateHz: '-5' }),
 			'negative rate'
 		);
+		// 100,000 columns with a number in each (under this server's 512 kB body limit; the parser
+		// test takes a million): the first version built a 32 kB column per cell, 3.2 GB
+		const wide = Array.from({ length: 100_000 }, () => '1').join(',');
+		const refused = await upload(`${wide}\n`, 'text/csv', { sampleRateHz: '1000' });
+		expect(refused.status).toBe(422); // the upload's own answer to a file it cannot read
+		expect((await refused.json()).message).toMatch(/has 100,000 columns/);
 		const pathological = fc.oneof(
 			fc.string({ maxLength: 500 }),
 			fc.uint8Array({ maxLength: 2000 }).map((b) => Buffer.from(b)),

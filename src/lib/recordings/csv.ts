@@ -6,6 +6,7 @@
  */
 import Papa from 'papaparse';
 import {
+	MAX_CHANNELS,
 	RecordingError,
 	checkChannels,
 	checkSampleRate,
@@ -48,6 +49,13 @@ export class CsvCollector {
 	rows(rows: string[][]): void {
 		for (const raw of rows) {
 			this.#row++;
+			// a row wider than any recording is refused before its cells are looked at: one
+			// million columns once meant one million growable columns
+			if (raw.length > MAX_CHANNELS + 1)
+				throw new RecordingError(
+					`Row ${this.#row} has ${raw.length.toLocaleString('en')} columns; a recording has at most ${MAX_CHANNELS} channels and a time column.`,
+					{ row: this.#row }
+				);
 			const cells = raw.map((c) => c.trim());
 			if (cells.length === 1 && cells[0] === '') continue; // blank line
 			if (this.#columns === null) {

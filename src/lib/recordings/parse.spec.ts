@@ -191,3 +191,17 @@ describe('one way into a recording', () => {
 		);
 	});
 });
+
+describe('a CSV far wider than a recording', () => {
+	it('is refused at its first row with the count, before any column is built', () => {
+		// the first version built a growable column per cell of the header: 1,000,000 of them
+		const header = Array.from({ length: 1_000_000 }, (_, i) => `c${i}`).join(',');
+		expect(() => parseCsvText(`${header}\n1,2,3`, 'wide.csv', 1000)).toThrow(
+			'Row 1 has 1,000,000 columns; a recording has at most 16 channels and a time column.'
+		);
+		const seventeen = Array.from({ length: 17 }, (_, i) => `${i}`).join(',');
+		expect(() => parseCsvText(`time,${seventeen}\n`, 'wide.csv', null)).toThrow(
+			/Row 1 has 18 columns/
+		);
+	});
+});
