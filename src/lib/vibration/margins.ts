@@ -400,6 +400,76 @@ function validLines(lines: readonly ExcitationLine[]): ExcitationLine[] {
  * Every mode × excitation pair of a check, at the measured speed and over the operating envelope,
  * with required margins from the rule and the verdicts.
  */
+/** The modes' natural frequencies and amplification factors (1/(2ζ), null without ζ), checked. */
+function validModes(modes: readonly Mode[]): { fns: Float64Array; afs: (number | null)[] } {
+	if (!Array.isArray(modes)) throw new VibrationInputError('modes', 'a list', modes);
+	const n = modes.length;
+	const fns = new Float64Array(n);
+	const afs: (number | null)[] = new Array(n);
+	for (let i = 0; i < n; i++) {
+		const m = modes[i];
+		object(`modes[${i}]`, m);
+		fns[i] = positive(`modes[${i}].frequencyHz`, m.frequencyHz);
+		const z = m.dampingRatio;
+		afs[i] =
+			z === null || z === undefined ? null : 1 / (2 * positive(`modes[${i}].dampingRatio`, z));
+	}
+	return { fns, afs };
+}
+
+/** One pair's margins and requirements, written into `out` (the fleet path builds no object per pair). */
+interface Figures {
+	sm: number;
+	r: number;
+	smAt: number | null;
+	rAt: number | null;
+}
+
+function figuresInto(
+	out: Figures,
+	kind: ExcitationKind,
+	band: [number, number],
+	fe: number | null,
+	fn: number,
+	af: number | null,
+	required: RequiredFn
+): void {
+	const [lo, hi] = band;
+	let position: Position | 'inside' = 'inside';
+	out.sm = 0;
+	if (fn < lo) {
+		out.sm = ((lo - fn) / lo) * 100;
+		position = 'below';
+	} else if (fn > hi && hi > 0) {
+		out.sm = ((fn - hi) / hi) * 100;
+		position = 'above';
+	}
+	out.r = required(af, position, kind);
+	out.smAt = null;
+	out.rAt = null;
+	if (fe !== null && fe > 0) {
+		out.smAt = (Math.abs(fn - fe) / fe) * 100;
+		out.rAt = required(af, fn < fe ? 'below' : 'above', kind);
+	}
+}
+
+/**
+ * The worst pair seen, by position, built once at the end: verdict rank first, then how far the
+ * margin falls short of its requirement (as comparePairs). Ranks: 1 clear, 2 tight, 3 conflict.
+ */
+class Worst {
+	rank = 0;
+	gap = Infinity;
+	at: [number, number] = [-1, -1];
+	offer(rank: number, gap: number, line: number, mode: number): void {
+		if (rank > this.rank || (rank === this.rank && gap < this.gap)) {
+			this.rank = rank;
+			this.gap = gap;
+			this.at = [line, mode];
+		}
+	}
+}
+
 export function evaluateCheck(input: CheckInput, options: EvaluateOptions = {}): CheckResult {
 	object('check', input);
 	const range = validateSpeedRange(input.speedRange);
@@ -407,99 +477,50 @@ export function evaluateCheck(input: CheckInput, options: EvaluateOptions = {}):
 		input.measuredRpm === null || input.measuredRpm === undefined
 			? null
 			: atLeast('measuredRpm', input.measuredRpm, MIN_MEASURED_RPM, 'rpm');
-	if (!Array.isArray(input.modes)) throw new VibrationInputError('modes', 'a list', input.modes);
+	const { fns, afs } = validModes(input.modes);
 	const lines = input.lines ? validLines(input.lines) : excitationCatalogue(input.sources);
 	const envelope =
 		measured === null
 			? range
 			: { minRpm: Math.min(range.minRpm, measured), maxRpm: Math.max(range.maxRpm, measured) };
-	const n = input.modes.length;
-	const fns = new Float64Array(n);
-	const afs: (number | null)[] = new Array(n);
-	for (let i = 0; i < n; i++) {
-		const m = input.modes[i];
-		object(`modes[${i}]`, m);
-		fns[i] = positive(`modes[${i}].frequencyHz`, m.frequencyHz);
-		const z = m.dampingRatio;
-		afs[i] =
-			z === null || z === undefined ? null : 1 / (2 * positive(`modes[${i}].dampingRatio`, z));
-	}
+	const n = fns.length;
 	const required = compileRule(input.rule);
 	const detail = options.pairs !== false;
 	const pairs: PairResult[] = [];
 	// ranks: 0 unchecked, 1 clear, 2 tight, 3 conflict
 	let rank = n === 0 ? 0 : 1;
 	let rankAtSpeed = n === 0 || measured === null ? 0 : 1;
-	// the worst pairs are remembered by position and built once at the end. Order: verdict first,
-	// then how far the margin falls short of its requirement (as comparePairs).
-	let worstRank = 0;
-	let worstGap = Infinity;
-	let worstRangeAt: [number, number] = [-1, -1];
-	let worstRankAt = 0;
-	let worstGapAt = Infinity;
-	let worstSpeedAt: [number, number] = [-1, -1];
+	const worst = new Worst();
+	const worstAt = new Worst();
+	const f: Figures = { sm: 0, r: 0, smAt: null, rAt: null };
 	const bands: [number, number][] = new Array(lines.length);
 	const fes: (number | null)[] = new Array(lines.length);
 	for (let l = 0; l < lines.length; l++) {
 		const line = lines[l];
-		const kind = line.kind;
-		if (!ALLOWED_KINDS.includes(kind))
-			throw new VibrationInputError('excitation kind', EXCITATION_KINDS.join(', '), kind);
+		if (!ALLOWED_KINDS.includes(line.kind))
+			throw new VibrationInputError('excitation kind', EXCITATION_KINDS.join(', '), line.kind);
 		const band = (bands[l] = lineBandHz(line, envelope.minRpm, envelope.maxRpm));
 		const fe = (fes[l] = measured === null ? null : lineFrequencyHz(line, measured));
-		const lo = band[0];
-		const hi = band[1];
 		for (let i = 0; i < n; i++) {
-			const fn = fns[i];
-			const af = afs[i];
-			// the figures once per pair: from the pair itself when the table is kept, else inline
-			// (the fleet path builds no object per pair)
-			let sm = 0;
-			let r: number;
-			let smAt: number | null = null;
-			let rAt: number | null = null;
 			if (detail) {
-				const p = pairOf(line, band, fe, fn, af, i, required);
+				// the table kept: the figures from the pair itself
+				const p = pairOf(line, band, fe, fns[i], afs[i], i, required);
 				pairs.push(p);
-				sm = p.marginOverRangePct;
-				r = p.requiredOverRangePct;
-				smAt = p.marginAtSpeedPct;
-				rAt = p.requiredAtSpeedPct;
-			} else {
-				let position: Position | 'inside' = 'inside';
-				if (fn < lo) {
-					sm = ((lo - fn) / lo) * 100;
-					position = 'below';
-				} else if (fn > hi && hi > 0) {
-					sm = ((fn - hi) / hi) * 100;
-					position = 'above';
-				}
-				r = required(af, position, kind);
-				if (fe !== null && fe > 0) {
-					smAt = (Math.abs(fn - fe) / fe) * 100;
-					rAt = required(af, fn < fe ? 'below' : 'above', kind);
-				}
-			}
-			const k = rankOf(sm, r);
+				f.sm = p.marginOverRangePct;
+				f.r = p.requiredOverRangePct;
+				f.smAt = p.marginAtSpeedPct;
+				f.rAt = p.requiredAtSpeedPct;
+			} else figuresInto(f, line.kind, band, fe, fns[i], afs[i], required);
+			const k = rankOf(f.sm, f.r);
 			if (k > rank) rank = k;
-			if (k > worstRank || (k === worstRank && sm - r < worstGap)) {
-				worstRank = k;
-				worstGap = sm - r;
-				worstRangeAt = [l, i];
-			}
-			if (smAt !== null && rAt !== null) {
-				const kAt = rankOf(smAt, rAt);
+			worst.offer(k, f.sm - f.r, l, i);
+			if (f.smAt !== null && f.rAt !== null) {
+				const kAt = rankOf(f.smAt, f.rAt);
 				if (kAt > rankAtSpeed) rankAtSpeed = kAt;
-				if (kAt > worstRankAt || (kAt === worstRankAt && smAt - rAt < worstGapAt)) {
-					worstRankAt = kAt;
-					worstGapAt = smAt - rAt;
-					worstSpeedAt = [l, i];
-				}
+				worstAt.offer(kAt, f.smAt - f.rAt, l, i);
 			}
 		}
 	}
-	const verdict: AssetVerdict = rank === 0 ? 'unchecked' : RANKED[rank];
-	const verdictAtSpeed: AssetVerdict = rankAtSpeed === 0 ? 'unchecked' : RANKED[rankAtSpeed];
 	const build = ([l, i]: [number, number]) =>
 		l < 0 ? null : pairOf(lines[l], bands[l], fes[l], fns[i], afs[i], i, required);
 	return {
@@ -508,10 +529,10 @@ export function evaluateCheck(input: CheckInput, options: EvaluateOptions = {}):
 		measuredOutsideRange: measured !== null && (measured < range.minRpm || measured > range.maxRpm),
 		lines,
 		pairs,
-		verdict,
-		verdictAtSpeed,
-		worstAtSpeed: build(worstSpeedAt),
-		worstOverRange: build(worstRangeAt)
+		verdict: rank === 0 ? 'unchecked' : RANKED[rank],
+		verdictAtSpeed: rankAtSpeed === 0 ? 'unchecked' : RANKED[rankAtSpeed],
+		worstAtSpeed: build(worstAt.at),
+		worstOverRange: build(worst.at)
 	};
 }
 
