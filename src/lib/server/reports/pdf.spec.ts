@@ -4,7 +4,7 @@ import { desc, eq } from 'drizzle-orm';
 import { PDFParse } from 'pdf-parse';
 import { freshDatabase } from '../test-db.ts';
 import { db } from '../db/index.ts';
-import { assets, checks } from '../db/schema.ts';
+import { assets, checks, modes, ruleSets } from '../db/schema.ts';
 import { assetReport, checkReport, CAUTIONS } from './pdf.ts';
 import { computeCheck } from '../../checks/compute.ts';
 import * as assetQueries from '../db/assets.ts';
@@ -75,5 +75,35 @@ describe('PDF reports', () => {
 		} finally {
 			db.update(assets).set({ name: asset.name }).where(eq(assets.id, asset.id)).run();
 		}
+	});
+
+	it('prints the remark of a line that sweeps across a mode the rule lets pass', async () => {
+		// LBM-IDF-110 runs 500–1,190 rpm (8.3–19.8 Hz at 1×): a 15 Hz mode with ζ 0.25 (AF 2) is
+		// crossed, and under the amplification rule needs no margin, so it reads "clear" with a remark
+		const asset = db.select().from(assets).where(eq(assets.tag, 'LBM-IDF-110')).get()!;
+		const rule = db.select().from(ruleSets).where(eq(ruleSets.kind, 'amplification')).get()!;
+		db.update(assets).set({ ruleSetId: rule.id }).where(eq(assets.id, asset.id)).run();
+		const check = db
+			.select()
+			.from(checks)
+			.where(eq(checks.assetId, asset.id))
+			.orderBy(desc(checks.checkedAt))
+			.limit(1)
+			.get()!;
+		db.insert(modes)
+			.values({
+				id: crypto.randomUUID(),
+				checkId: check.id,
+				frequencyHz: 15,
+				dampingRatio: 0.25,
+				direction: 'horizontal',
+				location: null,
+				origin: 'typed',
+				recordingId: null
+			})
+			.run();
+		const text = await textOf((await checkReport(check.id))!.pdf);
+		expect(text).toContain('15.00 Hz ×');
+		expect(text).toContain('the rule asks no margin (amplification factor below 2.5');
 	});
 });

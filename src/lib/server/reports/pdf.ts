@@ -335,6 +335,14 @@ function checkSection(doc: PDFKit.PDFDocument, d: NonNullable<ReturnType<typeof 
 		]),
 		[62, 96, 58, 60, 50, 62, 50, 52]
 	);
+	// what a bare "clear" would hide (a line sweeping across a mode the rule lets pass)
+	for (const p of pairs.filter((q) => q.remark))
+		doc
+			.fontSize(8)
+			.fillColor(muted)
+			.text(`${p.naturalHz.toFixed(2)} Hz × ${p.label}: ${p.remark}`)
+			.fillColor(ink)
+			.fontSize(9.5);
 	heading(doc, 'Avoidance bands');
 	if (c.bands.bands.length === 0) doc.text('No speed in the range is inside a required margin.');
 	for (const b of c.bands.bands)
