@@ -16,8 +16,7 @@ import { fillPlaceholders } from 'drizzle-orm';
 import { openDatabase, runMigrations } from '../../src/lib/server/db/client.ts';
 import { demoId } from '../../src/lib/server/db/seed.ts';
 import { buildFleet, type FleetSize } from './fleet-db.ts';
-import { startServer, signInCookie } from './server.ts';
-import { checkItem } from '../support/check-item.ts';
+import { benchCheck, pushAll, startServer, signInCookie } from './server.ts';
 import { percentile, type Figure } from './harness.ts';
 
 const SIZES: FleetSize[] = [
@@ -143,29 +142,9 @@ async function measurePush(origin: string, cookie: string, file: string): Promis
 	sqlite.close();
 	const step = Math.max(1, Math.floor(ids.length / PUSHED));
 	const items = Array.from({ length: PUSHED }, (_, i) =>
-		checkItem(ids[(i * step) % ids.length], 600 + (i % 120) * 10, {
-			checkedAt: Date.now() - i * 1000,
-			modes: [
-				{ hz: 10 + (i % 50), zeta: 0.02 },
-				{ hz: 60 + (i % 30), zeta: null, direction: 'vertical' }
-			]
-		})
+		benchCheck(ids[(i * step) % ids.length], 600 + (i % 120) * 10, i)
 	);
-	const t0 = performance.now();
-	let applied = 0;
-	for (let i = 0; i < items.length; i += BATCH) {
-		const res = await fetch(`${origin}/api/sync/push`, {
-			method: 'POST',
-			headers: { 'content-type': 'application/json', cookie, origin },
-			body: JSON.stringify({ clientId: 'bench-scale', items: items.slice(i, i + BATCH) })
-		});
-		const body = await res.json();
-		if (!res.ok) throw new Error(`push answered ${res.status}: ${JSON.stringify(body)}`);
-		applied += body.results.filter((r: { status: string }) => r.status === 'applied').length;
-	}
-	const seconds = (performance.now() - t0) / 1000;
-	if (applied !== PUSHED) throw new Error(`only ${applied} of ${PUSHED} checks applied`);
-	return PUSHED / seconds;
+	return (await pushAll(origin, cookie, items, BATCH, 'bench-scale')).perSecond;
 }
 
 async function measure(size: FleetSize, port: number): Promise<Measured> {

@@ -1,5 +1,6 @@
 /** The built app for the benchmarks: a throw-away database, and quiet about the made-up checks. */
 import { startBuiltServer, type BuiltServer } from '../support/built-server.ts';
+import { checkItem } from '../support/check-item.ts';
 
 export { signInCookie, withDatabase } from '../support/built-server.ts';
 
@@ -29,4 +30,44 @@ export async function startServer(
 				);
 		}
 	};
+}
+
+/** A made-up check for the push benchmarks: two modes that vary with `i`. */
+export function benchCheck(assetId: string, rpm: number, i: number) {
+	return checkItem(assetId, rpm, {
+		checkedAt: Date.now() - i * 1000,
+		modes: [
+			{ hz: 10 + (i % 50), zeta: 0.02 },
+			{ hz: 60 + (i % 30), zeta: null, direction: 'vertical' }
+		]
+	});
+}
+
+/**
+ * Pushes `items` in batches as the tablet's outbox does and answers the checks per second; every
+ * item must come back "applied".
+ */
+export async function pushAll(
+	origin: string,
+	cookie: string,
+	items: unknown[],
+	batch: number,
+	clientId: string
+): Promise<{ seconds: number; perSecond: number }> {
+	const t0 = performance.now();
+	let applied = 0;
+	for (let i = 0; i < items.length; i += batch) {
+		const res = await fetch(`${origin}/api/sync/push`, {
+			method: 'POST',
+			headers: { 'content-type': 'application/json', cookie, origin },
+			body: JSON.stringify({ clientId, items: items.slice(i, i + batch) })
+		});
+		const body = await res.json();
+		if (!res.ok) throw new Error(`push answered ${res.status}: ${JSON.stringify(body)}`);
+		applied += body.results.filter((r: { status: string }) => r.status === 'applied').length;
+	}
+	const seconds = (performance.now() - t0) / 1000;
+	if (applied !== items.length)
+		throw new Error(`only ${applied} of ${items.length} checks applied`);
+	return { seconds, perSecond: items.length / seconds };
 }

@@ -4,8 +4,7 @@
  */
 import { gzipSync } from 'node:zlib';
 import { chromium } from '@playwright/test';
-import { startServer, signInCookie } from './server.ts';
-import { checkItem } from '../support/check-item.ts';
+import { benchCheck, pushAll, startServer, signInCookie } from './server.ts';
 import type { Figure } from './harness.ts';
 
 export async function syncBench(): Promise<Figure[]> {
@@ -18,27 +17,9 @@ export async function syncBench(): Promise<Figure[]> {
 		const assets = pull.assets as { id: string; minRpm: number; maxRpm: number }[];
 		const items = Array.from({ length: 500 }, (_, i) => {
 			const a = assets[i % assets.length];
-			return checkItem(a.id, (a.minRpm + a.maxRpm) / 2, {
-				checkedAt: Date.now() - i * 1000,
-				modes: [
-					{ hz: 10 + (i % 50), zeta: 0.02 },
-					{ hz: 60 + (i % 30), zeta: null, direction: 'vertical' }
-				]
-			});
+			return benchCheck(a.id, (a.minRpm + a.maxRpm) / 2, i);
 		});
-		const t0 = performance.now();
-		let applied = 0;
-		for (let i = 0; i < items.length; i += 20) {
-			const res = await fetch(`${server.origin}/api/sync/push`, {
-				method: 'POST',
-				headers: { 'content-type': 'application/json', cookie, origin: server.origin },
-				body: JSON.stringify({ clientId: 'bench', items: items.slice(i, i + 20) })
-			});
-			const body = await res.json();
-			applied += body.results.filter((r: { status: string }) => r.status === 'applied').length;
-		}
-		const seconds = (performance.now() - t0) / 1000;
-		if (applied !== 500) throw new Error(`only ${applied} of 500 checks applied`);
+		const { seconds } = await pushAll(server.origin, cookie, items, 20, 'bench');
 
 		// the JavaScript Floor check loads, gzipped as a server or proxy would send it
 		const browser = await chromium.launch({

@@ -10,15 +10,15 @@ import {
 	type CheckInput
 } from './index.ts';
 
-describe('avoidance bands', () => {
-	const pump: CheckInput = {
-		speedRange: { minRpm: 600, maxRpm: 1800 },
-		measuredRpm: 1450,
-		sources: [{ id: 's', kind: 'shaft', orders: [1] }],
-		modes: [{ frequencyHz: 24 }],
-		rule: { kind: 'fixed', percent: 10 }
-	};
+const pump: CheckInput = {
+	speedRange: { minRpm: 600, maxRpm: 1800 },
+	measuredRpm: 1450,
+	sources: [{ id: 's', kind: 'shaft', orders: [1] }],
+	modes: [{ frequencyHz: 24 }],
+	rule: { kind: 'fixed', percent: 10 }
+};
 
+describe('avoidance bands', () => {
 	it('maps a 24 Hz structure on a 4-pole direct-drive pump to shaft rpm and drive Hz (domain.md §6.3 example [C])', () => {
 		const plan = avoidanceBands(pump, { poles: 4, motorRpmPerShaftRpm: 1 });
 		expect(plan.bands).toHaveLength(1);
@@ -148,30 +148,22 @@ describe('slip and poles (motor nameplate arithmetic, common practice)', () => {
 	});
 
 	it('gives drive Hz with the slip: f = p · n / (120 (1 − s))', () => {
-		const plan = avoidanceBands(pumpForSlip, { poles: 4, motorRpmPerShaftRpm: 1, slip: 0.02 });
+		const plan = avoidanceBands(pump, { poles: 4, motorRpmPerShaftRpm: 1, slip: 0.02 });
 		const [b] = plan.bands;
 		expect(b.driveLowHz).toBeCloseTo((b.lowRpm * 4) / (120 * 0.98), 9);
 		expect(plan.slipNote).toMatch(/include the motor’s slip of 2 %/);
 	});
 
 	it('refuses an odd pole count and an impossible slip', () => {
-		expect(() => avoidanceBands(pumpForSlip, { poles: 3 })).toThrow(/even number/);
+		expect(() => avoidanceBands(pump, { poles: 3 })).toThrow(/even number/);
 		expect(() =>
 			excitationCatalogue([
 				{ id: 'l', kind: 'line', lineFrequencyHz: 50, drive: { poles: 5, motorRpmPerShaftRpm: 1 } }
 			])
 		).toThrow(/even number/);
-		expect(() => avoidanceBands(pumpForSlip, { poles: 4, slip: 0.5 })).toThrow(/slip/);
+		expect(() => avoidanceBands(pump, { poles: 4, slip: 0.5 })).toThrow(/slip/);
 	});
 });
-
-const pumpForSlip: CheckInput = {
-	speedRange: { minRpm: 600, maxRpm: 1800 },
-	measuredRpm: 1450,
-	sources: [{ id: 's', kind: 'shaft', orders: [1] }],
-	modes: [{ frequencyHz: 24 }],
-	rule: { kind: 'fixed', percent: 10 }
-};
 
 describe('remedies', () => {
 	const input: CheckInput = {

@@ -21,16 +21,19 @@ const textOf = async (pdf: Buffer) => {
 	return r.text.replace(/\s+/g, ' ');
 };
 
+const latestCheck = (assetId: string) =>
+	db
+		.select()
+		.from(checks)
+		.where(eq(checks.assetId, assetId))
+		.orderBy(desc(checks.checkedAt))
+		.limit(1)
+		.get()!;
+
 describe('PDF reports', () => {
 	it('a check report holds the asset tag, every margin, the verdict and the cautions', async () => {
 		const asset = db.select().from(assets).where(eq(assets.tag, 'KRW-RWP-103')).get()!;
-		const check = db
-			.select()
-			.from(checks)
-			.where(eq(checks.assetId, asset.id))
-			.orderBy(desc(checks.checkedAt))
-			.limit(1)
-			.get()!;
+		const check = latestCheck(asset.id);
 		const r = await checkReport(check.id);
 		expect(r!.pdf.subarray(0, 5).toString()).toBe('%PDF-');
 		const text = await textOf(r!.pdf);
@@ -83,13 +86,7 @@ describe('PDF reports', () => {
 		const asset = db.select().from(assets).where(eq(assets.tag, 'LBM-IDF-110')).get()!;
 		const rule = db.select().from(ruleSets).where(eq(ruleSets.kind, 'amplification')).get()!;
 		db.update(assets).set({ ruleSetId: rule.id }).where(eq(assets.id, asset.id)).run();
-		const check = db
-			.select()
-			.from(checks)
-			.where(eq(checks.assetId, asset.id))
-			.orderBy(desc(checks.checkedAt))
-			.limit(1)
-			.get()!;
+		const check = latestCheck(asset.id);
 		db.insert(modes)
 			.values({
 				id: crypto.randomUUID(),

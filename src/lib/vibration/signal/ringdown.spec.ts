@@ -349,30 +349,38 @@ describe('bump tests on a running machine (closed-form modes plus steady tones)'
 	);
 });
 
+/**
+ * The response of x″ + 2ζω x′ + ω² x = F(t) from rest, sampled at fs, by ODEX (an integrator from
+ * the registry, independent of the analysis).
+ */
+function odexResponse(fs: number, n: number, f: number, zeta: number, F: (t: number) => number) {
+	const w = 2 * Math.PI * f;
+	const solver = new Solver(2);
+	solver.absoluteTolerance = 1e-12;
+	solver.relativeTolerance = 1e-10;
+	solver.maxSteps = 1e6;
+	const x = new Float64Array(n);
+	let y = [0, 0];
+	for (let i = 1; i < n; i++) {
+		y = solver.solve(
+			(t, s) => [s[1], -2 * zeta * w * s[1] - w * w * s[0] + F(t)],
+			(i - 1) / fs,
+			y,
+			i / fs
+		).y;
+		x[i] = y[0];
+	}
+	return x;
+}
+
 describe('against an independent integrator', () => {
 	it('recovers f and ζ from the ODEX response of m x″ + c x′ + k x = F(t) to a half-sine pulse', () => {
 		const fs = 2048;
 		const f = 31;
 		const zeta = 0.025;
-		const w = 2 * Math.PI * f;
 		const pulse = 0.003; // 3 ms hammer contact
 		const F = (t: number) => (t < pulse ? Math.sin((Math.PI * t) / pulse) : 0);
-		const solver = new Solver(2);
-		solver.absoluteTolerance = 1e-12;
-		solver.relativeTolerance = 1e-10;
-		solver.maxSteps = 1e6;
-		const n = fs * 6;
-		const x = new Float64Array(n);
-		let y = [0, 0];
-		for (let i = 1; i < n; i++) {
-			y = solver.solve(
-				(t, s) => [s[1], -2 * zeta * w * s[1] - w * w * s[0] + F(t)],
-				(i - 1) / fs,
-				y,
-				i / fs
-			).y;
-			x[i] = y[0];
-		}
+		const x = odexResponse(fs, fs * 6, f, zeta, F);
 		const r = analyzeRingdown(x, fs);
 		expect(Math.abs(r.modes[0].frequencyHz - f) / f).toBeLessThan(0.005);
 		expect(Math.abs((r.modes[0].dampingRatio as number) - zeta) / zeta).toBeLessThan(0.2);
@@ -383,27 +391,11 @@ describe('against an independent integrator', () => {
 		const fs = 2048;
 		const f = 57;
 		const zeta = 0.03;
-		const w = 2 * Math.PI * f;
 		const t0 = 0.4;
 		const pulse = 0.002;
 		const F = (t: number) =>
 			t >= t0 && t < t0 + pulse ? Math.sin((Math.PI * (t - t0)) / pulse) : 0;
-		const solver = new Solver(2);
-		solver.absoluteTolerance = 1e-12;
-		solver.relativeTolerance = 1e-10;
-		solver.maxSteps = 1e6;
-		const n = fs * 3;
-		const resp = new Float64Array(n);
-		let y = [0, 0];
-		for (let i = 1; i < n; i++) {
-			y = solver.solve(
-				(t, s) => [s[1], -2 * zeta * w * s[1] - w * w * s[0] + F(t)],
-				(i - 1) / fs,
-				y,
-				i / fs
-			).y;
-			resp[i] = y[0];
-		}
+		const resp = odexResponse(fs, fs * 3, f, zeta, F);
 		let peak = 0;
 		for (const v of resp) peak = Math.max(peak, Math.abs(v));
 		const r0 = noise(5);

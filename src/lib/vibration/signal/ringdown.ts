@@ -268,33 +268,41 @@ function movingAverage(x: Float64Array, L: number): Float64Array {
 	return out;
 }
 
+/** A least-squares straight line y = slope·t + intercept, fed one point at a time. */
+class LineFit {
+	n = 0;
+	#st = 0;
+	#sy = 0;
+	#stt = 0;
+	#sty = 0;
+	#syy = 0;
+	add(t: number, y: number): void {
+		this.n++;
+		this.#st += t;
+		this.#sy += y;
+		this.#stt += t * t;
+		this.#sty += t * y;
+		this.#syy += y * y;
+	}
+	/** slope, intercept and R², or null with fewer than `least` points or no spread in t */
+	result(least: number): { slope: number; intercept: number; r2: number; points: number } | null {
+		const n = this.n;
+		if (n < least) return null;
+		const vt = this.#stt - (this.#st * this.#st) / n;
+		const vy = this.#syy - (this.#sy * this.#sy) / n;
+		if (vt <= 0) return null;
+		const slope = (this.#sty - (this.#st * this.#sy) / n) / vt;
+		const intercept = (this.#sy - slope * this.#st) / n;
+		return { slope, intercept, r2: vy > 0 ? (slope * slope * vt) / vy : 0, points: n };
+	}
+}
+
 /** Straight line through (t, ln env) over env[from … to), value k at time (k·step + step/2)/fs: slope, intercept, R². */
 function logLinearFit(env: Float64Array, fs: number, from: number, to: number, step: number) {
-	let n = 0;
-	let st = 0;
-	let sy = 0;
-	let stt = 0;
-	let sty = 0;
-	let syy = 0;
-	for (let i = from; i < to; i++) {
-		if (env[i] <= 0) continue;
-		const t = (i * step + step / 2) / fs;
-		const y = Math.log(env[i]);
-		n++;
-		st += t;
-		sy += y;
-		stt += t * t;
-		sty += t * y;
-		syy += y * y;
-	}
-	if (n < 8) return null;
-	const vt = stt - (st * st) / n;
-	const vy = syy - (sy * sy) / n;
-	if (vt <= 0) return null;
-	const slope = (sty - (st * sy) / n) / vt;
-	const intercept = (sy - slope * st) / n;
-	const r2 = vy > 0 ? (slope * slope * vt) / vy : 0;
-	return { slope, intercept, r2, points: n };
+	const fit = new LineFit();
+	for (let i = from; i < to; i++)
+		if (env[i] > 0) fit.add((i * step + step / 2) / fs, Math.log(env[i]));
+	return fit.result(8);
 }
 
 function validateSamples(samples: ArrayLike<number>): void {
@@ -320,11 +328,7 @@ function phaseSlope(
 	if (to - from < 8) return null;
 	let prev = Math.atan2(im[from], re[from]);
 	let unwrapped = prev;
-	let n = 0;
-	let st = 0;
-	let sy = 0;
-	let stt = 0;
-	let sty = 0;
+	const fit = new LineFit();
 	for (let i = from; i < to; i++) {
 		const ph = Math.atan2(im[i], re[i]);
 		let d = ph - prev;
@@ -332,15 +336,9 @@ function phaseSlope(
 		else if (d < -Math.PI) d += 2 * Math.PI;
 		unwrapped += d;
 		prev = ph;
-		const t = (i * step + step / 2) / fs;
-		n++;
-		st += t;
-		sy += unwrapped;
-		stt += t * t;
-		sty += t * unwrapped;
+		fit.add((i * step + step / 2) / fs, unwrapped);
 	}
-	const vt = stt - (st * st) / n;
-	return vt > 0 ? (sty - (st * sy) / n) / vt : null;
+	return fit.result(2)?.slope ?? null;
 }
 
 /**
