@@ -434,7 +434,9 @@ function figuresInto(
 	af: number | null,
 	required: RequiredFn
 ): void {
-	const [lo, hi] = band;
+	// indexed, not destructured: this runs a million times per fleet recompute
+	const lo = band[0];
+	const hi = band[1];
 	let position: Position | 'inside' = 'inside';
 	out.sm = 0;
 	if (fn < lo) {
@@ -460,12 +462,14 @@ function figuresInto(
 class Worst {
 	rank = 0;
 	gap = Infinity;
-	at: [number, number] = [-1, -1];
+	line = -1;
+	mode = -1;
 	offer(rank: number, gap: number, line: number, mode: number): void {
 		if (rank > this.rank || (rank === this.rank && gap < this.gap)) {
 			this.rank = rank;
 			this.gap = gap;
-			this.at = [line, mode];
+			this.line = line;
+			this.mode = mode;
 		}
 	}
 }
@@ -521,7 +525,7 @@ export function evaluateCheck(input: CheckInput, options: EvaluateOptions = {}):
 			}
 		}
 	}
-	const build = ([l, i]: [number, number]) =>
+	const build = ({ line: l, mode: i }: Worst) =>
 		l < 0 ? null : pairOf(lines[l], bands[l], fes[l], fns[i], afs[i], i, required);
 	return {
 		convention: MARGIN_CONVENTION,
@@ -531,8 +535,8 @@ export function evaluateCheck(input: CheckInput, options: EvaluateOptions = {}):
 		pairs,
 		verdict: rank === 0 ? 'unchecked' : RANKED[rank],
 		verdictAtSpeed: rankAtSpeed === 0 ? 'unchecked' : RANKED[rankAtSpeed],
-		worstAtSpeed: build(worstAt.at),
-		worstOverRange: build(worst.at)
+		worstAtSpeed: build(worstAt),
+		worstOverRange: build(worst)
 	};
 }
 
