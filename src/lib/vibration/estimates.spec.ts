@@ -12,6 +12,7 @@ import {
 	rectangleSecondMoment,
 	shaftDiscFrequencyHz,
 	shaftTorsionalStiffness,
+	shaftWithDiscsHz,
 	simplySupportedFrequenciesHz,
 	staticDeflectionFrequencyHz,
 	tubeSecondMoment,
@@ -192,5 +193,64 @@ describe('torsional', () => {
 			/innerDiameter must be smaller than outerDiameter/
 		);
 		expect(() => beamLambda('cantilever', 0)).toThrow(/mode must be a whole number/);
+	});
+});
+
+describe('a shaft with several discs (Dunkerley and Rayleigh)', () => {
+	const shaft = { youngsModulus: 210e9, secondMoment: tubeSecondMoment(0.06), length: 1.2 };
+	const EI = shaft.youngsModulus * shaft.secondMoment;
+
+	/**
+	 * The deflection at x under a unit load at a, found here without the closed form: the bending
+	 * moment M(s) of the simply supported shaft integrated twice on a fine grid (trapezoids), the
+	 * constant fixed by y(L) = 0.
+	 */
+	function deflection(x: number, a: number): number {
+		const L = shaft.length;
+		const n = 20_000;
+		const h = L / n;
+		const M = (s: number) => (s <= a ? ((L - a) * s) / L : (a * (L - s)) / L);
+		const slope = new Float64Array(n + 1);
+		const y = new Float64Array(n + 1);
+		for (let i = 1; i <= n; i++)
+			slope[i] = slope[i - 1] - ((M((i - 1) * h) + M(i * h)) / 2 / EI) * h;
+		for (let i = 1; i <= n; i++) y[i] = y[i - 1] + ((slope[i - 1] + slope[i]) / 2) * h;
+		const c = -y[n] / L; // add c·s so that y(L) = 0
+		const k = Math.round(x / h);
+		return y[k] + c * k * h;
+	}
+
+	it('gives the textbook answer for one disc at mid-span: ω² = 48EI/(mL³)', () => {
+		const m = 50;
+		const exact = Math.sqrt((48 * EI) / (m * shaft.length ** 3)) / (2 * Math.PI);
+		const r = shaftWithDiscsHz(shaft, [{ mass: m, position: 0.6 }]);
+		expect(r.dunkerleyHz).toBeCloseTo(exact, 9);
+		expect(r.rayleighHz).toBeCloseTo(exact, 9);
+	});
+
+	it('brackets the exact first mode of three discs: Dunkerley below, Rayleigh just above', () => {
+		const discs = [
+			{ mass: 40, position: 0.3 },
+			{ mass: 25, position: 0.7 },
+			{ mass: 15, position: 1.0 }
+		];
+		// exact: the lowest eigenfrequency of the flexibility matrix A (numerical deflections) times
+		// the mass matrix, from ml-matrix's eigen-decomposition
+		const A = new Matrix(discs.map((i) => discs.map((j) => deflection(i.position, j.position))));
+		const AM = A.mmul(Matrix.diag(discs.map((d) => d.mass)));
+		const lambda = Math.max(...new EigenvalueDecomposition(AM).realEigenvalues);
+		const exact = 1 / Math.sqrt(lambda) / (2 * Math.PI);
+		const r = shaftWithDiscsHz(shaft, discs);
+		expect(r.dunkerleyHz).toBeLessThan(exact);
+		expect(r.rayleighHz).toBeGreaterThanOrEqual(exact * (1 - 1e-6));
+		expect((r.rayleighHz - exact) / exact).toBeLessThan(0.005);
+		expect((exact - r.dunkerleyHz) / exact).toBeLessThan(0.2);
+	});
+
+	it('refuses a disc outside the bearings and an empty list', () => {
+		expect(() => shaftWithDiscsHz(shaft, [])).toThrow(/at least one disc/);
+		expect(() => shaftWithDiscsHz(shaft, [{ mass: 5, position: 1.5 }])).toThrow(
+			/between the bearings/
+		);
 	});
 });

@@ -128,6 +128,72 @@ export function twoDiscFrequencyHz(
 	return Math.sqrt((k * (j1 + j2)) / (j1 * j2)) / TWO_PI;
 }
 
+export interface DiscOnShaft {
+	/** the disc's mass, kg */
+	mass: number;
+	/** its distance from the left bearing, m (strictly between the bearings) */
+	position: number;
+}
+
+/**
+ * Deflection at x under a unit load at a on a simply supported shaft of length L (the influence
+ * coefficient, m/N): for x ≤ a, α = b·x·(L² − b² − x²)/(6EIL) with b = L − a; symmetric in x, a.
+ * Source: the beam-deflection table of any strength-of-materials handbook (Roark, simply
+ * supported beam with an intermediate load; from memory).
+ */
+function influence(x: number, a: number, L: number, EI: number): number {
+	const [p, q] = x <= a ? [x, a] : [a, x];
+	const b = L - q;
+	return (b * p * (L * L - b * b - p * p)) / (6 * EI * L);
+}
+
+/**
+ * The first bending (lateral) natural frequency of a massless shaft between two simple bearings
+ * carrying discs, two ways that bracket it:
+ * - Dunkerley (a lower bound): 1/ω² = Σ m_i·α_ii, each disc alone on the shaft;
+ * - Rayleigh with the static-deflection shape (an upper bound): y_i = g·Σ_j α_ij·m_j and
+ *   ω² = g·Σ m_i·y_i / Σ m_i·y_i².
+ * Source: Rao, Mechanical Vibrations, Dunkerley's formula and Rayleigh's method (multi-rotor
+ * shaft); Den Hartog, Mechanical Vibrations (from memory). The shaft's own mass is left out: add
+ * a disc for it, or read it as a further small lowering.
+ */
+export function shaftWithDiscsHz(
+	shaft: { youngsModulus: number; secondMoment: number; length: number },
+	discs: readonly DiscOnShaft[]
+): { dunkerleyHz: number; rayleighHz: number } {
+	const EI =
+		positive('youngsModulus', shaft.youngsModulus) * positive('secondMoment', shaft.secondMoment);
+	const L = positive('length', shaft.length);
+	if (!Array.isArray(discs) || discs.length === 0)
+		throw new VibrationInputError('discs', 'at least one disc', discs);
+	const d = discs.map((disc, i) => {
+		const m = positive(`discs[${i}].mass`, disc.mass);
+		const a = positive(`discs[${i}].position`, disc.position);
+		if (a >= L)
+			throw new VibrationInputError(
+				`discs[${i}].position`,
+				`between the bearings (below ${L} m)`,
+				a
+			);
+		return { m, a };
+	});
+	let flexSum = 0;
+	for (const { m, a } of d) flexSum += m * influence(a, a, L, EI);
+	const y = d.map(
+		({ a }) => STANDARD_GRAVITY * d.reduce((s, o) => s + o.m * influence(a, o.a, L, EI), 0)
+	);
+	let num = 0;
+	let den = 0;
+	d.forEach(({ m }, i) => {
+		num += m * y[i];
+		den += m * y[i] * y[i];
+	});
+	return {
+		dunkerleyHz: 1 / Math.sqrt(flexSum) / TWO_PI,
+		rayleighHz: Math.sqrt((STANDARD_GRAVITY * num) / den) / TWO_PI
+	};
+}
+
 /** Section helpers for the calculators: I of a rectangle b×h bending across h, b·h³/12. */
 export const rectangleSecondMoment = (width: number, height: number): number =>
 	(positive('width', width) * positive('height', height) ** 3) / 12;
