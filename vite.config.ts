@@ -2,6 +2,7 @@ import { sveltekit } from '@sveltejs/kit/vite';
 import tailwindcss from '@tailwindcss/vite';
 import { SvelteKitPWA } from '@vite-pwa/sveltekit';
 import { defineConfig } from 'vitest/config';
+import { svelteTesting } from '@testing-library/svelte/vite';
 
 /** A revision for the pages the service worker keeps (they change with every build). */
 const BUILD = Date.now().toString(36);
@@ -67,11 +68,30 @@ export default defineConfig({
 		})
 	],
 	test: {
-		include: ['src/**/*.spec.ts', 'tests/unit/**/*.spec.ts'],
-		environment: 'node',
 		// each test file gets its own in-memory database through $lib/server/db
 		env: { DATABASE_URL: ':memory:', SEED_DEMO: 'false', SMTP_PORT: '2727' },
 		expect: { requireAssertions: true },
+		projects: [
+			{
+				extends: true,
+				test: {
+					name: 'node',
+					include: ['src/**/*.spec.ts', 'tests/unit/**/*.spec.ts'],
+					exclude: ['src/**/*.component.spec.ts'],
+					environment: 'node'
+				}
+			},
+			{
+				// Svelte components rendered into happy-dom with @testing-library/svelte
+				extends: true,
+				plugins: [svelteTesting()],
+				test: {
+					name: 'components',
+					include: ['src/**/*.component.spec.ts'],
+					environment: 'happy-dom'
+				}
+			}
+		],
 		coverage: {
 			provider: 'v8',
 			include: ['src/lib/vibration/**/*.ts'],
