@@ -110,6 +110,14 @@ export const setpointText = z
 	);
 
 /** The first problem of a failed parse, as one sentence for the screen. */
+/**
+ * The first problem as a person reads it beside a form: the message alone (each names its field
+ * in words), without the internal field path that firstProblem puts first for API answers.
+ */
+export function formProblem(error: z.ZodError): string {
+	return error.issues[0].message;
+}
+
 export function firstProblem(error: z.ZodError): string {
 	const issue = error.issues[0];
 	const path = issue.path.join('.');
