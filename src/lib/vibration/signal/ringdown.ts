@@ -470,7 +470,7 @@ const TONE_SEGMENTS = 8;
  * down, and is absent before the hit). Frequencies are refined on the whole record by the
  * projection's maximum (golden-section search over one segment bin).
  */
-export function findTones(x: Float64Array, fs: number, fMax: number): number[] {
+function findTones(x: Float64Array, fs: number, fMax: number): number[] {
 	const len = Math.floor(x.length / TONE_SEGMENTS);
 	if (len < 256) return [];
 	const T = x.length / fs;
@@ -650,7 +650,6 @@ function findHit(x: Float64Array, fs: number): { hit: number; preRms: number } {
 
 interface Segment {
 	x: Float64Array;
-	windowed: Float64Array;
 	mag: Float64Array;
 	fs: number;
 	df: number;
@@ -925,7 +924,7 @@ export function analyzeRingdown(
 	const resolution = 1 / T;
 	const kMin = Math.ceil(Math.max(opt.minFrequencyHz ?? 0, 2 * resolution) / df);
 	const kMax = Math.min(mag.length - 1, Math.floor(fMaxAsked / df));
-	const seg: Segment = { x, windowed, mag, fs, df, n, T, resolution, tauW };
+	const seg: Segment = { x, mag, fs, df, n, T, resolution, tauW };
 	const candidates = peakCandidates(
 		mag,
 		kMin,
