@@ -314,7 +314,13 @@ export class SyncManager {
 						lastAttemptAt: Date.now()
 					});
 				} else {
-					this.#fail(`Uploading ${rec.fileName} failed (${res.status}).`);
+					// 503: the server's analysis is busy; the check stays queued for the next sync
+					const body = (await res.json().catch(() => null)) as { message?: string } | null;
+					this.#fail(
+						res.status === 503 && body?.message
+							? `${rec.fileName}: ${body.message}`
+							: `Uploading ${rec.fileName} failed (${res.status}).`
+					);
 					return 'stop';
 				}
 			}

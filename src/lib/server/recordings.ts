@@ -10,9 +10,9 @@ import { eq } from 'drizzle-orm';
 import { db } from './db/index.ts';
 import { recordings } from './db/schema.ts';
 import { setting } from './config.ts';
-import { parseRecordingBytes } from '../recordings/parse.ts';
-import { analyzeRecording, defaultChoice } from '../recordings/analyze.ts';
-import type { Recording } from '../recordings/types.ts';
+import { RecordingError } from '../recordings/types.ts';
+import { analyseUpload } from './analysis/pool.ts';
+import type { StoredAnalysis } from './analysis/task.ts';
 
 export function dataDir(): string {
 	return resolve(setting('DATA_DIR') ?? 'data/files');
@@ -22,41 +22,7 @@ function pathFor(sha256: string): string {
 	return join(dataDir(), 'recordings', sha256.slice(0, 2), sha256);
 }
 
-export interface StoredAnalysis {
-	kind: 'ringdown' | 'impact';
-	modes: {
-		frequencyHz: number;
-		dampingRatio: number | null;
-		qFactor: number | null;
-		flags: string[];
-	}[];
-}
-
-/** Parses a file's bytes by its name and type; throws RecordingError with what is wrong and where. */
-export function parseFile(
-	bytes: Buffer,
-	fileName: string,
-	mediaType: string,
-	sampleRateHz: number | null
-): Recording {
-	return parseRecordingBytes(
-		new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength),
-		fileName,
-		mediaType,
-		sampleRateHz
-	);
-}
-
-export function analyse(rec: Recording): StoredAnalysis {
-	const a = analyzeRecording(rec, defaultChoice(rec));
-	const modes = (a.kind === 'impact' ? a.result.modes : a.result.modes).map((m) => ({
-		frequencyHz: m.frequencyHz,
-		dampingRatio: m.dampingRatio,
-		qFactor: m.qFactor,
-		flags: m.flags as string[]
-	}));
-	return { kind: a.kind, modes };
-}
+export type { StoredAnalysis } from './analysis/task.ts';
 
 export interface IngestInput {
 	id: string;
@@ -74,12 +40,15 @@ export class RecordingIdTaken extends Error {
 	}
 }
 
-/** Stores a recording (idempotent on its id). Returns whether it was new. */
-export function ingest(input: IngestInput): {
+/**
+ * Stores a recording (idempotent on its id), parsed and analysed in the analysis thread first.
+ * Returns whether it was new; throws RecordingError for a file that cannot be read.
+ */
+export async function ingest(input: IngestInput): Promise<{
 	created: boolean;
 	sha256: string;
 	analysis: StoredAnalysis;
-} {
+}> {
 	const existing = db.select().from(recordings).where(eq(recordings.id, input.id)).get();
 	// the same id for another asset is not this upload again: say nothing about that recording
 	if (existing && existing.assetId !== input.assetId) throw new RecordingIdTaken();
@@ -89,8 +58,15 @@ export function ingest(input: IngestInput): {
 			sha256: existing.sha256,
 			analysis: existing.analysis as unknown as StoredAnalysis
 		};
-	const rec = parseFile(input.bytes, input.fileName, input.mediaType, input.sampleRateHz);
-	const analysis = analyse(rec);
+	const outcome = await analyseUpload({
+		bytes: input.bytes,
+		fileName: input.fileName,
+		mediaType: input.mediaType,
+		sampleRateHz: input.sampleRateHz
+	});
+	if (!outcome.ok)
+		throw new RecordingError(outcome.message, { row: outcome.row, column: outcome.column });
+	const { shape, analysis } = outcome;
 	const sha256 = createHash('sha256').update(input.bytes).digest('hex');
 	const file = pathFor(sha256);
 	if (!existsSync(file)) {
@@ -107,10 +83,10 @@ export function ingest(input: IngestInput): {
 			sha256,
 			fileName: input.fileName.slice(0, 200),
 			sizeBytes: input.bytes.length,
-			mediaType: rec.format === 'wav' ? 'audio/wav' : 'text/csv',
-			sampleRateHz: rec.sampleRateHz,
-			channels: rec.channels.length,
-			durationS: rec.durationS,
+			mediaType: shape.format === 'wav' ? 'audio/wav' : 'text/csv',
+			sampleRateHz: shape.sampleRateHz,
+			channels: shape.channels,
+			durationS: shape.durationS,
 			analysis: analysis as unknown as Record<string, unknown>,
 			createdAt: Date.now()
 		})

@@ -85,7 +85,7 @@ describe('one scope check for every id', () => {
 		expect(push(larkspur, [theirs]).response.results[0].status).toBe('duplicate');
 	});
 
-	it('push: a replaced check or a recording must be of the same asset, on the user’s site', () => {
+	it('push: a replaced check or a recording must be of the same asset, on the user’s site', async () => {
 		const theirs = db.select().from(checks).where(eq(checks.assetId, larkspurAsset())).get()!;
 		const replacing = buildCheckItem({ assetId: kettleAsset(), replacesCheckId: theirs.id });
 		const r1 = push(kettle, [replacing]).response.results[0];
@@ -93,7 +93,7 @@ describe('one scope check for every id', () => {
 		expect(r1.reason).toMatch(/replaces/);
 
 		const rec = crypto.randomUUID();
-		ingest({
+		await ingest({
 			id: rec,
 			assetId: larkspurAsset(),
 			fileName: 'idf.csv',
@@ -109,9 +109,9 @@ describe('one scope check for every id', () => {
 		expect(readableRecording(kettle, rec)).toBeNull();
 	});
 
-	it('an upload under another asset’s recording id is refused and tells nothing of it', () => {
+	it('an upload under another asset’s recording id is refused and tells nothing of it', async () => {
 		const rec = crypto.randomUUID();
-		const first = ingest({
+		const first = await ingest({
 			id: rec,
 			assetId: larkspurAsset(),
 			fileName: 'a.csv',
@@ -120,7 +120,7 @@ describe('one scope check for every id', () => {
 			sampleRateHz: null
 		});
 		expect(first.created).toBe(true);
-		expect(() =>
+		await expect(
 			ingest({
 				id: rec,
 				assetId: kettleAsset(),
@@ -129,7 +129,7 @@ describe('one scope check for every id', () => {
 				bytes: Buffer.from('time_s,a\n0,1\n0.001,0\n'),
 				sampleRateHz: null
 			})
-		).toThrow(RecordingIdTaken);
+		).rejects.toThrow(RecordingIdTaken);
 	});
 
 	it('follow-ups: a remedy is suggested only from a check of that asset; an assignee must have access', () => {

@@ -3,6 +3,7 @@ import type { RequestHandler } from './$types';
 import { requireUser } from '$lib/server/guard';
 import { readableAsset } from '$lib/server/scope';
 import { ingest, RecordingIdTaken } from '$lib/server/recordings';
+import { AnalysisUnavailable } from '$lib/server/analysis/pool';
 import { MAX_RECORDING_BYTES, RecordingError } from '$lib/recordings/types';
 import { recordingUploadQuery } from '$lib/schemas/recording';
 import { firstProblem } from '$lib/schemas/sync';
@@ -10,7 +11,8 @@ import { declaredLength } from '$lib/server/body';
 
 /**
  * POST /api/recordings?id=<uuid>&assetId=…&name=…[&sampleRateHz=…] with the file as the body.
- * Idempotent on id. The file is parsed and analysed before anything is stored.
+ * Idempotent on id. The file is parsed and analysed (in the analysis thread) before anything is
+ * stored; with the thread busy and uploads already waiting, 503 with Retry-After.
  */
 export const POST: RequestHandler = async (event) => {
 	const user = requireUser(event);
@@ -35,7 +37,7 @@ export const POST: RequestHandler = async (event) => {
 	if (bytes.length > MAX_RECORDING_BYTES)
 		error(413, { message: 'Recordings may be at most 50 MB.', code: 'too-large' });
 	try {
-		const r = ingest({ id, assetId, fileName: name, mediaType: type, bytes, sampleRateHz });
+		const r = await ingest({ id, assetId, fileName: name, mediaType: type, bytes, sampleRateHz });
 		return json(
 			{ id, sha256: r.sha256, created: r.created, modes: r.analysis.modes.length },
 			{ status: r.created ? 201 : 200 }
@@ -43,6 +45,13 @@ export const POST: RequestHandler = async (event) => {
 	} catch (e) {
 		if (e instanceof RecordingIdTaken) error(409, { message: e.message, code: 'id-taken' });
 		if (e instanceof RecordingError) error(422, { message: e.message, code: 'bad-file' });
+		if (e instanceof AnalysisUnavailable) {
+			if (!e.retry) error(422, { message: e.message, code: 'too-heavy' });
+			return json(
+				{ message: e.message, code: 'busy' },
+				{ status: 503, headers: { 'retry-after': '30' } }
+			);
+		}
 		throw e;
 	}
 };

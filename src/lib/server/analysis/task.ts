@@ -1,0 +1,66 @@
+/**
+ * One upload's parse-and-analyse, as a pure function of its bytes: the body of the server's
+ * analysis worker thread, and what runs in-process where no worker file was built (vite dev,
+ * vitest). It imports nothing that opens the database or reads the environment, so a worker
+ * thread can load it on its own.
+ */
+import { parseRecordingBytes } from '../../recordings/parse.ts';
+import { analyzeRecording, defaultChoice } from '../../recordings/analyze.ts';
+import { RecordingError } from '../../recordings/types.ts';
+
+export interface StoredAnalysis {
+	kind: 'ringdown' | 'impact';
+	modes: {
+		frequencyHz: number;
+		dampingRatio: number | null;
+		qFactor: number | null;
+		flags: string[];
+	}[];
+}
+
+export interface AnalysisTask {
+	bytes: Uint8Array;
+	fileName: string;
+	mediaType: string;
+	sampleRateHz: number | null;
+}
+
+/** What the server keeps of a parsed recording: its shape, never its samples. */
+export interface RecordingShape {
+	format: 'csv' | 'wav';
+	sampleRateHz: number;
+	channels: number;
+	durationS: number;
+}
+
+/** A refused file is an answer, not a failure: it crosses the thread boundary as data. */
+export type AnalysisOutcome =
+	| { ok: true; shape: RecordingShape; analysis: StoredAnalysis }
+	| { ok: false; message: string; row?: number; column?: number };
+
+export function runAnalysis(task: AnalysisTask): AnalysisOutcome {
+	try {
+		const rec = parseRecordingBytes(task.bytes, task.fileName, task.mediaType, task.sampleRateHz);
+		const a = analyzeRecording(rec, defaultChoice(rec));
+		const modes = a.result.modes.map((m) => ({
+			frequencyHz: m.frequencyHz,
+			dampingRatio: m.dampingRatio,
+			qFactor: m.qFactor,
+			flags: m.flags as string[]
+		}));
+		return {
+			ok: true,
+			shape: {
+				format: rec.format,
+				sampleRateHz: rec.sampleRateHz,
+				channels: rec.channels.length,
+				durationS: rec.durationS
+			},
+			analysis: { kind: a.kind, modes }
+		};
+	} catch (e) {
+		if (e instanceof RecordingError)
+			return { ok: false, message: e.message, row: e.row, column: e.column };
+		throw e;
+	}
+}
