@@ -409,3 +409,99 @@ describe('against an independent integrator', () => {
 		expect(Math.abs((r.modes[0].dampingRatio as number) - zeta) / zeta).toBeLessThan(0.2);
 	});
 });
+
+describe('records of several hits', () => {
+	// five hammer strikes of unequal force at irregular times, as a technician takes them
+	const fs = 2048;
+	const strikes = [
+		{ t: 0.3, force: 1 },
+		{ t: 2.1, force: 0.7 },
+		{ t: 4.4, force: 1.2 },
+		{ t: 6.2, force: 0.9 },
+		{ t: 8.5, force: 1.1 }
+	];
+	const pulse = 0.003;
+	const F = (t: number) => {
+		for (const s of strikes)
+			if (t >= s.t && t < s.t + pulse) return s.force * Math.sin((Math.PI * (t - s.t)) / pulse);
+		return 0;
+	};
+	// two modes, each the ODEX response of its own SDOF to the same strikes (modal superposition)
+	const truth = [
+		{ f: 31, zeta: 0.02, gain: 1 },
+		{ f: 83, zeta: 0.015, gain: 4 }
+	];
+	const responses = truth.map((m) => odexResponse(fs, fs * 10, m.f, m.zeta, F));
+	const clean = responses[0].map((v, i) => truth[0].gain * v + truth[1].gain * responses[1][i]);
+	let peak = 0;
+	for (const v of clean) peak = Math.max(peak, Math.abs(v));
+
+	it('finds each of five hits with noise, analyses each, and combines the modes (ODEX response)', () => {
+		const r0 = noise(11);
+		const x = clean.map((v) => v + 0.01 * peak * r0());
+		const r = analyzeRingdown(x, fs);
+		// before, the whole record from the first hit was one segment: its spectrum was a comb of
+		// lines 1/(hit spacing) apart, and the combs' teeth were reported as modes
+		expect(r.hitIndices).toHaveLength(5);
+		r.hitIndices.forEach((h, i) => expect(Math.abs(h / fs - strikes[i].t)).toBeLessThan(0.005));
+		for (const m of truth) {
+			const got = r.modes.find((q) => Math.abs(q.frequencyHz - m.f) / m.f < 0.005);
+			expect(got, `${m.f} Hz`).toBeDefined();
+			expect(got!.hits).toBe(5);
+			expect(Math.abs((got!.dampingRatio as number) - m.zeta) / m.zeta).toBeLessThan(0.2);
+			expect(got!.frequencySpreadHz).toBeLessThan(0.005 * m.f);
+			expect(got!.flags).not.toContain('not-repeatable');
+		}
+		// no invented mode: whatever the hits agree on is one of the two
+		for (const q of r.modes.filter((q) => !q.flags.includes('not-repeatable')))
+			expect(truth.some((m) => Math.abs(q.frequencyHz - m.f) / m.f < 0.005)).toBe(true);
+	});
+
+	it('finds the hits under a running tone three times the response, once the tone is out', () => {
+		const r0 = noise(12);
+		const x = clean.map(
+			(v, i) => v + 3 * peak * Math.sin(2 * Math.PI * 24.83 * (i / fs)) + 0.005 * peak * r0()
+		);
+		const r = analyzeRingdown(x, fs);
+		expect(r.tones.some((t) => Math.abs(t.frequencyHz - 24.83) < 0.01)).toBe(true);
+		expect(r.hitIndices).toHaveLength(5);
+		for (const m of truth)
+			expect(r.modes.some((q) => Math.abs(q.frequencyHz - m.f) / m.f < 0.005 && q.hits >= 4)).toBe(
+				true
+			);
+	});
+
+	it('flags a mode only one hit showed (a stray tap on a neighbour) and ranks it last', () => {
+		// the third strike also rings a 140 Hz mode of something else
+		const stray = ringdown(fs, 10 - 4.4, [{ f: 140, zeta: 0.01, a: 0.5 * peak }]);
+		const x = clean.slice();
+		const at = Math.round(4.4 * fs);
+		for (let i = 0; i < stray.length && at + i < x.length; i++) x[at + i] += stray[i];
+		const r = analyzeRingdown(x, fs);
+		const odd = r.modes.find((q) => Math.abs(q.frequencyHz - 140) < 1);
+		expect(odd?.hits).toBe(1);
+		expect(odd?.flags).toContain('not-repeatable');
+		expect(r.modes.at(-1)).toBe(odd);
+	});
+
+	it('keeps a hammer bounce 0.6 s into a ringing mode as a double hit, not a second hit', () => {
+		const x = ringdown(fs, 6, [{ f: 30, zeta: 0.02, a: 1 }]);
+		const later = ringdown(fs, 6, [{ f: 30, zeta: 0.02, a: 0.8 }]);
+		const shift = Math.round(0.6 * fs);
+		for (let i = shift; i < x.length; i++) x[i] += later[i - shift];
+		const r = analyzeRingdown(x, fs);
+		expect(r.hitIndices).toHaveLength(1);
+		expect(r.flags).toContain('double-hit');
+	});
+
+	it('raises no double hit on a clean record of two modes, one low (its zero crossings are not hits)', () => {
+		const x = ringdown(fs, 4, [
+			{ f: 23, zeta: 0.02, a: 1 },
+			{ f: 61, zeta: 0.01, a: 0.4 }
+		]);
+		expect(hasSecondHit(x, fs)).toBe(false);
+		const r = analyzeRingdown(x, fs);
+		expect(r.flags).not.toContain('double-hit');
+		expect(r.modes.map((m) => m.flags).flat()).not.toContain('double-hit');
+	});
+});

@@ -37,7 +37,8 @@ export type ModeFlag =
 	| 'close-mode'
 	| 'tone-nearby'
 	| 'heavy-damping'
-	| 'half-power-invalid';
+	| 'half-power-invalid'
+	| 'not-repeatable';
 
 export const FLAG_TEXT: Record<ModeFlag, string> = {
 	'coarse-resolution': 'frequency resolution too coarse for this bandwidth: record longer',
@@ -52,7 +53,9 @@ export const FLAG_TEXT: Record<ModeFlag, string> = {
 		'a steady tone of the running machine lies close by: check it on a stopped machine',
 	'heavy-damping': 'heavily damped (ζ > 0.1): the peak is broad and its frequency less sharp',
 	'half-power-invalid':
-		'half-power damping is not valid above ζ ≈ 0.1: the decay estimate is reported'
+		'half-power damping is not valid above ζ ≈ 0.1: the decay estimate is reported',
+	'not-repeatable':
+		'found after fewer than half of the hits in this record: check it with more hits'
 };
 
 /** How a mode's frequency was found. */
@@ -96,6 +99,10 @@ export interface RingdownMode {
 	/** half-power points, Hz */
 	halfPowerHz: [number, number] | null;
 	prominence: number;
+	/** in a record of several hits, how many of them showed this mode (1 for a single hit) */
+	hits: number;
+	/** the spread (max − min) of this mode's frequency across those hits, Hz (0 for one hit) */
+	frequencySpreadHz: number;
 	flags: ModeFlag[];
 }
 
@@ -111,7 +118,10 @@ export interface RingdownResult {
 	/** the frequency resolution 1/T of the analysed segment, Hz */
 	resolutionHz: number;
 	nfft: number;
+	/** the (first) hit, as a sample index of the record */
 	hitIndex: number;
+	/** hits found in the record, each analysed on its own and the modes combined (median) */
+	hitIndices: number[];
 	flags: ModeFlag[];
 	/** for charts: the spectrum (≤ 2048 points) and the waveform with its RMS envelope (≤ 2000) */
 	spectrum: { frequencyHz: number[]; magnitude: number[] };
@@ -122,6 +132,8 @@ const DEFAULTS = { maxModes: 6, minProminence: 0.02, noiseFactor: 5, disagreemen
 /** the half-power approximation ζ ≈ Δf/2f is used up to this damping ratio (common practice) */
 const HALF_POWER_LIMIT = 0.1;
 const PAD_UP_TO = 65_536;
+/** a hit's analysed part is at most this long: 41 s at 51.2 kHz, far past any ring-down */
+const MAX_SEGMENT = 1 << 21;
 
 /** Removes mean and linear trend (least squares), in place on a copy. */
 export function detrend(x: ArrayLike<number>): Float64Array {
@@ -177,21 +189,40 @@ function rmsEnvelope(x: ArrayLike<number>, w: number): Float64Array {
 }
 
 /**
- * A second hit shows as the RMS envelope jumping back up after it had started to fall: a window
- * more than twice the lowest window since the first peak, and above a fifth of that peak.
+ * 10 ms windows' mean square, and the windows where it jumps `ratio`× over the mean of the 100 ms
+ * before and reaches `share` of the loudest window. A hit is such a jump; a ring-down's own
+ * beating, or a low mode's zero crossings, rise over tens of milliseconds and never jump.
+ */
+function energyJumps(x: ArrayLike<number>, fs: number, ratio: number, share: number) {
+	const w = Math.max(8, Math.round(0.01 * fs));
+	const m = Math.floor(x.length / w);
+	const e = new Float64Array(m);
+	let loudest = 0;
+	let loudestAt = 0;
+	for (let b = 0; b < m; b++) {
+		let sum = 0;
+		for (let i = b * w, end = i + w; i < end; i++) sum += x[i] * x[i];
+		e[b] = sum / w;
+		if (e[b] > loudest) [loudest, loudestAt] = [e[b], b];
+	}
+	const jumps: number[] = [];
+	let pre = 0;
+	for (let b = 0; b < Math.min(10, m); b++) pre += e[b];
+	for (let b = 10; b < m; b++) {
+		if (e[b] > ratio * (pre / 10) && e[b] > share * loudest) jumps.push(b);
+		pre += e[b] - e[b - 10];
+	}
+	return { w, e, loudest, loudestAt, jumps };
+}
+
+/**
+ * A second hit within one hit's ring-down: after the loudest window, a window whose mean square
+ * jumps 4× (2× in amplitude) over the 100 ms before it and reaches a twenty-fifth of the loudest
+ * (a fifth in amplitude).
  */
 export function hasSecondHit(x: ArrayLike<number>, sampleRateHz: number): boolean {
-	const w = Math.max(4, Math.round(sampleRateHz * 0.01));
-	const e = rmsEnvelope(x, w);
-	let peak = 0;
-	let peakAt = 0;
-	for (let i = 0; i < e.length; i++) if (e[i] > peak) [peak, peakAt] = [e[i], i];
-	let low = peak;
-	for (let i = peakAt + 1; i < e.length; i++) {
-		low = Math.min(low, e[i]);
-		if (e[i] > 2 * low && e[i] > 0.2 * peak) return true;
-	}
-	return false;
+	const { jumps, loudestAt } = energyJumps(x, sampleRateHz, 4, 1 / 25);
+	return jumps.some((b) => b > loudestAt + 2);
 }
 
 /**
@@ -809,7 +840,7 @@ function characterise(
 	const zeta =
 		decayDamping !== null && decayDamping > 0 ? decayDamping : halfPowerValid ? hpRaw : null;
 	const flags: ModeFlag[] = [...recordFlags];
-	if (hpHz && hpHz[1] - hpHz[0] < 5 * resolution) flags.push('coarse-resolution');
+	if (hpHz && hpHz[1] - hpHz[0] < 2 * resolution) flags.push('coarse-resolution');
 	const w = 2 * Math.PI * fn;
 	if (zeta !== null && zeta > 0 && T < 6 / (zeta * w)) flags.push('short-record');
 	if (!cleanFit) flags.push('poor-envelope-fit');
@@ -844,6 +875,8 @@ function characterise(
 		decayDamping,
 		halfPowerHz: hpHz,
 		prominence: p.prominence / tallest,
+		hits: 1,
+		frequencySpreadHz: 0,
 		flags
 	};
 }
@@ -878,7 +911,9 @@ function prepare(samples: ArrayLike<number>, fs: number, fMax: number) {
 
 /**
  * The modes of a ring-down recording, strongest first. `samples` in any unit (g, m/s², mm/s …);
- * amplitudes come back in the same unit.
+ * amplitudes come back in the same unit. A record of several hits (a technician's usual five) is
+ * cut at each hit; each hit is analysed on its own and the modes found are combined: the median
+ * frequency, damping and amplitude of each, how many hits showed it and its spread across them.
  */
 export function analyzeRingdown(
 	samples: ArrayLike<number>,
@@ -887,21 +922,206 @@ export function analyzeRingdown(
 ): RingdownResult {
 	validateSamples(samples);
 	const fs = positive('sampleRateHz', sampleRateHz);
-	const opt = { ...DEFAULTS, ...options };
-	const maxModes = integerAtLeast('maxModes', opt.maxModes, 1);
-	const minProm = positive('minProminence', opt.minProminence);
-	const noiseFactor = positive('noiseFactor', opt.noiseFactor);
-	const tauW =
-		opt.exponentialWindowS === null || opt.exponentialWindowS === undefined
-			? null
-			: positive('exponentialWindowS', opt.exponentialWindowS);
-	const progress = opt.onProgress ?? (() => {});
-	const fMaxAsked = Math.min(opt.maxFrequencyHz ?? Infinity, 0.45 * fs);
+	const opt = settle(options, fs);
+	const x0 = detrend(samples);
+	const onsets = findOnsets(x0, fs);
+	if (onsets.length >= 2) return severalHits(samples, x0, fs, onsets, opt, []);
+	return oneHit(samples, fs, opt, true);
+}
 
+type Settled = ReturnType<typeof settle>;
+
+function settle(options: RingdownOptions, fs: number) {
+	const opt = { ...DEFAULTS, ...options };
+	return {
+		...opt,
+		maxModes: integerAtLeast('maxModes', opt.maxModes, 1),
+		minProm: positive('minProminence', opt.minProminence),
+		noiseFactor: positive('noiseFactor', opt.noiseFactor),
+		tauW:
+			opt.exponentialWindowS === null || opt.exponentialWindowS === undefined
+				? null
+				: positive('exponentialWindowS', opt.exponentialWindowS),
+		progress: opt.onProgress ?? (() => {}),
+		fMaxAsked: Math.min(opt.maxFrequencyHz ?? Infinity, 0.45 * fs)
+	};
+}
+
+/**
+ * Separate hits in a record: jumps of 16× in mean square (12 dB in amplitude) over the 100 ms
+ * before, reaching a hundredth of the loudest window (a tenth in amplitude), at least half a
+ * second after the last hit and once its ring-down has fallen below a tenth of its peak in
+ * amplitude. A strike sooner than that, or onto a ringing structure, is a double hit of the same
+ * segment (flagged). A record that opens with its hit counts that hit at sample 0. Returns sample
+ * indices.
+ */
+function findOnsets(x: Float64Array, fs: number): number[] {
+	const { w, e, loudest, jumps } = energyJumps(x, fs, 16, 1 / 100);
+	if (e.length < 40) return [];
+	const gap = Math.ceil(0.5 / (w / fs));
+	const onsets: number[] = [];
+	let last = -Infinity;
+	let from = 0; // where the current hit's segment began
+	for (const b of jumps) {
+		if (b - last < gap) continue;
+		let peak = 0;
+		for (let k = from; k < b; k++) peak = Math.max(peak, e[k]);
+		let pre = 0;
+		for (let k = b - 10; k < b; k++) pre += e[k] / 10;
+		// onto a structure still ringing from a hit before it (one at the record's start included)
+		if (peak > loudest / 100 && pre > peak / 100) continue;
+		onsets.push(b);
+		last = b;
+		from = b;
+	}
+	// a loud stretch before the first jump: the record opens with a hit
+	let before = 0;
+	for (let k = 0; k < (onsets[0] ?? 0); k++) before = Math.max(before, e[k]);
+	if (onsets.length && before > loudest / 100) onsets.unshift(0);
+	return onsets.map((b) => b * w);
+}
+
+/** Each hit of a record analysed on its own (from shortly before it to shortly before the next). */
+function severalHits(
+	samples: ArrayLike<number>,
+	x0: Float64Array,
+	fs: number,
+	onsets: number[],
+	opt: Settled,
+	tones: Tone[]
+): RingdownResult {
+	const starts = onsets.map((o, i) => {
+		const spacing = i > 0 ? o - onsets[i - 1] : (onsets[1] ?? x0.length) - o;
+		return Math.max(0, o - Math.min(Math.round(0.25 * spacing), Math.round(0.5 * fs)));
+	});
+	const results: RingdownResult[] = [];
+	const offsets: number[] = [];
+	starts.forEach((start, i) => {
+		const end = Math.min(starts[i + 1] ?? x0.length, start + MAX_SEGMENT);
+		if (end - start < 64) return;
+		const part = x0.subarray(start, end);
+		try {
+			const r = oneHit(
+				part,
+				fs,
+				{
+					...opt,
+					progress: (f) => opt.progress((i + f) / starts.length)
+				},
+				false
+			);
+			results.push(r);
+			offsets.push(start);
+		} catch (e) {
+			// a segment without a ring-down (flat, or too short after its hit) adds nothing
+			if (!(e instanceof VibrationInputError)) throw e;
+		}
+	});
+	if (results.length === 0) return oneHit(samples, fs, opt, false);
+	const combined = combineHits(results, opt.maxModes);
+	const first = results[0];
+	return {
+		...first,
+		modes: combined,
+		tones: (tones.length ? tones : first.tones).slice(),
+		preHitRms: medianOf(results.map((r) => r.preHitRms)) ?? first.preHitRms,
+		samples: samples.length,
+		durationS: samples.length / fs,
+		hitIndex: offsets[0] + first.hitIndex,
+		hitIndices: results.map((r, i) => offsets[i] + r.hitIndex),
+		flags: majorityFlags(
+			results.map((r) => r.flags),
+			results.length
+		),
+		waveform: waveformChart(x0, fs)
+	};
+}
+
+function medianOf(xs: number[]): number | null {
+	if (xs.length === 0) return null;
+	const s = [...xs].sort((a, b) => a - b);
+	const h = s.length >> 1;
+	return s.length % 2 ? s[h] : (s[h - 1] + s[h]) / 2;
+}
+
+/** Flags raised in at least half of `lists`; clipping in any. */
+function majorityFlags(lists: ModeFlag[][], of: number): ModeFlag[] {
+	const count = new Map<ModeFlag, number>();
+	for (const l of lists) for (const f of new Set(l)) count.set(f, (count.get(f) ?? 0) + 1);
+	return [...count].filter(([f, c]) => 2 * c >= of || f === 'clipping').map(([f]) => f);
+}
+
+/**
+ * The modes of several hits, matched by frequency (within the hit's resolution, or 0.3 %) and
+ * combined by the median; a mode that fewer than half of the hits showed is flagged, and listed
+ * after those the hits agree on.
+ */
+function combineHits(results: RingdownResult[], maxModes: number): RingdownMode[] {
+	const all = results
+		.flatMap((r, h) =>
+			r.modes.map((m) => ({ m, h, tol: Math.max(r.resolutionHz, 0.003 * m.frequencyHz) }))
+		)
+		.sort((a, b) => a.m.frequencyHz - b.m.frequencyHz);
+	const groups: (typeof all)[] = [];
+	for (const item of all) {
+		const g = groups.at(-1);
+		const centre = g ? (medianOf(g.map((i) => i.m.frequencyHz)) as number) : NaN;
+		if (g && Math.abs(item.m.frequencyHz - centre) <= item.tol && !g.some((i) => i.h === item.h))
+			g.push(item);
+		else groups.push([item]);
+	}
+	const hits = results.length;
+	const med = (g: typeof all, pick: (m: RingdownMode) => number | null) =>
+		medianOf(g.map((i) => pick(i.m)).filter((v): v is number => v !== null));
+	const modes = groups.map((g): RingdownMode => {
+		const fs = g.map((i) => i.m.frequencyHz);
+		const centre = g.slice().sort((a, b) => a.m.frequencyHz - b.m.frequencyHz)[
+			(g.length - 1) >> 1
+		].m;
+		const zeta = med(g, (m) => m.dampingRatio);
+		const flags = majorityFlags(
+			g.map((i) => i.m.flags),
+			g.length
+		);
+		if (2 * g.length < hits) flags.push('not-repeatable');
+		return {
+			...centre,
+			frequencyHz: medianOf(fs) as number,
+			dampedFrequencyHz: med(g, (m) => m.dampedFrequencyHz) as number,
+			dampingRatio: zeta,
+			qFactor: zeta !== null ? 1 / (2 * zeta) : null,
+			amplitude: med(g, (m) => m.amplitude) as number,
+			halfPowerDamping: med(g, (m) => m.halfPowerDamping),
+			decayDamping: med(g, (m) => m.decayDamping),
+			prominence: med(g, (m) => m.prominence) as number,
+			hits: g.length,
+			frequencySpreadHz: Math.max(...fs) - Math.min(...fs),
+			flags
+		};
+	});
+	const repeatable = (m: RingdownMode) => (m.flags.includes('not-repeatable') ? 1 : 0);
+	return modes
+		.sort((a, b) => repeatable(a) - repeatable(b) || b.amplitude - a.amplitude)
+		.slice(0, maxModes);
+}
+
+/** One hit's analysis (the record holds one hit, or is a segment around one). */
+function oneHit(
+	samples: ArrayLike<number>,
+	fs: number,
+	opt: Settled,
+	maySplit: boolean
+): RingdownResult {
+	const { maxModes, minProm, noiseFactor, tauW, progress, fMaxAsked } = opt;
 	const { clipped, x0, rest, tones, hit, preRms } = prepare(samples, fs, fMaxAsked);
+	// hits a strong tone hid: once the tones are out, the record may show several
+	if (maySplit && tones.length) {
+		const onsets = findOnsets(rest, fs);
+		if (onsets.length >= 2) return severalHits(samples, rest, fs, onsets, opt, tones);
+	}
 	progress(0.2);
 	const start = Math.max(0, hit - Math.round(0.002 * fs));
-	const x = rest.subarray(start);
+	const x = rest.subarray(start, Math.min(rest.length, start + MAX_SEGMENT));
 	const n = x.length;
 	if (n < 64) throw new VibrationInputError('samples', 'at least 64 samples after the hit', n);
 	const recordFlags: ModeFlag[] = [
@@ -967,8 +1187,10 @@ export function analyzeRingdown(
 		resolutionHz: resolution,
 		nfft,
 		hitIndex: hit,
+		hitIndices: [hit],
 		flags: recordFlags,
-		...chartData(x0, mag, fs, df, n, fMaxAsked)
+		spectrum: spectrumChart(mag, fs, df, n, fMaxAsked),
+		waveform: waveformChart(x0, fs)
 	};
 }
 
@@ -1002,15 +1224,14 @@ function peakCandidates(
 	return { list: kept, tallest };
 }
 
-/** Chart data, decimated without building full-length arrays. */
-function chartData(
-	x0: Float64Array,
+/** Chart data, decimated without building full-length arrays: the spectrum (≤ 2048 points). */
+function spectrumChart(
 	mag: Float64Array,
 	fs: number,
 	df: number,
 	n: number,
 	fMax: number
-): Pick<RingdownResult, 'spectrum' | 'waveform'> {
+): RingdownResult['spectrum'] {
 	const scale = 2 / n;
 	const kEnd = Math.min(mag.length, Math.ceil(Math.min(fMax, 0.5 * fs) / df) + 1);
 	const spectrum = bucketMax(
@@ -1019,6 +1240,11 @@ function chartData(
 		(k) => mag[k] * scale,
 		(k) => k * df
 	);
+	return { frequencyHz: spectrum.x, magnitude: spectrum.y };
+}
+
+/** The whole record's waveform with its RMS envelope (≤ 2000 points). */
+function waveformChart(x0: Float64Array, fs: number): RingdownResult['waveform'] {
 	const envW = Math.max(1, Math.floor(x0.length / 500));
 	const rms = rmsEnvelope(x0, envW);
 	const wave = bucketMax(
@@ -1030,10 +1256,7 @@ function chartData(
 	const envelope = wave.x.map(
 		(t) => Math.SQRT2 * (rms[Math.min(rms.length - 1, Math.floor((t * fs) / envW))] ?? 0)
 	);
-	return {
-		spectrum: { frequencyHz: spectrum.x, magnitude: spectrum.y },
-		waveform: { timeS: wave.x, value: wave.y, envelope }
-	};
+	return { timeS: wave.x, value: wave.y, envelope };
 }
 
 /** A finite check of a sample rate given by a person (CSV without a time column, WAV header). */
