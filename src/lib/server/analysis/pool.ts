@@ -17,8 +17,11 @@ import { runAnalysis, type AnalysisOutcome, type AnalysisTask } from './task.ts'
 export const WORKER_FILE_NAME = 'analysis-worker.js';
 /** Uploads waiting beyond the one being analysed; more get "busy, retry". */
 export const MAX_WAITING = 4;
-/** Seconds one file may take; a 50 MB WAV takes a few (common practice: fail long before a proxy's 60 s). */
-export const TIME_LIMIT_S = 45;
+/**
+ * Seconds an upload may wait and be analysed; a 50 MB WAV takes about ten on one core. A reverse
+ * proxy in front must allow as long (nginx's proxy_read_timeout is 60 s unless set).
+ */
+export const TIME_LIMIT_S = 120;
 
 /** The analysis could not run now (queue full) or not at all (time or memory limit). */
 export class AnalysisUnavailable extends Error {

@@ -193,7 +193,7 @@ function rmsEnvelope(x: ArrayLike<number>, w: number): Float64Array {
  * before and reaches `share` of the loudest window. A hit is such a jump; a ring-down's own
  * beating, or a low mode's zero crossings, rise over tens of milliseconds and never jump.
  */
-function energyJumps(x: ArrayLike<number>, fs: number, ratio: number, share: number) {
+function energyJumps(x: ArrayLike<number>, fs: number, ratio: number, share: number, ahead = 0) {
 	const w = Math.max(8, Math.round(0.01 * fs));
 	const m = Math.floor(x.length / w);
 	const e = new Float64Array(m);
@@ -209,7 +209,9 @@ function energyJumps(x: ArrayLike<number>, fs: number, ratio: number, share: num
 	let pre = 0;
 	for (let b = 0; b < Math.min(10, m); b++) pre += e[b];
 	for (let b = 10; b < m; b++) {
-		if (e[b] > ratio * (pre / 10) && e[b] > share * loudest) jumps.push(b);
+		let v = e[b];
+		for (let k = b + 1; k <= Math.min(m - 1, b + ahead); k++) if (e[k] > v) v = e[k];
+		if (v > ratio * (pre / 10) && v > share * loudest) jumps.push(b);
 		pre += e[b] - e[b - 10];
 	}
 	return { w, e, loudest, loudestAt, jumps };
@@ -407,30 +409,45 @@ function hannSpectrum(
 	return mag;
 }
 
-/** |Σ x e^(−iωt)| over x under a Hann window: the projection a tone's frequency maximises. */
+/**
+ * |Σ x e^(−iωt)| over x under a Hann window: the projection a tone's frequency maximises. Both the
+ * phasor and the window turn by recurrence (renormalised every 1,024 samples): a cosine per sample
+ * cost four times the rest of the loop.
+ */
 function projection(x: Float64Array, fs: number, f: number): number {
 	const n = x.length;
 	const w = (2 * Math.PI * f) / fs;
 	const cw = Math.cos(w);
 	const sw = Math.sin(w);
+	const v = (2 * Math.PI) / (n - 1);
+	const cv = Math.cos(v);
+	const sv = Math.sin(v);
 	let c = 1;
 	let s = 0;
+	let hc = 1; // cos(v·i), for the window 0.5 − 0.5 cos(v·i)
+	let hs = 0;
 	let re = 0;
 	let im = 0;
 	for (let i = 0; i < n; i++) {
-		const h = 0.5 - 0.5 * Math.cos((2 * Math.PI * i) / (n - 1));
-		re += h * x[i] * c;
-		im -= h * x[i] * s;
+		const hx = (0.5 - 0.5 * hc) * x[i];
+		re += hx * c;
+		im -= hx * s;
 		const c2 = c * cw - s * sw;
 		s = s * cw + c * sw;
 		c = c2;
+		const h2 = hc * cv - hs * sv;
+		hs = hs * cv + hc * sv;
+		hc = h2;
 		if ((i & 1023) === 1023) {
-			const r = Math.hypot(c, s);
+			const r = Math.sqrt(c * c + s * s);
 			c /= r;
 			s /= r;
+			const q = Math.sqrt(hc * hc + hs * hs);
+			hc /= q;
+			hs /= q;
 		}
 	}
-	return Math.hypot(re, im);
+	return Math.sqrt(re * re + im * im);
 }
 
 /** Solves the small symmetric system A·p = y in place (Gaussian elimination, partial pivoting). */
@@ -457,35 +474,82 @@ function solveSmall(A: number[][], y: number[]): number[] | null {
 	return p;
 }
 
+/** Sample ranges [from, to) of a record. */
+type Ranges = readonly (readonly [number, number])[];
+
 /**
- * Least-squares a·cos(ωi) + b·sin(ωi) + c + d·i over the samples where `use(i)` holds: the line
- * takes up what the whole-record detrend left in the parts used (a drift the fit must not bend
- * the tone's phase to follow). Returns the sinusoid's a and b.
+ * Least-squares a·cos(ωi) + b·sin(ωi) + c + d·i over the samples in `ranges`: the line takes up
+ * what the whole-record detrend left in the parts used (a drift the fit must not bend the tone's
+ * phase to follow). Returns the sinusoid's a and b. The normal equations are summed with the
+ * phasor turned by recurrence, without an array per sample.
  */
 function fitSinusoid(
 	x: Float64Array,
 	fs: number,
 	f: number,
-	use: (i: number) => boolean
+	ranges: Ranges
 ): { a: number; b: number; explained: number } {
 	const w = (2 * Math.PI * f) / fs;
-	const A = [0, 1, 2, 3].map(() => [0, 0, 0, 0]);
-	const y = [0, 0, 0, 0];
+	const cw = Math.cos(w);
+	const sw = Math.sin(w);
 	const n = x.length;
-	for (let i = 0; i < n; i++) {
-		if (!use(i)) continue;
-		const u = [Math.cos(w * i), Math.sin(w * i), 1, i / n];
-		for (let r = 0; r < 4; r++) {
-			y[r] += x[i] * u[r];
-			for (let c = r; c < 4; c++) A[r][c] += u[r] * u[c];
+	// sums of the products of u = (cos, sin, 1, i/n) and of u with x
+	let cc = 0,
+		cs = 0,
+		c1 = 0,
+		ct = 0,
+		ss = 0,
+		s1 = 0,
+		st = 0,
+		n1 = 0,
+		t1 = 0,
+		tt = 0;
+	let xc = 0,
+		xs = 0,
+		x1 = 0,
+		xt = 0;
+	for (const [from, to] of ranges) {
+		let c = Math.cos(w * from);
+		let s = Math.sin(w * from);
+		for (let i = from; i < to; i++) {
+			const t = i / n;
+			const v = x[i];
+			cc += c * c;
+			cs += c * s;
+			c1 += c;
+			ct += c * t;
+			ss += s * s;
+			s1 += s;
+			st += s * t;
+			n1 += 1;
+			t1 += t;
+			tt += t * t;
+			xc += v * c;
+			xs += v * s;
+			x1 += v;
+			xt += v * t;
+			const c2 = c * cw - s * sw;
+			s = s * cw + c * sw;
+			c = c2;
+			if (((i - from) & 1023) === 1023) {
+				const r = Math.sqrt(c * c + s * s);
+				c /= r;
+				s /= r;
+			}
 		}
 	}
-	for (let r = 0; r < 4; r++) for (let c = 0; c < r; c++) A[r][c] = A[c][r];
+	const A = [
+		[cc, cs, c1, ct],
+		[cs, ss, s1, st],
+		[c1, s1, n1, t1],
+		[ct, st, t1, tt]
+	];
+	const y = [xc, xs, x1, xt];
 	const rhs = [...y];
 	const p = solveSmall(A, y);
 	// the sum of squares the fit explains, pᵀy: what a frequency search must maximise
 	return p
-		? { a: p[0], b: p[1], explained: p.reduce((s, v, r) => s + v * rhs[r], 0) }
+		? { a: p[0], b: p[1], explained: p.reduce((acc, v, r) => acc + v * rhs[r], 0) }
 		: { a: 0, b: 0, explained: 0 };
 }
 
@@ -552,7 +616,11 @@ function findTones(x: Float64Array, fs: number, fMax: number): number[] {
 	const floor = medianLevel(low, 4, kMax);
 	const df = fs / nfft;
 	const tones: number[] = [];
-	for (const p of findPeaks(low, 4, kMax, 8 * floor, 2)) {
+	// the strongest lines first, none 60 dB below the strongest (a quantised record's spurs), at
+	// most eight: each costs a fit over the whole record
+	const lines = findPeaks(low, 4, kMax, 8 * floor, 2).sort((a, b) => low[b.bin] - low[a.bin]);
+	const strongest = lines.length ? low[lines[0].bin] : 0;
+	for (const p of lines.filter((q) => low[q.bin] >= 1e-3 * strongest).slice(0, 8)) {
 		// steady: the highest segment no more than 1.5× the lowest, and no trend over the record
 		const levels = spectra
 			.filter((_, i) => !hitSegments.has(i))
@@ -563,16 +631,16 @@ function findTones(x: Float64Array, fs: number, fMax: number): number[] {
 		const firstHalf = levels.slice(0, mid).reduce((a, b) => a + b, 0) / mid;
 		const lastHalf = levels.slice(mid).reduce((a, b) => a + b, 0) / (levels.length - mid);
 		if (lo <= 0 || hi / lo > 1.5 || Math.abs(Math.log(firstHalf / lastHalf)) > 0.2) continue;
-		// the projection has side lobes every 1/T: a grid at a quarter of that over ±2 segment
-		// bins finds the main lobe, golden section then its top
-		const step = 1 / (4 * T);
+		// under the Hann window the projection's main lobe is ±2/T wide: a grid of 1/T over ±2
+		// segment bins lands in it, within half a step of the top, and golden section finds the top
+		const step = 1 / T;
 		let best = (p.bin - 2) * df;
 		let bestP = -1;
 		for (let f = Math.max(step, (p.bin - 2) * df); f <= (p.bin + 2) * df; f += step) {
 			const pr = projection(x, fs, f);
 			if (pr > bestP) [best, bestP] = [f, pr];
 		}
-		const f = goldenMax((f) => projection(x, fs, f), best - step, best + step, 1e-6 * step);
+		const f = goldenMax((f) => projection(x, fs, f), best - step, best + step, 1e-3 * step);
 		tones.push(f);
 	}
 	return tones;
@@ -614,7 +682,7 @@ function withoutTones(
 	x: Float64Array,
 	fs: number,
 	frequencies: number[],
-	use: (i: number) => boolean,
+	use: Ranges,
 	refine = 0
 ): { rest: Float64Array; tones: Tone[] } {
 	if (frequencies.length === 0) return { rest: x, tones: [] };
@@ -622,8 +690,23 @@ function withoutTones(
 	const fit = frequencies.map((f) => ({ f, a: 0, b: 0 }));
 	const add = (t: { f: number; a: number; b: number }, sign: number) => {
 		const w = (2 * Math.PI * t.f) / fs;
-		for (let i = 0; i < rest.length; i++)
-			rest[i] += sign * (t.a * Math.cos(w * i) + t.b * Math.sin(w * i));
+		const cw = Math.cos(w);
+		const sw = Math.sin(w);
+		const a = sign * t.a;
+		const b = sign * t.b;
+		let c = 1;
+		let s = 0;
+		for (let i = 0; i < rest.length; i++) {
+			rest[i] += a * c + b * s;
+			const c2 = c * cw - s * sw;
+			s = s * cw + c * sw;
+			c = c2;
+			if ((i & 1023) === 1023) {
+				const r = Math.sqrt(c * c + s * s);
+				c /= r;
+				s /= r;
+			}
+		}
 	};
 	for (let round = 0; round < (fit.length > 1 ? 3 : 1); round++)
 		for (const t of fit) {
@@ -899,10 +982,18 @@ function prepare(samples: ArrayLike<number>, fs: number, fMax: number) {
 	// the hit and in the last quarter, which pins their frequency over the whole record
 	const tail = Math.floor(0.75 * x0.length);
 	const refine = 0.5 / (x0.length / fs); // half a resolution step of the whole record
-	let { rest, tones } = withoutTones(x0, fs, toneHz, (i) => i >= tail, refine);
+	// on a long record, half a segment's worth at each end is fit enough: far apart, they pin the
+	// frequency
+	const part = MAX_SEGMENT >> 1;
+	const end = x0.length;
+	let { rest, tones } = withoutTones(x0, fs, toneHz, [[Math.max(tail, end - part), end]], refine);
 	let { hit, preRms } = findHit(rest, fs);
 	if (toneHz.length) {
-		const quiet = (i: number) => i < hit - Math.round(0.002 * fs) || i >= tail;
+		const before = Math.max(0, Math.min(tail, hit - Math.round(0.002 * fs)));
+		const quiet: Ranges = [
+			[Math.max(0, before - part), before],
+			[Math.max(tail, end - part), end]
+		];
 		({ rest, tones } = withoutTones(x0, fs, toneHz, quiet, refine));
 		({ hit, preRms } = findHit(rest, fs));
 	}
@@ -948,7 +1039,7 @@ function settle(options: RingdownOptions, fs: number) {
 }
 
 /**
- * Separate hits in a record: jumps of 16× in mean square (12 dB in amplitude) over the 100 ms
+ * Separate hits in a record: jumps of 8× in mean square (9 dB in amplitude) over the 100 ms
  * before, reaching a hundredth of the loudest window (a tenth in amplitude), at least half a
  * second after the last hit and once its ring-down has fallen below a tenth of its peak in
  * amplitude. A strike sooner than that, or onto a ringing structure, is a double hit of the same
@@ -956,9 +1047,12 @@ function settle(options: RingdownOptions, fs: number) {
  * indices.
  */
 function findOnsets(x: Float64Array, fs: number): number[] {
-	const { w, e, loudest, jumps } = energyJumps(x, fs, 16, 1 / 100);
+	// the loudest of a window and the two after it: a low mode takes a few milliseconds to swing
+	// to full amplitude, and over a running tone the first window alone may rise less than 12 dB
+	const { w, e, loudest, jumps } = energyJumps(x, fs, 8, 1 / 100, 2);
 	if (e.length < 40) return [];
 	const gap = Math.ceil(0.5 / (w / fs));
+	const usual = quantile(e, 0.5);
 	const onsets: number[] = [];
 	let last = -Infinity;
 	let from = 0; // where the current hit's segment began
@@ -968,8 +1062,10 @@ function findOnsets(x: Float64Array, fs: number): number[] {
 		for (let k = from; k < b; k++) peak = Math.max(peak, e[k]);
 		let pre = 0;
 		for (let k = b - 10; k < b; k++) pre += e[k] / 10;
-		// onto a structure still ringing from a hit before it (one at the record's start included)
-		if (peak > loudest / 100 && pre > peak / 100) continue;
+		// onto a structure still ringing from a hit before it (one at the record's start included):
+		// rung down means 20 dB below its peak, or down near the record's usual level (a running
+		// tone's, in a record of hits that each ring down)
+		if (peak > loudest / 100 && pre > Math.max(peak / 100, 2 * usual)) continue;
 		onsets.push(b);
 		last = b;
 		from = b;
@@ -1035,6 +1131,16 @@ function severalHits(
 		),
 		waveform: waveformChart(x0, fs)
 	};
+}
+
+/** The q-quantile of xs, from at most 4,096 evenly spaced values. */
+function quantile(xs: Float64Array, q: number): number {
+	const take = Math.min(xs.length, 4096);
+	if (take === 0) return 0;
+	const pick = new Float64Array(take);
+	for (let i = 0; i < take; i++) pick[i] = xs[Math.floor((i * xs.length) / take)];
+	pick.sort();
+	return pick[Math.min(take - 1, Math.floor(q * take))];
 }
 
 function medianOf(xs: number[]): number | null {
