@@ -138,6 +138,33 @@ export class CsvCollector {
 	}
 }
 
+/**
+ * Refuses, from the bytes and before anything is decoded or split, a CSV whose first row is wider
+ * than any recording: the cells of that row are counted by the commonest separator (, ; tab |) up
+ * to its first line break. A quoted first row is left to the full reader.
+ */
+export function checkFirstRow(bytes: Uint8Array): void {
+	const counts = new Map<number, number>([
+		[0x2c, 0],
+		[0x3b, 0],
+		[0x09, 0],
+		[0x7c, 0]
+	]);
+	for (let i = 0; i < bytes.length; i++) {
+		const b = bytes[i];
+		if (b === 0x0a || b === 0x0d) break;
+		if (b === 0x22) return;
+		const c = counts.get(b);
+		if (c !== undefined) counts.set(b, c + 1);
+	}
+	const cells = Math.max(...counts.values()) + 1;
+	if (cells > MAX_CHANNELS + 1)
+		throw new RecordingError(
+			`Row 1 has ${cells.toLocaleString('en')} columns; a recording has at most ${MAX_CHANNELS} channels and a time column.`,
+			{ row: 1 }
+		);
+}
+
 /** Sample rate from a time column, refusing one that is not evenly spaced. */
 function rateFromTime(t: Float64Array): number {
 	if (t.length < 2) throw new RecordingError('The time column needs at least two rows.');

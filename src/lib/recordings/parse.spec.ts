@@ -3,7 +3,7 @@ import { WaveFile } from 'wavefile';
 import { parseCsvText } from './csv.ts';
 import { parseWav } from './wav.ts';
 import { RecordingError } from './types.ts';
-import { formatOf } from './parse.ts';
+import { formatOf, parseRecordingBytes, preflight } from './parse.ts';
 
 const sine = (n: number, fs: number, f: number, a = 0.5) =>
 	Array.from({ length: n }, (_, i) => a * Math.exp(-i / n) * Math.sin((2 * Math.PI * f * i) / fs));
@@ -203,5 +203,19 @@ describe('a CSV far wider than a recording', () => {
 		expect(() => parseCsvText(`time,${seventeen}\n`, 'wide.csv', null)).toThrow(
 			/Row 1 has 18 columns/
 		);
+	});
+
+	it('is refused from its bytes before they are decoded, by the commonest separator', () => {
+		const wide = new TextEncoder().encode(`${'x;'.repeat(40)}x\r\n1;2\n`);
+		expect(() => preflight(wide, 'wide.csv', 'text/csv')).toThrow(/Row 1 has 41 columns/);
+		expect(() => parseRecordingBytes(wide, 'wide.csv', 'text/csv', 1000)).toThrow(
+			/Row 1 has 41 columns/
+		);
+		// a narrow first row passes; a quoted one is left to the full reader
+		expect(() => preflight(new TextEncoder().encode('time,a\n0,1\n'), 'ok.csv', '')).not.toThrow();
+		const quoted = new TextEncoder().encode(`"${'a,'.repeat(40)}"\n`);
+		expect(() => preflight(quoted, 'q.csv', 'text/csv')).not.toThrow();
+		// a WAV is not read as text
+		expect(() => preflight(new Uint8Array([1, 2, 3]), 'hit.wav', 'audio/wav')).not.toThrow();
 	});
 });

@@ -3,7 +3,7 @@
  * by one rule (a .wav name or a WAV media type is WAV; a .csv/.txt name or a text type is CSV;
  * anything else is refused with the same message), then the WAV or CSV reader.
  */
-import { parseCsvBlob, parseCsvText } from './csv.ts';
+import { checkFirstRow, parseCsvBlob, parseCsvText } from './csv.ts';
 import { parseWav } from './wav.ts';
 import { RecordingError, type Recording } from './types.ts';
 
@@ -22,9 +22,17 @@ export function parseRecordingBytes(
 	mediaType: string,
 	sampleRateHz: number | null
 ): Recording {
-	return formatOf(fileName, mediaType) === 'wav'
-		? parseWav(bytes, fileName)
-		: parseCsvText(new TextDecoder().decode(bytes), fileName, sampleRateHz);
+	if (formatOf(fileName, mediaType) === 'wav') return parseWav(bytes, fileName);
+	checkFirstRow(bytes);
+	return parseCsvText(new TextDecoder().decode(bytes), fileName, sampleRateHz);
+}
+
+/**
+ * What can be refused from a file's name, type and first row alone, before it is handed to the
+ * analysis thread (the server, at upload).
+ */
+export function preflight(bytes: Uint8Array, fileName: string, mediaType: string): void {
+	if (formatOf(fileName, mediaType) === 'csv') checkFirstRow(bytes);
 }
 
 /** From a File (the tablet's worker): a CSV is read in chunks, with progress. */

@@ -12,6 +12,7 @@ import { recordings } from './db/schema.ts';
 import { setting } from './config.ts';
 import { RecordingError } from '../recordings/types.ts';
 import { analyseUpload } from './analysis/pool.ts';
+import { preflight } from '../recordings/parse.ts';
 import type { StoredAnalysis } from './analysis/task.ts';
 
 export function dataDir(): string {
@@ -58,6 +59,12 @@ export async function ingest(input: IngestInput): Promise<{
 			sha256: existing.sha256,
 			analysis: existing.analysis as unknown as StoredAnalysis
 		};
+	// a too-wide CSV or a file of another kind is refused here, before a copy goes to the thread
+	preflight(
+		new Uint8Array(input.bytes.buffer, input.bytes.byteOffset, input.bytes.byteLength),
+		input.fileName,
+		input.mediaType
+	);
 	const outcome = await analyseUpload({
 		bytes: input.bytes,
 		fileName: input.fileName,
