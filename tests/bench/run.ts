@@ -11,9 +11,10 @@ import { recordingsBench } from './recordings.bench.ts';
 import { scaleBench } from './scale.bench.ts';
 import { loadBench } from './load.bench.ts';
 import { floorBench } from './floor.bench.ts';
+import { uploadBench } from './upload.bench.ts';
 import { printTable, type Figure } from './harness.ts';
 
-// `npm run bench -- board` runs only the named parts (floor, sync, scale, load, recordings, engine)
+// `npm run bench -- board` runs only the named parts (floor, sync, scale, load, upload, recordings, engine)
 const only = process.argv.slice(2);
 const wanted = (part: string) => only.length === 0 || only.includes(part);
 const figures: Figure[] = [];
@@ -40,6 +41,11 @@ if (wanted('load')) {
 		'[bench] load: 50 connections pushing for 20 s, the board meanwhile, a sign-in burst …'
 	);
 	figures.push(...(await loadBench()));
+	globalThis.gc?.();
+}
+if (wanted('upload')) {
+	console.log('[bench] the server while it analyses a 49 MB WAV …');
+	figures.push(...(await uploadBench()));
 	globalThis.gc?.();
 }
 if (wanted('recordings')) {

@@ -11,6 +11,8 @@ import Database from 'better-sqlite3';
 
 export interface BuiltServer {
 	origin: string;
+	/** the server's process (for `npm run serve`, npm's: the server is its child) */
+	pid: number;
 	dir: string;
 	dbFile: string;
 	/** resolves with the first stdout line that matches */
@@ -123,6 +125,7 @@ export async function startBuiltServer(
 	};
 	return {
 		origin,
+		pid: child.pid!,
 		dir,
 		dbFile: env.DATABASE_URL,
 		waitForLine(pattern, timeoutMs = 20_000) {
