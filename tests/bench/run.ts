@@ -50,7 +50,7 @@ if (wanted('upload')) {
 }
 if (wanted('recordings')) {
 	console.log('[bench] bump-test analysis and parsing …');
-	figures.push(...recordingsBench());
+	figures.push(...(await recordingsBench()));
 	globalThis.gc?.();
 }
 if (wanted('engine')) {

@@ -1,8 +1,10 @@
 /**
  * CSV recordings: a time column plus one or more channels, or channels alone with the sample rate
  * given. Header row and a units row are detected; a decimal comma is accepted where the separator
- * is not a comma. Rows arrive in chunks (papaparse streaming), so a 50 MB file never sits in
- * memory as strings all at once.
+ * is not a comma. The file streams through in chunks: papaparse reads the first lines (separator,
+ * header, units, quoting), and the plain numeric rows after them are split here, one line at a
+ * time, straight into columns sized from the file's length, so a 50 MB file never exists as rows
+ * of strings and its columns are allocated once.
  */
 import Papa from 'papaparse';
 import {
@@ -17,20 +19,28 @@ import {
 
 const TIME_NAMES = /^(t|time|time\s*\(s\)|seconds?|s|zeit|temps|tiempo|tid)$/i;
 
-/** Growable Float64Array, so channels stay compact while rows stream in. */
+/**
+ * A Float64Array filled as rows stream in: sized once from the expected row count, grown by a
+ * quarter when the guess was short, and handed over without a copy when nearly full.
+ */
 class Column {
-	data = new Float64Array(4096);
+	data: Float64Array;
 	length = 0;
+	constructor(capacity: number) {
+		this.data = new Float64Array(Math.max(64, capacity));
+	}
 	push(v: number) {
 		if (this.length === this.data.length) {
-			const next = new Float64Array(this.data.length * 2);
+			const next = new Float64Array(Math.ceil(this.data.length * 1.25) + 64);
 			next.set(this.data);
 			this.data = next;
 		}
 		this.data[this.length++] = v;
 	}
 	values(): Float64Array {
-		return this.data.slice(0, this.length);
+		return this.length >= 0.9 * this.data.length
+			? this.data.subarray(0, this.length)
+			: this.data.slice(0, this.length);
 	}
 }
 
@@ -44,7 +54,18 @@ export class CsvCollector {
 	#columns: Column[] | null = null;
 	#decimalComma = false;
 	#width = 0;
+	#expectedRows = 4096;
 	constructor(readonly delimiterIsComma: () => boolean) {}
+
+	/** How many rows the file probably holds (from its length), so columns are sized once. */
+	expectRows(n: number): void {
+		this.#expectedRows = Math.max(64, Math.ceil(n));
+	}
+
+	/** Whether the first numeric row has been seen (header and units are settled). */
+	get started(): boolean {
+		return this.#columns !== null;
+	}
 
 	rows(rows: string[][]): void {
 		for (const raw of rows) {
@@ -69,7 +90,7 @@ export class CsvCollector {
 					continue;
 				}
 				this.#width = this.#names?.length ?? cells.length;
-				this.#columns = Array.from({ length: this.#width }, () => new Column());
+				this.#columns = Array.from({ length: this.#width }, () => new Column(this.#expectedRows));
 				this.#decimalComma =
 					!this.delimiterIsComma() && cells.some((c) => /^\s*[+-]?\d*,\d+/.test(c));
 			}
@@ -139,30 +160,43 @@ export class CsvCollector {
 }
 
 /**
- * Refuses, from the bytes and before anything is decoded or split, a CSV whose first row is wider
- * than any recording: the cells of that row are counted by the commonest separator (, ; tab |) up
- * to its first line break. A quoted first row is left to the full reader.
+ * The cells of one line counted by its commonest separator (, ; tab |), up to its first line
+ * break; null for a quoted line, which only a full reader can count.
  */
-export function checkFirstRow(bytes: Uint8Array): void {
+function cellsOf(codeAt: (i: number) => number, length: number): number | null {
 	const counts = new Map<number, number>([
 		[0x2c, 0],
 		[0x3b, 0],
 		[0x09, 0],
 		[0x7c, 0]
 	]);
-	for (let i = 0; i < bytes.length; i++) {
-		const b = bytes[i];
+	for (let i = 0; i < length; i++) {
+		const b = codeAt(i);
 		if (b === 0x0a || b === 0x0d) break;
-		if (b === 0x22) return;
+		if (b === 0x22) return null;
 		const c = counts.get(b);
 		if (c !== undefined) counts.set(b, c + 1);
 	}
-	const cells = Math.max(...counts.values()) + 1;
-	if (cells > MAX_CHANNELS + 1)
+	return Math.max(...counts.values()) + 1;
+}
+
+function refuseWide(row: number, cells: number | null): void {
+	if (cells !== null && cells > MAX_CHANNELS + 1)
 		throw new RecordingError(
-			`Row 1 has ${cells.toLocaleString('en')} columns; a recording has at most ${MAX_CHANNELS} channels and a time column.`,
-			{ row: 1 }
+			`Row ${row} has ${cells.toLocaleString('en')} columns; a recording has at most ${MAX_CHANNELS} channels and a time column.`,
+			{ row }
 		);
+}
+
+/**
+ * Refuses, from the bytes and before anything is decoded or split, a CSV whose first row is wider
+ * than any recording. A quoted first row is left to the full reader.
+ */
+export function checkFirstRow(bytes: Uint8Array): void {
+	refuseWide(
+		1,
+		cellsOf((i) => bytes[i], bytes.length)
+	);
 }
 
 /** Sample rate from a time column, refusing one that is not evenly spaced. */
@@ -183,9 +217,95 @@ function rateFromTime(t: Float64Array): number {
 	return (t.length - 1) / (t[t.length - 1] - t[0]);
 }
 
+const DELIMITERS = [',', ';', '\t', '|'];
+/** lines read through papaparse before the rest is split here */
+const HEAD_LINES = 8;
+
 /**
- * Parses CSV text (server, tests) in chunks, so the row arrays of a large file never all exist at
- * once. `onChunk` reports progress as a fraction of characters read.
+ * A CSV recording fed in chunks of text. The first lines go through papaparse, which settles the
+ * separator and reads any header and units row (quotes included); later lines without a quote are
+ * split on the separator here, and a quoted one goes through papaparse alone.
+ */
+class CsvStream {
+	#collector: CsvCollector;
+	#delimiter: string | null = null;
+	#carry = '';
+	#head: string[] = [];
+	#read = 0;
+	constructor(readonly totalChars: number) {
+		this.#collector = new CsvCollector(() => this.#delimiter === ',');
+	}
+
+	push(chunk: string): void {
+		const text = this.#carry + chunk;
+		let from = 0;
+		for (;;) {
+			const nl = text.indexOf('\n', from);
+			if (nl < 0) break;
+			this.#line(text, from, nl);
+			from = nl + 1;
+		}
+		this.#carry = text.slice(from);
+		this.#read += chunk.length;
+	}
+
+	finish(fileName: string, sizeBytes: number, sampleRateHz: number | null): Recording {
+		if (this.#carry.length) this.#line(this.#carry, 0, this.#carry.length);
+		this.#carry = '';
+		if (this.#delimiter === null) this.#settle();
+		return this.#collector.finish(fileName, sizeBytes, sampleRateHz);
+	}
+
+	#line(text: string, from: number, to: number): void {
+		const end = to > from && text.charCodeAt(to - 1) === 13 ? to - 1 : to; // CRLF
+		if (this.#delimiter === null) {
+			// a line far longer than a row of numbers: counted before papaparse splits it
+			if (end - from > 4096)
+				refuseWide(
+					this.#head.length + 1,
+					cellsOf((i) => text.charCodeAt(from + i), end - from)
+				);
+			const line = text.slice(from, end);
+			this.#head.push(line);
+			if (this.#head.length >= HEAD_LINES) this.#settle();
+			return;
+		}
+		if (end === from) return; // blank line
+		const line = text.slice(from, end);
+		if (line.includes('"')) {
+			const row = Papa.parse<string[]>(line, { delimiter: this.#delimiter });
+			this.#collector.rows(row.data.filter((r) => !(r.length === 1 && r[0] === '')));
+			return;
+		}
+		this.#collector.rows([line.split(this.#delimiter)]);
+	}
+
+	/** papaparse reads the first lines: the separator, and the header, units and first rows. */
+	#settle(): void {
+		const head = this.#head.join('\n');
+		const parsed = Papa.parse<string[]>(head, {
+			skipEmptyLines: true,
+			delimitersToGuess: DELIMITERS
+		});
+		this.#delimiter = parsed.meta.delimiter || ',';
+		// rows ≈ the file's length over a typical line's (the median: a header line is short)
+		if (this.totalChars > 0 && this.#head.length > 0) {
+			const lengths = this.#head.map((l) => l.length + 1).sort((a, b) => a - b);
+			const typical = lengths[lengths.length >> 1];
+			this.#collector.expectRows((1.02 * this.totalChars) / Math.max(1, typical) + 64);
+		}
+		this.#head = [];
+		this.#collector.rows(parsed.data);
+	}
+
+	get fraction(): number {
+		return this.totalChars > 0 ? Math.min(1, this.#read / this.totalChars) : 0;
+	}
+}
+
+/**
+ * Parses CSV text (server, tests) in chunks of 1 MB, so no array of its rows is ever built.
+ * `onChunk` reports progress as a fraction of characters read.
  */
 export function parseCsvText(
 	text: string,
@@ -194,68 +314,42 @@ export function parseCsvText(
 	onChunk: (fraction: number) => void = () => {}
 ): Recording {
 	checkSize(fileName, text.length);
-	let comma = true;
-	const collector = new CsvCollector(() => comma);
-	let failure: unknown = null;
-	// papaparse streams a string in chunks too, though its typings only admit that for files
-	const config = {
-		skipEmptyLines: true,
-		delimitersToGuess: [',', ';', '\t', '|'],
-		chunkSize: 1024 * 1024,
-		chunk: (res: Papa.ParseResult<string[]>, parser: Papa.Parser) => {
-			if (failure) return;
-			comma = res.meta.delimiter === ',';
-			try {
-				collector.rows(res.data);
-				onChunk(Math.min(1, res.meta.cursor / text.length));
-			} catch (e) {
-				failure = e;
-				parser.abort();
-			}
-		}
-	};
-	Papa.parse<string[]>(text, config as unknown as Papa.ParseConfig<string[]>);
-	if (failure) throw failure;
-	return collector.finish(fileName, text.length, sampleRateHz);
+	const stream = new CsvStream(text.length);
+	const step = 1 << 16;
+	for (let at = 0; at < text.length; at += step) {
+		stream.push(text.slice(at, at + step));
+		onChunk(stream.fraction);
+	}
+	return stream.finish(fileName, text.length, sampleRateHz);
 }
 
-/** Parses a CSV Blob in chunks (browser worker), reporting progress as a fraction of bytes read. */
-export function parseCsvBlob(
+/**
+ * Parses a CSV Blob (the tablet's worker) a quarter megabyte at a time, reporting progress as a
+ * fraction of bytes read: the file itself is never read into memory whole.
+ */
+export async function parseCsvBlob(
 	file: Blob & { name?: string },
 	sampleRateHz: number | null,
 	onProgress: (f: number) => void = () => {}
 ): Promise<Recording> {
 	const name = file.name ?? 'recording.csv';
 	checkSize(name, file.size);
-	return new Promise((resolve, reject) => {
-		let comma = true;
-		const collector = new CsvCollector(() => comma);
-		let failed = false;
-		Papa.parse<string[]>(file as File, {
-			skipEmptyLines: true,
-			delimitersToGuess: [',', ';', '\t', '|'],
-			chunkSize: 1024 * 1024,
-			chunk: (res, parser) => {
-				if (failed) return;
-				comma = res.meta.delimiter === ',';
-				try {
-					collector.rows(res.data);
-					onProgress(Math.min(1, res.meta.cursor / file.size));
-				} catch (e) {
-					failed = true;
-					parser.abort();
-					reject(e);
-				}
-			},
-			complete: () => {
-				if (failed) return;
-				try {
-					resolve(collector.finish(name, file.size, sampleRateHz));
-				} catch (e) {
-					reject(e);
-				}
-			},
-			error: (err) => reject(new RecordingError(`${name} could not be read: ${err.message}`))
-		});
-	});
+	const stream = new CsvStream(file.size);
+	// slice by slice: a stream of the whole Blob reads ahead of the parser, and every chunk it
+	// hands over is a buffer of its own that lingers until the next collection
+	const decoder = new TextDecoder();
+	const step = 1 << 18;
+	try {
+		for (let at = 0; at < file.size; at += step) {
+			const bytes = new Uint8Array(await file.slice(at, at + step).arrayBuffer());
+			stream.push(decoder.decode(bytes, { stream: at + step < file.size }));
+			onProgress(Math.min(1, (at + bytes.length) / file.size));
+		}
+	} catch (e) {
+		if (e instanceof RecordingError) throw e;
+		throw new RecordingError(
+			`${name} could not be read: ${e instanceof Error ? e.message : String(e)}`
+		);
+	}
+	return stream.finish(name, file.size, sampleRateHz);
 }
