@@ -70,7 +70,7 @@ async function millionColumns(origin: string, pid: number, cookie: string, asset
 	const res = await fetch(`${origin}/api/recordings?${q}`, {
 		method: 'POST',
 		headers: { 'content-type': 'text/csv', cookie, origin },
-		body: csv
+		body: new Blob([csv])
 	});
 	const body = (await res.json()) as { message?: string };
 	const ms = performance.now() - t0;
@@ -104,7 +104,7 @@ async function healthDuringUpload(
 		const upload = fetch(`${server.origin}/api/recordings?${q}`, {
 			method: 'POST',
 			headers: { 'content-type': 'audio/wav', cookie, origin: server.origin },
-			body: wav
+			body: new Uint8Array(wav)
 		}).then(async (r) => {
 			done = true;
 			return { status: r.status, body: await r.json(), seconds: (performance.now() - t0) / 1000 };

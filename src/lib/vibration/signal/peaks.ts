@@ -35,9 +35,21 @@ export function findPeaks(
 		if (top) cands.push(k);
 	}
 	if (cands.length === 0) return [];
-	// nearest strictly higher sample on each side within the searched range (monotonic stacks)
 	const a0 = lo - 1;
 	const a1 = hi + 1;
+	// a few candidates (the usual spectrum: modes over a quiet floor): walk out from each to higher
+	// ground, keeping the lowest point on the way; only the tallest walks far
+	if (cands.length <= 64) {
+		return cands.map((k) => {
+			const h = mag[k];
+			let leftMin = h;
+			for (let i = k - 1; i >= a0 && mag[i] <= h; i--) if (mag[i] < leftMin) leftMin = mag[i];
+			let rightMin = h;
+			for (let i = k + 1; i < a1 && mag[i] <= h; i++) if (mag[i] < rightMin) rightMin = mag[i];
+			return { bin: k, height: h, prominence: h - Math.max(leftMin, rightMin) };
+		});
+	}
+	// nearest strictly higher sample on each side within the searched range (monotonic stacks)
 	const len = a1 - a0;
 	const prev = new Int32Array(len);
 	const next = new Int32Array(len);

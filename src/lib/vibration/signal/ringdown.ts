@@ -24,7 +24,7 @@
  *    damping disagreement, a close neighbour, a tone nearby, heavy damping).
  */
 import { finite, integerAtLeast, positive, VibrationInputError } from '../errors.ts';
-import { analyticBand, bucketMax, magnitude, nextPow2, realFft } from './spectrum.ts';
+import { analyticBand, bucketMax, magnitudeSpectrum, nextPow2, realFft } from './spectrum.ts';
 import { findPeaks, halfPowerBins, interpolatePeak } from './peaks.ts';
 
 export type ModeFlag =
@@ -203,7 +203,10 @@ function energyJumps(x: ArrayLike<number>, fs: number, ratio: number, share: num
 		let sum = 0;
 		for (let i = b * w, end = i + w; i < end; i++) sum += x[i] * x[i];
 		e[b] = sum / w;
-		if (e[b] > loudest) [loudest, loudestAt] = [e[b], b];
+		if (e[b] > loudest) {
+			loudest = e[b];
+			loudestAt = b;
+		}
 	}
 	const jumps: number[] = [];
 	let pre = 0;
@@ -404,7 +407,7 @@ function hannSpectrum(
 		seg[i] = x[from + i] * hann[i];
 		wsum += hann[i];
 	}
-	const mag = magnitude(realFft(seg, nfft));
+	const mag = magnitudeSpectrum(seg, nfft);
 	for (let k = 0; k < mag.length; k++) mag[k] *= 2 / wsum;
 	return mag;
 }
@@ -739,7 +742,11 @@ function findHit(x: Float64Array, fs: number): { hit: number; preRms: number } {
 	const e = rmsEnvelope(x, w);
 	let loudest = 0;
 	let at = 0;
-	for (let k = 0; k < e.length; k++) if (e[k] > loudest) [loudest, at] = [e[k], k];
+	for (let k = 0; k < e.length; k++)
+		if (e[k] > loudest) {
+			loudest = e[k];
+			at = k;
+		}
 	const before = e.slice(0, at).sort();
 	const pre = before[Math.floor(before.length / 2)] ?? Infinity;
 	if (before.length < 4 || pre > loudest / 8) {
@@ -965,9 +972,14 @@ function characterise(
 }
 
 /** Mean and trend removed, clipping seen, tones found and subtracted, the hit located. */
-function prepare(samples: ArrayLike<number>, fs: number, fMax: number) {
+function prepare(
+	samples: ArrayLike<number>,
+	fs: number,
+	fMax: number,
+	detrended: Float64Array | null = null
+) {
 	const clipped = isClipped(samples);
-	const x0 = detrend(samples);
+	const x0 = detrended ?? detrend(samples);
 	let max = 0;
 	for (let i = 0; i < x0.length; i++) max = Math.max(max, Math.abs(x0[i]));
 	if (max === 0)
@@ -1017,7 +1029,7 @@ export function analyzeRingdown(
 	const x0 = detrend(samples);
 	const onsets = findOnsets(x0, fs);
 	if (onsets.length >= 2) return severalHits(samples, x0, fs, onsets, opt, []);
-	return oneHit(samples, fs, opt, true);
+	return oneHit(samples, fs, opt, true, x0);
 }
 
 type Settled = ReturnType<typeof settle>;
@@ -1216,10 +1228,11 @@ function oneHit(
 	samples: ArrayLike<number>,
 	fs: number,
 	opt: Settled,
-	maySplit: boolean
+	maySplit: boolean,
+	detrended: Float64Array | null = null
 ): RingdownResult {
 	const { maxModes, minProm, noiseFactor, tauW, progress, fMaxAsked } = opt;
-	const { clipped, x0, rest, tones, hit, preRms } = prepare(samples, fs, fMaxAsked);
+	const { clipped, x0, rest, tones, hit, preRms } = prepare(samples, fs, fMaxAsked, detrended);
 	// hits a strong tone hid: once the tones are out, the record may show several
 	if (maySplit && tones.length) {
 		const onsets = findOnsets(rest, fs);
@@ -1243,7 +1256,7 @@ function oneHit(
 		opt.zeroPad !== undefined
 			? Math.min(nextPow2(n) * nextPow2(integerAtLeast('zeroPad', opt.zeroPad, 1)), 1 << 22)
 			: Math.min(2 * nextPow2(n), Math.max(nextPow2(n), PAD_UP_TO));
-	const mag = magnitude(realFft(windowed, nfft));
+	const mag = magnitudeSpectrum(windowed, nfft);
 	progress(0.45);
 	const df = fs / nfft;
 	const T = n / fs;

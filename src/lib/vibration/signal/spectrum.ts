@@ -13,11 +13,16 @@ export function nextPow2(n: number): number {
 	return p;
 }
 
-let buffers: { size: number; input: Float64Array; out: Float64Array } | null = null;
+const buffers = new Map<number, { input: Float64Array; out: Float64Array }>();
+/** Work buffers per size (one analysis uses two or three sizes in turn). */
 function buffersFor(size: number) {
-	if (!buffers || buffers.size !== size)
-		buffers = { size, input: new Float64Array(size), out: new Float64Array(2 * size) };
-	return buffers;
+	let b = buffers.get(size);
+	if (!b) {
+		if (buffers.size > 4) buffers.clear();
+		b = { input: new Float64Array(size), out: new Float64Array(2 * size) };
+		buffers.set(size, b);
+	}
+	return b;
 }
 
 function fftOf(size: number): FFT {
@@ -62,6 +67,25 @@ export function realFft(x: ArrayLike<number>, nfft: number): OneSided {
 	return { re, im, nfft };
 }
 
+/** |X_k|, k = 0 … nfft/2, of real `x` zero-padded to `nfft`: realFft then magnitude, in one pass. */
+export function magnitudeSpectrum(x: ArrayLike<number>, nfft: number): Float64Array {
+	integerAtLeast('nfft', nfft, 4);
+	if (nfft !== nextPow2(nfft)) throw new VibrationInputError('nfft', 'a power of two', nfft);
+	if (x.length > nfft)
+		throw new VibrationInputError('nfft', `at least the signal length ${x.length}`, nfft);
+	const { input, out } = buffersFor(nfft);
+	for (let i = 0; i < x.length; i++) input[i] = x[i];
+	input.fill(0, x.length);
+	fftOf(nfft).realTransform(out, input);
+	const m = new Float64Array(nfft / 2 + 1);
+	for (let k = 0; k < m.length; k++) {
+		const re = out[2 * k];
+		const im = out[2 * k + 1];
+		m[k] = Math.sqrt(re * re + im * im);
+	}
+	return m;
+}
+
 /** |X_k| of a one-sided spectrum. */
 export function magnitude(s: OneSided): Float64Array {
 	const m = new Float64Array(s.re.length);
@@ -89,7 +113,10 @@ export function bucketMax(
 		let bv = Math.abs(y(s));
 		for (let i = s + 1; i < e; i++) {
 			const v = Math.abs(y(i));
-			if (v > bv) [best, bv] = [i, v];
+			if (v > bv) {
+				best = i;
+				bv = v;
+			}
 		}
 		xs.push(x(best));
 		ys.push(y(best));
