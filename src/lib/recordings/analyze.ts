@@ -9,7 +9,16 @@ import {
 	type ImpactResult,
 	type RingdownResult
 } from '../vibration/index.ts';
+import type { ResponseKind } from '../vibration/damping.ts';
 import type { Recording } from './types.ts';
+
+/** What a channel measures, from its unit (an accelerometer when the unit says nothing). */
+export function responseKindOf(unit: string): ResponseKind {
+	const u = unit.trim().toLowerCase();
+	if (/^(mm|m|in|ips|µm)\/s$|^ips$|^in\/sec$/.test(u)) return 'velocity';
+	if (/^(µm|um|mm|mil|mils|m)$/.test(u)) return 'displacement';
+	return 'acceleration';
+}
 
 export interface AnalysisChoice {
 	/** index of the response channel */
@@ -42,14 +51,17 @@ export function analyzeRecording(
 ): Analysis {
 	const resp = r.channels[choice.response];
 	if (!resp) throw new Error(`There is no channel ${choice.response + 1}.`);
+	const responseKind = responseKindOf(resp.unit);
 	const ringdown = analyzeRingdown(resp.samples, r.sampleRateHz, {
 		exponentialWindowS: choice.exponentialWindowS ?? null,
+		responseKind,
 		onProgress: (f) => onProgress(choice.force === null ? f : f / 2)
 	});
 	if (choice.force === null) return { kind: 'ringdown', result: ringdown };
 	const force = r.channels[choice.force];
 	const result = analyzeImpact(force.samples, resp.samples, r.sampleRateHz, {
 		exponentialWindowS: choice.exponentialWindowS ?? null,
+		responseKind,
 		onProgress: (f) => onProgress(0.5 + f / 2)
 	});
 	return { kind: 'impact', result, ringdown };

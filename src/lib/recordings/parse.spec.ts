@@ -219,3 +219,14 @@ describe('a CSV far wider than a recording', () => {
 		expect(() => preflight(new Uint8Array([1, 2, 3]), 'hit.wav', 'audio/wav')).not.toThrow();
 	});
 });
+
+describe('what a channel measures', () => {
+	it('is read from its unit, an accelerometer when the unit says nothing', async () => {
+		const { responseKindOf } = await import('./analyze.ts');
+		expect(['mm/s', 'in/s', 'ips', 'm/s'].map(responseKindOf)).toEqual(Array(4).fill('velocity'));
+		expect(['µm', 'um', 'mil', 'mm'].map(responseKindOf)).toEqual(Array(4).fill('displacement'));
+		expect(['g', 'm/s²', 'm/s^2', '', 'V'].map(responseKindOf)).toEqual(
+			Array(5).fill('acceleration')
+		);
+	});
+});

@@ -3,6 +3,7 @@ import {
 	amplificationFactorFromDamping,
 	dampingFromAmplificationFactor,
 	dampingFromHalfPower,
+	halfPowerExact,
 	dampingFromLogDecrement,
 	dampingFromPeakNumbers,
 	dampingFromPeaksApart,
@@ -91,5 +92,77 @@ describe('half-power bandwidth and amplification factor', () => {
 		expect(() => amplificationFactorFromDamping(0)).toThrow(
 			/dampingRatio must be greater than zero/
 		);
+	});
+});
+
+describe('half-power damping, exact for the response measured', () => {
+	/** |H|², |Y|², |A|² of the SDOF at r = f/f_n (receptance, mobility, accelerance; unit k, m). */
+	const power = {
+		displacement: (r: number, z: number) => 1 / ((1 - r * r) ** 2 + (2 * z * r) ** 2),
+		velocity: (r: number, z: number) => (r * r) / ((1 - r * r) ** 2 + (2 * z * r) ** 2),
+		acceleration: (r: number, z: number) => r ** 4 / ((1 - r * r) ** 2 + (2 * z * r) ** 2)
+	} as const;
+
+	/**
+	 * The half-power points of a closed-form FRF found numerically, independent of the formula
+	 * under test: the peak by golden section, each crossing of half the peak power by bisection.
+	 */
+	function halfPowerPoints(g: (r: number) => number): [number, number] | null {
+		let a = 0.05;
+		let b = 3;
+		for (let i = 0; i < 200; i++) {
+			const c = b - 0.618 * (b - a);
+			const d = a + 0.618 * (b - a);
+			if (g(c) > g(d)) b = d;
+			else a = c;
+		}
+		const peak = (a + b) / 2;
+		const half = g(peak) / 2;
+		const cross = (lo: number, hi: number) => {
+			if ((g(lo) - half) * (g(hi) - half) > 0) return null;
+			for (let i = 0; i < 200; i++) {
+				const m = (lo + hi) / 2;
+				if ((g(lo) - half) * (g(m) - half) <= 0) hi = m;
+				else lo = m;
+			}
+			return (lo + hi) / 2;
+		};
+		const r1 = cross(1e-6, peak);
+		const r2 = cross(peak, 50);
+		return r1 !== null && r2 !== null ? [r1, r2] : null;
+	}
+
+	it('matches the worked example E11 (ζ = 0.05 receptance: r = 0.94611 and 1.04636)', () => {
+		// ../shared/domain.md E11, computed from the closed form
+		const pts = halfPowerPoints((r) => power.displacement(r, 0.05))!;
+		expect(pts[0]).toBeCloseTo(0.94611, 5);
+		expect(pts[1]).toBeCloseTo(1.04636, 5);
+		const e = halfPowerExact(pts[0], pts[1], 'displacement');
+		expect(e.dampingRatio).toBeCloseTo(0.05, 9);
+		expect(e.naturalHz).toBeCloseTo(1, 9);
+	});
+
+	it.each(['displacement', 'velocity', 'acceleration'] as const)(
+		'recovers ζ and f_n of the closed-form %s FRF up to ζ = 0.35, where ζ ≈ Δf/2f reads high',
+		(kind) => {
+			const fn = 37.5;
+			for (const z of [0.005, 0.02, 0.1, 0.2, 0.3, 0.35]) {
+				const pts = halfPowerPoints((r) => power[kind](r, z))!;
+				const e = halfPowerExact(fn * pts[0], fn * pts[1], kind);
+				expect(Math.abs(e.dampingRatio - z) / z, `ζ ${z}`).toBeLessThan(1e-6);
+				expect(Math.abs(e.naturalHz - fn) / fn, `f_n at ζ ${z}`).toBeLessThan(1e-6);
+				if (kind !== 'velocity' && z >= 0.3) {
+					// the approximation from the peak is off by more than 10 % here
+					const peakR =
+						kind === 'displacement' ? Math.sqrt(1 - 2 * z * z) : 1 / Math.sqrt(1 - 2 * z * z);
+					expect((pts[1] - pts[0]) / (2 * peakR) / z - 1).toBeGreaterThan(0.1);
+				}
+			}
+		}
+	);
+
+	it('has no lower half-power point on a receptance above ζ ≈ 0.383', () => {
+		expect(halfPowerPoints((r) => power.displacement(r, 0.38))).not.toBeNull();
+		expect(halfPowerPoints((r) => power.displacement(r, 0.39))).toBeNull();
 	});
 });

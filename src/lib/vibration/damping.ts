@@ -124,6 +124,46 @@ export function dampingFromHalfPower(
 	return { dampingRatio: bw / (2 * fn), qFactor: fn / bw };
 }
 
+/** What a response measures, which sets the shape of its peak around a mode. */
+export type ResponseKind = 'displacement' | 'velocity' | 'acceleration';
+
+/**
+ * ζ and f_n from the half-power points f1 < f2 of a single mode's response, exactly (no small-ζ
+ * approximation), for the quantity measured. With u = (f/f_n)²:
+ * - displacement, |H|² = 1/((1−u)² + 4ζ²u): the points are at u = 1 − 2ζ² ± 2ζ√(1−ζ²), so with
+ *   q = (f2² − f1²)/(f2² + f1²) = 2ζ√(1−ζ²)/(1 − 2ζ²), ζ² = (1 − 1/√(1+q²))/2 and
+ *   f_n² = (f1² + f2²)/(2(1 − 2ζ²));
+ * - acceleration, |A| = u|H|: in s = f_n/f it is the displacement form, so the same q gives the
+ *   same ζ, and f_n² = 2(1 − 2ζ²)/(1/f1² + 1/f2²);
+ * - velocity, |Y| = √u|H|: 1/r − r = ±2ζ at the points, so exactly ζ = (f2 − f1)/(2√(f1·f2)) and
+ *   f_n = √(f1·f2).
+ * The displacement and acceleration forms have no lower point above ζ = 1/√(2(2+√2)) ≈ 0.383
+ * (derived here; the curves are the standard SDOF receptance, mobility and accelerance).
+ */
+export function halfPowerExact(
+	lowerHz: number,
+	upperHz: number,
+	kind: ResponseKind = 'acceleration'
+): { dampingRatio: number; naturalHz: number } {
+	const f1 = positive('lowerHz', lowerHz);
+	const f2 = positive('upperHz', upperHz);
+	if (!(f1 < f2))
+		throw new VibrationInputError('half-power points', `in order (${f1} < ${f2})`, [f1, f2]);
+	if (kind === 'velocity') {
+		const fn = Math.sqrt(f1 * f2);
+		return { dampingRatio: (f2 - f1) / (2 * fn), naturalHz: fn };
+	}
+	const q = (f2 * f2 - f1 * f1) / (f2 * f2 + f1 * f1);
+	// 1 − 1/√(1+q²) loses digits for small q: the same as q²/(√(1+q²)(1 + √(1+q²)))
+	const root = Math.sqrt(1 + q * q);
+	const z2 = (q * q) / (2 * root * (1 + root));
+	const fn2 =
+		kind === 'displacement'
+			? (f1 * f1 + f2 * f2) / (2 * (1 - 2 * z2))
+			: (2 * (1 - 2 * z2)) / (1 / (f1 * f1) + 1 / (f2 * f2));
+	return { dampingRatio: Math.sqrt(z2), naturalHz: Math.sqrt(fn2) };
+}
+
 /** AF ≈ Q = 1/(2ζ), the small-damping relation (F5). */
 export function amplificationFactorFromDamping(dampingRatio: number): number {
 	return 1 / (2 * positive('dampingRatio', dampingRatio));

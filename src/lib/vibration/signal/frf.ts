@@ -15,6 +15,7 @@
 import { positive, VibrationInputError, integerAtLeast } from '../errors.ts';
 import { bucketMax, realFft } from './spectrum.ts';
 import { findPeaks, halfPowerBins, interpolatePeak } from './peaks.ts';
+import { halfPowerExact, type ResponseKind } from '../damping.ts';
 
 export interface Hit {
 	/** first sample of the pulse above the trigger */
@@ -60,6 +61,8 @@ export interface ImpactOptions {
 	exponentialWindowS?: number | null;
 	/** the fall of the force spectrum, dB below its low-frequency level, that ends the band (default 10) */
 	forceDropDb?: number;
+	/** what the response channel measures (default acceleration: the FRF is an accelerance) */
+	responseKind?: ResponseKind;
 	maxModes?: number;
 	minProminence?: number;
 	maxFrequencyHz?: number;
@@ -209,10 +212,15 @@ export function analyzeImpact(
 		.slice(0, options.maxModes ?? 6);
 	const modes: FrfMode[] = peaks.map((p) => {
 		const ip = interpolatePeak(mag, p.bin);
-		const f = ip.bin * df;
+		const fPeak = ip.bin * df;
 		const hp = halfPowerBins(mag, p.bin, ip.height);
+		// exact for the FRF's type: an accelerance peaks above f_n, a receptance below it
+		const exact = hp
+			? halfPowerExact(hp[0] * df, hp[1] * df, options.responseKind ?? 'acceleration')
+			: null;
+		const f = exact ? exact.naturalHz : fPeak;
 		const windowDamping = tauW ? 1 / (2 * Math.PI * f * tauW) : 0;
-		const zeta = hp ? Math.max(0, ((hp[1] - hp[0]) * df) / (2 * f) - windowDamping) : null;
+		const zeta = exact ? Math.max(0, exact.dampingRatio - windowDamping) : null;
 		const flags: FrfMode['flags'] = [];
 		const coherence = averages >= MIN_COHERENCE_AVERAGES ? coh[p.bin] : null;
 		if (coherence !== null && coherence < 0.9) flags.push('low-coherence');

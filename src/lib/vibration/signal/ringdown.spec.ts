@@ -335,18 +335,32 @@ describe('bump tests on a running machine (closed-form modes plus steady tones)'
 	});
 
 	it.each([0.15, 0.3])(
-		'at ζ = %s reports the decay estimate, and says half-power is outside its validity',
+		'at ζ = %s reports the decay estimate, and the exact half-power form agrees with it',
 		(zeta) => {
-			// the half-power approximation reads about 5 % high at ζ = 0.15 and 26 % at 0.3
+			// ζ ≈ Δf/2f reads about 5 % high at ζ = 0.15 and 26 % at 0.3; halfPowerExact does not
 			const fs = 4096;
 			const r = analyzeRingdown(runningMachine(fs, 1, 0.1, [{ f: 80, zeta, a: 1 }], [], 1e-4), fs);
 			const m = r.modes[0];
 			expect(Math.abs((m.dampingRatio as number) - zeta) / zeta).toBeLessThan(0.2);
 			expect(m.dampingRatio).toBe(m.decayDamping);
 			expect(m.flags).toEqual(expect.arrayContaining(['heavy-damping']));
-			if (m.halfPowerDamping !== null) expect(m.flags).toContain('half-power-invalid');
+			expect(Math.abs((m.halfPowerDamping as number) - zeta) / zeta).toBeLessThan(0.1);
+			expect(m.flags).not.toContain('half-power-invalid');
 		}
 	);
+
+	it('flags half-power damping beyond ζ = 0.3 and reports the decay estimate', () => {
+		const fs = 4096;
+		const r = analyzeRingdown(
+			runningMachine(fs, 1, 0.1, [{ f: 80, zeta: 0.34, a: 1 }], [], 1e-4),
+			fs
+		);
+		const m = r.modes[0];
+		expect(m.dampingRatio).toBe(m.decayDamping);
+		expect(Math.abs((m.dampingRatio as number) - 0.34) / 0.34).toBeLessThan(0.2);
+		expect(m.halfPowerDamping).toBeGreaterThan(0.3);
+		expect(m.flags).toContain('half-power-invalid');
+	});
 });
 
 /**
