@@ -22,3 +22,33 @@ test('a supervisor edits a demo rule set with one per-kind margin and saves it',
 	await card.getByRole('button', { name: 'Save rule set' }).click();
 	await expect(card.getByRole('status')).toContainText('Saved;');
 });
+
+test('a supervisor starts a rule set from API 610’s vertical-pump rule, with its source and edition, and creates it', async ({
+	page
+}) => {
+	await signIn(page, 'supervisor');
+	await page.goto('/rule-sets');
+	await page.getByRole('link', { name: 'API 610 vertical pump driver support, 20 %' }).click();
+	await expect(page).toHaveURL(/from=api610-vs-20/);
+	const form = page
+		.getByTestId('rule-set')
+		.filter({ has: page.getByRole('heading', { name: 'New rule set' }) });
+	await expect(form.getByLabel('Name')).toHaveValue(
+		'API 610 VS pump driver support structure 20 %'
+	);
+	await expect(form.getByLabel('Required margin')).toHaveValue('20');
+	await expect(form.getByLabel('Source')).toHaveValue(/API 610 9\.5\.3/);
+	await expect(form.getByLabel('Edition')).toHaveValue(/11th edition/);
+	// the person makes it theirs before creating it
+	await form.getByLabel('Name').fill('Cooling-tower VS pumps 20 % (API 610)');
+	await form.getByRole('button', { name: 'Create rule set' }).click();
+	const created = page.getByTestId('rule-set').filter({
+		has: page.getByRole('heading', { name: /Cooling-tower VS pumps 20 % \(API 610\)/ })
+	});
+	await expect(created).toBeVisible();
+	// the new rule set's form is empty again: no second one by a second tap
+	await expect(form.getByLabel('Name')).toHaveValue('');
+	await page.reload();
+	await expect(created.getByLabel('Source')).toHaveValue(/API 610 9\.5\.3/);
+	await expect(created.getByLabel('Required margin')).toHaveValue('20');
+});

@@ -7,10 +7,16 @@ import { fieldErrors } from '$lib/schemas/form';
 import { doneAction, failAction } from '$lib/server/forms';
 import { SOURCE_KINDS } from '$lib/schemas/excitation';
 import { EDITORS } from '$lib/roles';
+import { RULE_TEMPLATES, ruleTemplate } from '$lib/rules/templates';
 
 export const load: PageServerLoad = (event) => {
 	requireUser(event);
-	return { ruleSets: rules.list() };
+	// ?from=<template>: the new rule set's form starts from a published rule
+	return {
+		ruleSets: rules.list(),
+		templates: RULE_TEMPLATES.map((t) => ({ key: t.key, label: t.label })),
+		template: ruleTemplate(event.url.searchParams.get('from'))
+	};
 };
 
 function parse(form: FormData) {
