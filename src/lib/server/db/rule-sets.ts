@@ -27,9 +27,13 @@ export function list() {
 			perKind: ruleSets.perKind,
 			source: ruleSets.source,
 			edition: ruleSets.edition,
-			assets: sql<number>`(select count(*) from ${assets} where ${assets.ruleSetId} = ${ruleSets.id})`
+			// a join, not a correlated subquery: drizzle names a subquery's columns unqualified, and
+			// `rule_set_id = id` inside it compared each asset with itself
+			assets: sql<number>`count(${assets.id})`
 		})
 		.from(ruleSets)
+		.leftJoin(assets, eq(assets.ruleSetId, ruleSets.id))
+		.groupBy(ruleSets.id)
 		.orderBy(asc(ruleSets.name))
 		.all();
 }
