@@ -192,10 +192,26 @@ describe('remedies', () => {
 	it('takes a target margin other than the rule’s', () => {
 		const [r] = modeRemedies(input, { targetPct: 20 });
 		expect(r.raiseTo!.frequencyHz).toBeCloseTo(36, 6);
+		// f ∝ √(k/m): doubling f takes 4× the stiffness or a quarter of the mass
 		expect(retuneTo(10, 20)).toEqual({
 			frequencyHz: 20,
 			stiffnessChangePct: 300,
-			massChangePct: -75
+			massChangePct: -75,
+			stiffnessIsRedesign: true,
+			massIsRedesign: true
 		});
+	});
+
+	it('calls a change of more than 50 % a redesign, not a field fix (common practice)', () => {
+		// +20 % in frequency: +44 % stiffness (a field change) or −30.6 % mass
+		const small = retuneTo(10, 12);
+		expect(small.stiffnessChangePct).toBeCloseTo(44, 9);
+		expect(small.stiffnessIsRedesign).toBe(false);
+		expect(small.massIsRedesign).toBe(false);
+		// −30 %: mass +104 % (a redesign) or stiffness −51 % (a redesign too)
+		const down = retuneTo(10, 7);
+		expect(down.massChangePct).toBeCloseTo(104.08, 2);
+		expect(down.massIsRedesign).toBe(true);
+		expect(down.stiffnessIsRedesign).toBe(true);
 	});
 });

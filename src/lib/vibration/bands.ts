@@ -266,7 +266,16 @@ export interface FrequencyTarget {
 	stiffnessChangePct: number;
 	/** mass change that moves the mode there, % (f ∝ 1/√m) */
 	massChangePct: number;
+	/** the stiffness change is beyond a field change (more than ±50 %): a redesign */
+	stiffnessIsRedesign: boolean;
+	massIsRedesign: boolean;
 }
+
+/**
+ * Beyond this change of stiffness or mass, % either way, a remedy is a redesign rather than a
+ * field fix (a brace, a gusset, added mass): common practice.
+ */
+export const FIELD_CHANGE_LIMIT_PCT = 50;
 
 export interface ModeRemedy {
 	modeIndex: number;
@@ -280,10 +289,14 @@ export interface ModeRemedy {
 export function retuneTo(naturalHz: number, targetHz: number): FrequencyTarget {
 	const f = positive('naturalHz', naturalHz);
 	const t = positive('targetHz', targetHz);
+	const stiffnessChangePct = ((t / f) ** 2 - 1) * 100;
+	const massChangePct = ((f / t) ** 2 - 1) * 100;
 	return {
 		frequencyHz: t,
-		stiffnessChangePct: ((t / f) ** 2 - 1) * 100,
-		massChangePct: ((f / t) ** 2 - 1) * 100
+		stiffnessChangePct,
+		massChangePct,
+		stiffnessIsRedesign: Math.abs(stiffnessChangePct) > FIELD_CHANGE_LIMIT_PCT,
+		massIsRedesign: Math.abs(massChangePct) > FIELD_CHANGE_LIMIT_PCT
 	};
 }
 
