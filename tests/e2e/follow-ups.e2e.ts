@@ -16,13 +16,21 @@ test('a planner turns a conflict check into a follow-up for a technician; the ma
 	const form = page.getByTestId('new-follow-up');
 	await expect(form.getByTestId('suggested-remedy')).toBeVisible();
 	await form.getByLabel('What is to be done').fill('Add a stiffener to the motor stand and retest');
+	// only people of the asset's site are offered: Kettle River's technician, not Larkspur's
+	const offered = await form.getByLabel('Assign to').locator('option').allTextContents();
+	expect(offered).toContain('Tomas Ferreira (technician)');
+	expect(offered).not.toContain('Ines Halvorsen (technician)');
 	await form.getByLabel('Assign to').selectOption({ label: 'Tomas Ferreira (technician)' });
 	await form.getByLabel('Due date').fill('2027-01-15');
 	await form.getByRole('button', { name: 'Create follow-up' }).click();
-	await expect(form.getByText(/Follow-up created. The assignee has been e-mailed./)).toBeVisible();
-	const item = page
-		.locator('[data-testid="follow-up"][data-tag="KRW-RWP-101"]')
-		.filter({ hasText: 'Add a stiffener' });
+	// the form closes, so a second tap cannot make a second one; the new one is marked in the list
+	await expect(page.getByTestId('new-follow-up')).toHaveCount(0);
+	const item = page.locator('[data-testid="follow-up"][data-created="true"]');
+	await expect(item.getByRole('status')).toHaveText(
+		'Follow-up created. The assignee has been e-mailed.'
+	);
+	await expect(item).toContainText('Add a stiffener');
+	await expect(item).toHaveAttribute('data-tag', 'KRW-RWP-101');
 	await expect(item.getByTestId('status')).toHaveText('scheduled');
 
 	// the admin's mailbox holds the assignment, with the asset and the due date
@@ -97,6 +105,11 @@ test('an overdue follow-up produces exactly one overdue mail however often the j
 	await form.getByLabel('What is to be done').fill('Program the drive skip band for the blower');
 	await form.getByLabel('Assign to').selectOption({ label: 'Tomas Ferreira (technician)' });
 	await form.getByLabel('Due date').fill('2026-02-01');
+	// a date in the past is refused, what was typed stays, and the form says how to file it anyway
+	await form.getByRole('button', { name: 'Create follow-up' }).click();
+	await expect(form.getByText(/Due date: 2026-02-01 has passed/)).toBeVisible();
+	await expect(form.getByLabel('Due date')).toHaveValue('2026-02-01');
+	await form.getByLabel('Back-dated record (the work was already due)').check();
 	await form.getByRole('button', { name: 'Create follow-up' }).click();
 	await expect(
 		page

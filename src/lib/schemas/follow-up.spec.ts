@@ -35,3 +35,27 @@ describe('follow-up forms', () => {
 		expect(parseListQuery(new URLSearchParams('assignee=nobody')).success).toBe(false);
 	});
 });
+
+describe('a due date in the past', () => {
+	it('is refused unless the record is back-dated; yesterday passes (a plant west of UTC)', async () => {
+		const { pastDueProblem, followUpCreate } = await import('./follow-up.ts');
+		expect(pastDueProblem('2020-01-01', '2026-12-02', false)).toMatch(
+			/2020-01-01 has passed.*Back-dated record/
+		);
+		expect(pastDueProblem('2020-01-01', '2026-12-02', true)).toBeNull();
+		expect(pastDueProblem('2026-12-01', '2026-12-02', false)).toBeNull();
+		expect(pastDueProblem('2026-11-30', '2026-12-02', false)).not.toBeNull();
+		expect(pastDueProblem(null, '2026-12-02', false)).toBeNull();
+		// the checkbox arrives as "on"; left out, it is false
+		const form = {
+			assetId: 'a',
+			checkId: '',
+			title: 'Retest',
+			assigneeId: '',
+			dueDate: '2020-01-01',
+			priority: 'high'
+		};
+		expect(followUpCreate.parse({ ...form, backdated: 'on' }).backdated).toBe(true);
+		expect(followUpCreate.parse(form).backdated).toBe(false);
+	});
+});

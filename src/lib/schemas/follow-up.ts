@@ -14,6 +14,28 @@ const day = z
 		return !Number.isNaN(t) && new Date(t).toISOString().slice(0, 10) === d;
 	}, 'Due date: a real calendar day.');
 
+/** A ticked checkbox ("on"), or yes. */
+const ticked = z
+	.preprocess((v) => v === 'on' || v === 'yes' || v === true, z.boolean())
+	.default(false);
+
+/**
+ * A due date before today is refused unless the person says the record is back-dated (work that
+ * was already due). Today is the server's UTC date less a day, so no time zone turns today into
+ * the past.
+ */
+export function pastDueProblem(
+	due: string | null,
+	today: string,
+	backdated: boolean
+): string | null {
+	if (due === null || backdated) return null;
+	const grace = new Date(Date.parse(`${today}T00:00:00Z`) - 86_400_000).toISOString().slice(0, 10);
+	return due < grace
+		? `Due date: ${due} has passed. Pick today or later, or tick “Back-dated record” for work that was already due.`
+		: null;
+}
+
 export const followUpCreate = z
 	.object({
 		assetId: z.string().min(1, 'Choose the asset.').max(64),
@@ -26,7 +48,8 @@ export const followUpCreate = z
 		assigneeId: z.preprocess((v) => (v === '' ? null : v), z.string().max(64).nullable()),
 		dueDate: z.preprocess((v) => (v === '' ? null : v), day.nullable()),
 		priority: z.enum(PRIORITY_LIST, { error: `Priority: ${PRIORITY_LIST.join(', ')}.` }),
-		notes: z.string().max(4000, 'Notes: at most 4000 characters.').default('')
+		notes: z.string().max(4000, 'Notes: at most 4000 characters.').default(''),
+		backdated: ticked
 	})
 	.strict();
 
@@ -36,7 +59,8 @@ export const followUpUpdate = z
 		assigneeId: z.preprocess((v) => (v === '' ? null : v), z.string().max(64).nullable()),
 		dueDate: z.preprocess((v) => (v === '' ? null : v), day.nullable()),
 		priority: z.enum(PRIORITY_LIST, { error: `Priority: ${PRIORITY_LIST.join(', ')}.` }),
-		notes: z.string().max(4000, 'Notes: at most 4000 characters.').default('')
+		notes: z.string().max(4000, 'Notes: at most 4000 characters.').default(''),
+		backdated: ticked
 	})
 	.strict();
 
@@ -62,7 +86,10 @@ export const followUpListQuery = z
 		overdue: z.literal('yes', { error: 'overdue: yes, or leave it out.' }),
 		id: z.string().max(64),
 		new: z.string().max(64),
-		check: z.string().max(64)
+		check: z.string().max(64),
+		/** the follow-up just created, shown highlighted with its confirmation */
+		created: z.string().max(64),
+		mailed: z.literal('yes', { error: 'mailed: yes, or leave it out.' })
 	})
 	.partial();
 

@@ -28,6 +28,7 @@ export function listVisible(user: { id: string; role: Role }) {
 			id: assets.id,
 			tag: assets.tag,
 			name: assets.name,
+			siteId: assets.siteId,
 			site: sites.name,
 			area: areas.name,
 			machineKind: assets.machineKind,

@@ -38,6 +38,7 @@ const columns = {
 	updatedAt: followUps.updatedAt,
 	tag: assets.tag,
 	assetName: assets.name,
+	siteId: assets.siteId,
 	site: sites.name,
 	assigneeName: users.name,
 	assigneeEmail: users.email
@@ -135,7 +136,11 @@ function checkAssignee(tx: Tx, assigneeId: string | null, assetId: string): void
 		);
 }
 
-export function create(input: FollowUpCreate, actorId: string, now = Date.now()): string {
+export function create(
+	input: Omit<FollowUpCreate, 'backdated'>,
+	actorId: string,
+	now = Date.now()
+): string {
 	const id = crypto.randomUUID();
 	const remedy = suggestRemedy(input.checkId, input.assetId);
 	db.transaction((tx) => {
@@ -179,7 +184,7 @@ export function create(input: FollowUpCreate, actorId: string, now = Date.now())
 }
 
 export function update(
-	input: FollowUpUpdate,
+	input: Omit<FollowUpUpdate, 'backdated'>,
 	actorId: string,
 	now = Date.now()
 ): { assigneeChanged: boolean } {

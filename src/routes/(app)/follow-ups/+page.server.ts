@@ -1,4 +1,4 @@
-import { error } from '@sveltejs/kit';
+import { error, redirect } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
 import { requireRole, requireUser } from '$lib/server/guard';
 import * as followUps from '$lib/server/db/follow-ups';
@@ -8,7 +8,8 @@ import {
 	followUpCreate,
 	followUpMove,
 	followUpUpdate,
-	parseListQuery
+	parseListQuery,
+	pastDueProblem
 } from '$lib/schemas/follow-up';
 import { fieldErrors, formToObject } from '$lib/schemas/form';
 import { doneAction, failAction } from '$lib/server/forms';
@@ -16,7 +17,9 @@ import { send } from '$lib/server/mail';
 import { followUpMail } from '$lib/server/mail/messages';
 import { runReminders } from '$lib/server/mail/reminders';
 import { canPlan, PLANNERS } from '$lib/roles';
-import { readableAsset } from '$lib/server/scope';
+import { readableAsset, sitesOf } from '$lib/server/scope';
+
+const today = () => new Date().toISOString().slice(0, 10);
 
 export const load: PageServerLoad = (event) => {
 	const user = requireUser(event);
@@ -32,10 +35,20 @@ export const load: PageServerLoad = (event) => {
 		today,
 		canPlan: planner,
 		items: followUps.listFor(user, q, today),
-		// names and e-mail addresses go to those who assign, never to everyone
-		assignees: planner ? users.byRole('technician').concat(users.byRole('supervisor')) : [],
+		created: q.created ?? null,
+		mailed: q.mailed === 'yes',
+		// names and e-mail addresses go to those who assign, never to everyone; each with the sites
+		// they may read, so the form offers only people of the chosen asset's site
+		assignees: planner
+			? users
+					.byRole('technician')
+					.concat(users.byRole('supervisor'))
+					.map((u) => ({ ...u, sites: sitesOf(u) }))
+			: [],
 		assets: planner
-			? assetQueries.listVisible(user).map((a) => ({ id: a.id, tag: a.tag, name: a.name }))
+			? assetQueries
+					.listVisible(user)
+					.map((a) => ({ id: a.id, tag: a.tag, name: a.name, siteId: a.siteId }))
 			: [],
 		prefill: prefillAsset
 			? {
@@ -63,19 +76,19 @@ export const actions: Actions = {
 		const raw = formToObject(await event.request.formData());
 		const parsed = followUpCreate.safeParse(raw);
 		if (!parsed.success) return failAction(400, 'create', 'new', fieldErrors(parsed.error), raw);
+		const past = pastDueProblem(parsed.data.dueDate, today(), parsed.data.backdated);
+		if (past) return failAction(400, 'create', 'new', { dueDate: past }, raw);
+		let id: string;
 		try {
-			const id = followUps.create(parsed.data, actor.id);
-			if (parsed.data.assigneeId) await notifyAssignee(id);
-			return doneAction(
-				'create',
-				'new',
-				'Follow-up created.' + (parsed.data.assigneeId ? ' The assignee has been e-mailed.' : '')
-			);
+			id = followUps.create(parsed.data, actor.id);
 		} catch (e) {
 			if (e instanceof followUps.FollowUpError)
 				return failAction(e.status, 'create', 'new', { form: e.message }, raw);
 			throw e;
 		}
+		if (parsed.data.assigneeId) await notifyAssignee(id);
+		// the form closes (no second one by a second tap) and the list shows the new one
+		redirect(303, `/follow-ups?created=${id}${parsed.data.assigneeId ? '&mailed=yes' : ''}`);
 	},
 	update: async (event) => {
 		const actor = requireRole(event, PLANNERS);
@@ -83,6 +96,12 @@ export const actions: Actions = {
 		const parsed = followUpUpdate.safeParse(raw);
 		if (!parsed.success)
 			return failAction(400, 'update', String(raw.id ?? ''), fieldErrors(parsed.error));
+		const before = followUps.byId(parsed.data.id);
+		const past =
+			before && before.dueDate !== parsed.data.dueDate
+				? pastDueProblem(parsed.data.dueDate, today(), parsed.data.backdated)
+				: null;
+		if (past) return failAction(400, 'update', parsed.data.id, { dueDate: past });
 		try {
 			const r = followUps.update(parsed.data, actor.id);
 			if (r.assigneeChanged) await notifyAssignee(parsed.data.id);
