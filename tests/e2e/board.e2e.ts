@@ -67,7 +67,7 @@ test('a supervisor filters the board, sorts, opens an asset, edits a vane count 
 	await expect(page.getByTestId('audit')).toContainText(/"count":6.*→.*"count":7|count.*6.*7/);
 });
 
-test('an admin imports a CSV with one bad row (row and column named, nothing imported), fixes it and imports', async ({
+test('an admin imports a CSV with a bad row (every problem named with its row, column and value, nothing imported), fixes it and imports', async ({
 	page
 }) => {
 	await signIn(page, 'admin');
@@ -75,7 +75,8 @@ test('an admin imports a CSV with one bad row (row and column named, nothing imp
 	const header =
 		'tag,name,site_code,area,machine_kind,drive_type,min_rpm,max_rpm,vane_count,line_hz';
 	const good = 'KRW-IMP-701,Imported pump A,KRW,High-Lift Station,pump,vfd,800,1180,6,60';
-	const bad = 'KRW-IMP-702,Imported pump B,KRW,High-Lift Station,pump,vfd,1180,800,6,60';
+	// two problems in one row, and both are named in one pass
+	const bad = 'KRW-IMP-702,Imported pump B,KRW,High-Lift Station,pump,vfd,1180,800,-6,60';
 	await page.getByLabel(/CSV file/).setInputFiles({
 		name: 'assets.csv',
 		mimeType: 'text/csv',
@@ -83,12 +84,13 @@ test('an admin imports a CSV with one bad row (row and column named, nothing imp
 	});
 	await page.getByRole('button', { name: 'Check the file' }).click();
 	await expect(page.getByTestId('import-errors')).toContainText(
-		'Row 3, column max_rpm: Maximum speed must be at least the minimum speed.'
+		'Row 3, column max_rpm (“800”): Maximum speed must be at least the minimum speed.'
 	);
+	await expect(page.getByTestId('import-errors')).toContainText('Row 3, column vane_count (“-6”)');
 	await expect(page.getByTestId('import-errors')).toContainText('nothing has been imported');
 	const before = await (await page.request.get('/api/board?q=KRW-IMP')).json();
 	expect(before.total).toBe(0);
-	const fixed = bad.replace('1180,800', '800,1180');
+	const fixed = bad.replace('1180,800,-6', '800,1180,6');
 	await page.getByLabel(/CSV file/).setInputFiles({
 		name: 'assets.csv',
 		mimeType: 'text/csv',

@@ -23,7 +23,19 @@ describe('asset import', () => {
 		);
 		const r = run(bad, null as unknown as string);
 		expect(r.errors).toEqual([
-			{ row: 3, column: 'max_rpm', message: 'Maximum speed must be at least the minimum speed.' }
+			{
+				row: 3,
+				column: 'max_rpm',
+				value: '900',
+				message: 'Maximum speed must be at least the minimum speed.'
+			},
+			{
+				row: 3,
+				column: 'max_rpm',
+				value: '900',
+				message:
+					'A fixed-speed machine has one speed: make minimum and maximum equal, or choose vfd.'
+			}
 		]);
 		expect(db.select().from(assets).where(eq(assets.tag, 'KRW-RWP-105')).get()).toBeUndefined();
 	});
@@ -101,5 +113,32 @@ describe('asset import', () => {
 		]);
 		const xlsx = new TextDecoder().decode(new Uint8Array([0x50, 0x4b, 3, 4, 20, 0, 6, 0]));
 		expect(validate(xlsx).errors[0].message).toMatch(/zipped file \(an \.xlsx workbook/);
+	});
+
+	it('lists every problem of every row in one pass, each with its row, column and value', () => {
+		// before, each row stopped at its first problem, so a file took a round per problem
+		const lines = TEMPLATE.split('\r\n');
+		const header = lines[0].split(',');
+		const row = (values: Record<string, string>) => header.map((h) => values[h] ?? '').join(',');
+		const text = [
+			lines[0],
+			row({ tag: 'x', name: 'Pump A', site_code: 'NOPE', min_rpm: '100', max_rpm: '200' }),
+			row({
+				tag: 'KRW-T-1',
+				name: 'Pump B',
+				site_code: 'KRW',
+				min_rpm: 'fast',
+				max_rpm: '200',
+				vane_count: '-3'
+			}),
+			row({ tag: 'KRW-T-2', name: 'Pump C', site_code: 'KRW', min_rpm: '100', max_rpm: '200' })
+		].join('\n');
+		const r = validate(text);
+		const at = (n: number) => r.errors.filter((e) => e.row === n).map((e) => e.column);
+		expect(at(2)).toEqual(expect.arrayContaining(['tag', 'site_code']));
+		expect(at(3)).toEqual(expect.arrayContaining(['min_rpm', 'vane_count']));
+		expect(at(4)).toEqual([]);
+		expect(r.errors.find((e) => e.column === 'min_rpm')?.value).toBe('fast');
+		expect(r.rows).toEqual([]);
 	});
 });

@@ -55,6 +55,8 @@ export interface RowError {
 	row: number;
 	column: string;
 	message: string;
+	/** what the cell held, when the problem is one cell's */
+	value?: string;
 }
 
 interface ValidRow {
@@ -155,20 +157,27 @@ export function validate(text: string): { rows: ValidRow[]; errors: RowError[]; 
 	);
 	const seen = new Map<string, number>();
 	const rows: ValidRow[] = [];
+	// every problem of every row in one pass, so a file needs one round of corrections, not one
+	// per row
 	parsed.data.forEach((raw, i) => {
 		const row = i + 2; // the header is row 1
 		const get = (k: string) => (raw[k] ?? '').trim();
-		const fail = (column: string, message: string) => errors.push({ row, column, message });
+		let ok = true;
+		const fail = (column: string, message: string) => {
+			ok = false;
+			const value = column && column in raw ? get(column) : undefined;
+			errors.push({ row, column, message, ...(value !== undefined ? { value } : {}) });
+		};
 		const tag = get('tag');
 		if (!/^[A-Za-z0-9][A-Za-z0-9._/-]{1,39}$/.test(tag))
-			return fail('tag', 'Tag: 2–40 letters, digits, dots, dashes or slashes.');
-		if (seen.has(tag)) return fail('tag', `Tag ${tag} is also on row ${seen.get(tag)}.`);
-		seen.set(tag, row);
+			fail('tag', 'Tag: 2–40 letters, digits, dots, dashes or slashes.');
+		else if (seen.has(tag)) fail('tag', `Tag ${tag} is also on row ${seen.get(tag)}.`);
+		else seen.set(tag, row);
 		const site = siteByCode.get(get('site_code').toUpperCase());
-		if (!site) return fail('site_code', `No site with code “${get('site_code')}”.`);
+		if (!site) fail('site_code', `No site with code “${get('site_code')}”.`);
 		const ruleName = get('rule_set');
 		const ruleSetId = ruleName ? ruleByName.get(ruleName.toLowerCase()) : null;
-		if (ruleName && !ruleSetId) return fail('rule_set', `No rule set named “${ruleName}”.`);
+		if (ruleName && !ruleSetId) fail('rule_set', `No rule set named “${ruleName}”.`);
 		const form = assetForm.safeParse({
 			name: get('name'),
 			machineKind: get('machine_kind') || 'other',
@@ -183,10 +192,9 @@ export function validate(text: string): { rows: ValidRow[]; errors: RowError[]; 
 			ruleSetId: ruleSetId ?? '',
 			notes: ''
 		});
-		if (!form.success) {
-			const issue = form.error.issues[0];
-			return fail(COLUMN_OF[String(issue.path[0])] ?? String(issue.path[0]), issue.message);
-		}
+		if (!form.success)
+			for (const issue of form.error.issues)
+				fail(COLUMN_OF[String(issue.path[0])] ?? String(issue.path[0] ?? ''), issue.message);
 		const sources: ValidRow['sources'] = [];
 		const add = (
 			kind: keyof typeof sourceParams,
@@ -194,53 +202,38 @@ export function validate(text: string): { rows: ValidRow[]; errors: RowError[]; 
 			params: Record<string, unknown>
 		) => {
 			const p = sourceParams[kind].safeParse(params);
-			if (!p.success) {
-				fail(column, p.error.issues[0].message);
-				return false;
-			}
-			sources.push({ kind, label: '', params: p.data as Record<string, unknown> });
-			return true;
+			if (!p.success) for (const issue of p.error.issues) fail(column, issue.message);
+			else sources.push({ kind, label: '', params: p.data as Record<string, unknown> });
 		};
 		const n = (k: string) => (get(k) === '' ? undefined : Number(get(k).replace(',', '.')));
-		if (
-			get('shaft_orders') &&
-			!add('shaft', 'shaft_orders', {
+		if (get('shaft_orders'))
+			add('shaft', 'shaft_orders', {
 				orders: get('shaft_orders')
 					.split(/[;\s]+/)
 					.filter(Boolean)
 					.map(Number)
-			})
-		)
-			return;
-		if (get('vane_count') && !add('vane', 'vane_count', { count: n('vane_count') })) return;
-		if (get('blade_count') && !add('blade', 'blade_count', { count: n('blade_count') })) return;
-		if (
-			(get('gear_teeth') || get('gear_mating_teeth')) &&
-			!add('gear', 'gear_teeth', { teeth: n('gear_teeth'), matingTeeth: n('gear_mating_teeth') })
-		)
-			return;
-		if (
-			(get('bearing_elements') || get('bearing_element_mm') || get('bearing_pitch_mm')) &&
-			!add('bearing', 'bearing_elements', {
+			});
+		if (get('vane_count')) add('vane', 'vane_count', { count: n('vane_count') });
+		if (get('blade_count')) add('blade', 'blade_count', { count: n('blade_count') });
+		if (get('gear_teeth') || get('gear_mating_teeth'))
+			add('gear', 'gear_teeth', { teeth: n('gear_teeth'), matingTeeth: n('gear_mating_teeth') });
+		if (get('bearing_elements') || get('bearing_element_mm') || get('bearing_pitch_mm'))
+			add('bearing', 'bearing_elements', {
 				rollingElements: n('bearing_elements'),
 				elementDiameter: (n('bearing_element_mm') ?? NaN) / 1000,
 				pitchDiameter: (n('bearing_pitch_mm') ?? NaN) / 1000,
 				contactAngleDeg: n('bearing_angle_deg') ?? 0
-			})
-		)
-			return;
-		if (
-			get('line_hz') &&
-			!add('line', 'line_hz', {
+			});
+		if (get('line_hz'))
+			add('line', 'line_hz', {
 				lineFrequencyHz: n('line_hz'),
 				drive:
-					form.data.driveType === 'vfd' && form.data.motorPoles
+					form.success && form.data.driveType === 'vfd' && form.data.motorPoles
 						? { poles: form.data.motorPoles, motorRpmPerShaftRpm: form.data.driveRatio }
 						: null
-			})
-		)
-			return;
-		if (get('fixed_hz') && !add('fixed', 'fixed_hz', { frequencyHz: n('fixed_hz') })) return;
+			});
+		if (get('fixed_hz')) add('fixed', 'fixed_hz', { frequencyHz: n('fixed_hz') });
+		if (!ok || !site || !form.success) return;
 		rows.push({
 			row,
 			tag,
