@@ -26,3 +26,10 @@ export function ago(t: number | null | undefined, now = Date.now()): string {
 	if (s < 86400) return `${Math.round(s / 3600)} h ago`;
 	return `${Math.round(s / 86400)} d ago`;
 }
+
+/** A sample rate as a person writes it: 4096 Hz for 4095.99971…, 2.5 kHz stays 2500 Hz. */
+export function formatHz(hz: number): string {
+	const near = Math.round(hz);
+	if (Math.abs(hz - near) <= 1e-4 * hz) return `${near} Hz`;
+	return `${Number(hz.toPrecision(6))} Hz`;
+}

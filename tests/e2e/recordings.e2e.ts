@@ -134,3 +134,43 @@ test('a bad file gets its own message on Floor check and nothing is added', asyn
 		page.getByText('None yet: type one, estimate one, or load a bump-test recording.')
 	).toBeVisible();
 });
+
+test('a sample rate typed for one CSV is not applied to the next, which has its own time column', async ({
+	page
+}) => {
+	await signIn(page, 'technician');
+	await page.goto('/field');
+	await page.getByLabel('Search by tag or name').fill('KRW-RWP-104');
+	await page
+		.getByTestId('asset-list')
+		.getByRole('button', { name: /KRW-RWP-104/ })
+		.click();
+	await page.getByRole('tab', { name: 'Bump-test file' }).click();
+	// a single column of samples needs the rate
+	const x = ringdown(2048, 4, [{ f: 37, zeta: 0.02, a: 1 }]);
+	await page.getByLabel(/CSV or WAV file/).setInputFiles({
+		name: 'samples.csv',
+		mimeType: 'text/csv',
+		buffer: Buffer.from(x.map((v) => v.toFixed(6)).join('\n'))
+	});
+	await expect(page.getByTestId('recording-error')).toHaveText(
+		'This file has no time column: give the sample rate in Hz.'
+	);
+	await page.getByLabel(/Sample rate/).fill('2048');
+	await page.getByLabel(/Sample rate/).press('Tab');
+	await expect(page.getByTestId('recording-loader')).toContainText(
+		'samples.csv: 1 channel, 2048 Hz'
+	);
+	// the next file has an unnamed time column at 4,096 Hz: before, the stale 2048 made that column
+	// a second signal (a ramp), without a word
+	const fs = 4096;
+	const y = ringdown(fs, 3, [{ f: 52, zeta: 0.02, a: 1 }]);
+	await page.getByLabel(/CSV or WAV file/).setInputFiles({
+		name: 'timed.csv',
+		mimeType: 'text/csv',
+		buffer: Buffer.from(y.map((v, i) => `${(i / fs).toFixed(9)},${v.toFixed(6)}`).join('\n'))
+	});
+	await expect(page.getByTestId('recording-loader')).toContainText('timed.csv: 1 channel, 4096 Hz');
+	await expect(page.getByLabel(/Sample rate/)).toHaveValue('');
+	await expect(page.getByTestId('peaks')).toContainText('52.0');
+});

@@ -7,6 +7,7 @@
  * of strings and its columns are allocated once.
  */
 import Papa from 'papaparse';
+import { formatHz } from '../format.ts';
 import {
 	MAX_CHANNELS,
 	RecordingError,
@@ -130,9 +131,18 @@ export class CsvCollector {
 		);
 		let fs = sampleRateHz;
 		let first = 0;
-		if (timeAt === 0 || (timeAt < 0 && sampleRateHz === null && cols.length > 1)) {
+		// an unnamed first column that rises in even steps is a time column whatever the field
+		// says: read as a signal, it would be a ramp with no modes and no error
+		const unnamedTime =
+			timeAt < 0 && this.#names === null && cols.length > 1 && looksLikeTime(cols[0]);
+		if (timeAt === 0 || unnamedTime || (timeAt < 0 && sampleRateHz === null && cols.length > 1)) {
 			fs = rateFromTime(cols[0]);
 			first = 1;
+			if (sampleRateHz !== null && Math.abs(fs - sampleRateHz) > 0.01 * fs)
+				throw new RecordingError(
+					`The file's first column is time, at ${formatHz(fs)}, but the sample rate given is ${formatHz(sampleRateHz)}: clear the sample rate (the file has its own) or correct it.`,
+					{ column: 1 }
+				);
 		} else if (timeAt > 0) {
 			throw new RecordingError(
 				`The time column must come first; “${names[timeAt]}” is column ${timeAt + 1}.`,
@@ -197,6 +207,15 @@ export function checkFirstRow(bytes: Uint8Array): void {
 		1,
 		cellsOf((i) => bytes[i], bytes.length)
 	);
+}
+
+/** Rising in even steps (within 1 %) from the first row to the last: a time column. */
+function looksLikeTime(t: Float64Array): boolean {
+	if (t.length < 3) return false;
+	const dt = t[1] - t[0];
+	if (!(dt > 0)) return false;
+	for (let i = 2; i < t.length; i++) if (Math.abs(t[i] - t[i - 1] - dt) > 0.01 * dt) return false;
+	return true;
 }
 
 /** Sample rate from a time column, refusing one that is not evenly spaced. */

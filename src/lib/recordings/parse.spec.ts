@@ -230,3 +230,29 @@ describe('what a channel measures', () => {
 		);
 	});
 });
+
+describe('a CSV whose first column is time, with no header', () => {
+	const fs = 4096;
+	const text = Array.from(
+		{ length: 300 },
+		(_, i) => `${(i / fs).toFixed(9)},${(Math.sin(i / 5) * Math.exp(-i / 100)).toFixed(6)}`
+	).join('\n');
+
+	it('reads the column as time even with a sample rate left in the field, and says when they disagree', () => {
+		// before, a sample rate given made the time column a second signal: a ramp, with no error
+		expect(() => parseCsvText(text, 'hits.csv', 1000)).toThrow(
+			"The file's first column is time, at 4096 Hz, but the sample rate given is 1000 Hz: clear the sample rate (the file has its own) or correct it."
+		);
+		const r = parseCsvText(text, 'hits.csv', 4096);
+		expect(r.channels).toHaveLength(1);
+		expect(r.sampleRateHz).toBeCloseTo(4096, 3);
+		expect(parseCsvText(text, 'hits.csv', null).channels).toHaveLength(1);
+	});
+
+	it('prints sample rates as a person writes them', async () => {
+		const { formatHz } = await import('../format.ts');
+		expect(formatHz(4095.9997119648597)).toBe('4096 Hz');
+		expect(formatHz(51200)).toBe('51200 Hz');
+		expect(formatHz(1234.5678)).toBe('1234.57 Hz');
+	});
+});
