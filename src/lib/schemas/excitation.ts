@@ -90,6 +90,57 @@ export const SOURCE_KIND_LABELS: Record<SourceKind, string> = {
 	fixed: 'Fixed frequency'
 };
 
+const num = (v: unknown, digits = 3) =>
+	typeof v === 'number' && Number.isFinite(v) ? String(Number(v.toPrecision(digits))) : '?';
+const orderList = (v: unknown) => (Array.isArray(v) ? v.map((o) => `${num(o)}×`).join(', ') : '?');
+
+/**
+ * A source in words, with the same label as the screens: "Vane pass (pump): 5 vanes, up to 3×".
+ * For reports and lists; an unreadable stored value prints as "?", never as code.
+ */
+export function describeSource(kind: string, label: string, params: unknown): string {
+	const p = (params ?? {}) as Record<string, unknown>;
+	const name = SOURCE_KIND_LABELS[kind as SourceKind] ?? kind;
+	const harm = typeof p.harmonics === 'number' && p.harmonics > 1 ? `, up to ${p.harmonics}×` : '';
+	const ratio =
+		typeof p.speedRatio === 'number' && p.speedRatio !== 1
+			? `, at ${num(p.speedRatio)}× shaft speed`
+			: '';
+	const mm = (m: unknown) => (typeof m === 'number' ? `${num(m * 1000)} mm` : '?');
+	let what: string;
+	switch (kind) {
+		case 'shaft':
+			what = orderList(p.orders);
+			break;
+		case 'vane':
+			what = `${num(p.count)} vanes${harm}`;
+			break;
+		case 'blade':
+			what = `${num(p.count)} blades${harm}`;
+			break;
+		case 'gear':
+			what = `${num(p.teeth)} teeth meshing with ${num(p.matingTeeth)}${harm}`;
+			break;
+		case 'bearing':
+			what = `${num(p.rollingElements)} elements of ${mm(p.elementDiameter)} on a ${mm(p.pitchDiameter)} pitch circle, contact angle ${num(p.contactAngleDeg)}°`;
+			break;
+		case 'belt':
+			what = `sheave ${mm(p.sheaveDiameter)}, belt ${mm(p.beltLength)} long${harm}`;
+			break;
+		case 'line': {
+			const d = p.drive as { poles?: unknown } | null | undefined;
+			what = `${num(p.lineFrequencyHz)} Hz line${d ? `, ${num(d.poles)}-pole motor on the drive` : ''}`;
+			break;
+		}
+		case 'fixed':
+			what = `${num(p.frequencyHz, 6)} Hz`;
+			break;
+		default:
+			what = '';
+	}
+	return `${name}${label ? ` “${label}”` : ''}: ${what}${ratio}`;
+}
+
 export interface StoredSource {
 	id: string;
 	kind: string;

@@ -34,6 +34,20 @@ for (const [family, weight] of Object.entries(FAMILIES) as [Family, number][])
 		});
 	}
 
+/**
+ * Signs the app's own texts use that Inter's script subsets leave out, written as a person would
+ * type them (so "≥ 2.5" never prints as "? 2.5").
+ */
+const SPELLED: Record<string, string> = {
+	'≥': '>=',
+	'≤': '<=',
+	'≈': '~',
+	'→': '->',
+	'←': '<-',
+	'√': 'sqrt',
+	'∞': 'inf'
+};
+
 type TextArgs = unknown[];
 type Doc = PDFKit.PDFDocument;
 
@@ -60,7 +74,14 @@ export function useInter(doc: Doc): () => number {
 		text(value: unknown, ...rest: TextArgs) {
 			if (typeof value !== 'string' || value === '') return text(value, ...rest);
 			const runs: { face: Face; text: string }[] = [];
-			for (const ch of value) {
+			for (const typed of value) {
+				const ch = faces[family][0].has(typed.codePointAt(0)!) ? typed : (SPELLED[typed] ?? typed);
+				if (ch.length > 1) {
+					const last = runs[runs.length - 1];
+					if (last && last.face === faces[family][0]) last.text += ch;
+					else runs.push({ face: faces[family][0], text: ch });
+					continue;
+				}
 				const cp = ch.codePointAt(0)!;
 				let face = faces[family].find((f) => cp < 0x20 || f.has(cp));
 				let out = ch;

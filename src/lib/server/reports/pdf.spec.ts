@@ -5,7 +5,10 @@ import { PDFParse } from 'pdf-parse';
 import { freshDatabase } from '../test-db.ts';
 import { db } from '../db/index.ts';
 import { assets, checks, modes, ruleSets } from '../db/schema.ts';
-import { assetReport, checkReport, CAUTIONS } from './pdf.ts';
+import { assetReport, checkReport, CAUTIONS, niceTicks } from './pdf.ts';
+import { users } from '../db/schema.ts';
+import * as followUps from '../db/follow-ups.ts';
+import { describeSource } from '../../schemas/excitation.ts';
 import { computeCheck } from '../../checks/compute.ts';
 import * as assetQueries from '../db/assets.ts';
 import * as checkQueries from '../db/checks.ts';
@@ -13,6 +16,13 @@ import * as checkQueries from '../db/checks.ts';
 beforeAll(async () => {
 	await freshDatabase({ demo: true });
 });
+
+const pagesOf = async (pdf: Buffer) => {
+	const parser = new PDFParse({ data: new Uint8Array(pdf) });
+	const r = await parser.getText();
+	await parser.destroy();
+	return r.pages.map((p) => p.text.replace(/\s+/g, ' '));
+};
 
 const textOf = async (pdf: Buffer) => {
 	const parser = new PDFParse({ data: new Uint8Array(pdf) });
@@ -102,5 +112,60 @@ describe('PDF reports', () => {
 		const text = await textOf((await checkReport(check.id))!.pdf);
 		expect(text).toContain('15.00 Hz ×');
 		expect(text).toContain('the rule asks no margin (amplification factor below 2.5');
+	});
+
+	it('a check report for the machine file: sources in words, notes, follow-ups, sign-off, page numbers', async () => {
+		// before: sources printed as code (`vane {"count":5}`), no notes, no follow-ups, no pages
+		const asset = db.select().from(assets).where(eq(assets.tag, 'KRW-RWP-101')).get()!;
+		const check = latestCheck(asset.id);
+		db.update(checks)
+			.set({ notes: 'Coupling guard loose; base bolts re-torqued before the test.' })
+			.where(eq(checks.id, check.id))
+			.run();
+		const planner = db.select().from(users).where(eq(users.role, 'planner')).get()!;
+		const tech = db.select().from(users).where(eq(users.email, 'tech@example.com')).get()!;
+		followUps.create(
+			{
+				assetId: asset.id,
+				checkId: check.id,
+				title: 'Brace the motor stand and retest',
+				assigneeId: tech.id,
+				dueDate: '2027-03-01',
+				priority: 'high',
+				notes: ''
+			},
+			planner.id
+		);
+		const pages = await pagesOf((await checkReport(check.id))!.pdf);
+		const text = pages.join(' ');
+		expect(text).not.toContain('{');
+		const sheet = assetQueries.sheet(asset.id)!;
+		expect(sheet.sources.length).toBeGreaterThan(0);
+		for (const src of sheet.sources)
+			expect(text).toContain(describeSource(src.kind, src.label, src.params));
+		expect(text).toContain(
+			"Technician's notes: Coupling guard loose; base bolts re-torqued before the test."
+		);
+		expect(text).toMatch(
+			/Brace the motor stand and retest (open|scheduled) 2027-03-01 Tomas Ferreira/
+		);
+		expect(text).toContain('Sign-off');
+		expect(text).toContain('Signature:');
+		pages.forEach((p, i) => expect(p).toContain(`page ${i + 1} of ${pages.length}`));
+		// the diagram's heading is on the page of the diagram itself (its axis caption)
+		const headingPage = pages.findIndex((p) => p.includes('Interference diagram'));
+		const diagramPage = pages.findIndex((p) => p.includes('shaft speed (rpm)'));
+		expect(headingPage).toBeGreaterThanOrEqual(0);
+		expect(headingPage).toBe(diagramPage);
+		// no sign the report's font lacks: the ≥ of a remark prints as >=, never "?"
+		expect(text).not.toMatch(/\? 2\.5/);
+	});
+
+	it('puts the diagram on round ticks', () => {
+		// before, the axes were split in four: 143/107/71 Hz, 540/744/949 rpm
+		expect(niceTicks(375, 1369)).toEqual([200, 400, 600, 800, 1000, 1200, 1400]);
+		expect(niceTicks(0, 143)).toEqual([0, 50, 100, 150]);
+		expect(niceTicks(0, 12)).toEqual([0, 2.5, 5, 7.5, 10, 12.5]);
+		expect(niceTicks(540, 949)).toEqual([500, 600, 700, 800, 900, 1000]);
 	});
 });

@@ -13,6 +13,8 @@ import * as checkQueries from '../db/checks.ts';
 import { computeCheck, type ComputedCheck } from '../../checks/compute.ts';
 import { comparePairs } from '../../vibration/index.ts';
 import { VERDICT_MARKS, type MarkVerdict } from '../../checks/verdict-mark.ts';
+import { describeSource } from '../../schemas/excitation.ts';
+import * as followUpQueries from '../db/follow-ups.ts';
 
 export const CAUTIONS = [
 	'Impact testing is done with the machine stopped, locked out and tagged out, unless a site procedure allows otherwise.',
@@ -130,6 +132,24 @@ function table(doc: PDFKit.PDFDocument, head: string[], rows: Cell[][], widths: 
 }
 
 /** Frequency against speed: excitation lines, natural frequencies with their margin bands, the range, the speed. */
+/** The diagram's height on the page, ticks and caption included, pt. */
+const DIAGRAM_HEIGHT = 280;
+
+/** Round ticks covering [lo, hi]: multiples of 1, 2, 2.5 or 5 × 10^k, about five of them. */
+export function niceTicks(lo: number, hi: number, count = 5): number[] {
+	const span = Math.max(hi - lo, 1e-9);
+	const raw = span / count;
+	const pow = 10 ** Math.floor(Math.log10(raw));
+	const step = [1, 2, 2.5, 5, 10].map((m) => m * pow).find((s) => s >= raw) ?? 10 * pow;
+	const first = Math.floor(lo / step) * step;
+	const ticks: number[] = [];
+	for (let t = first; t < hi + step * 0.999; t += step) ticks.push(Number(t.toPrecision(12)));
+	return ticks;
+}
+
+const tickText = (v: number) =>
+	Number.isInteger(v) ? String(v) : String(Number(v.toPrecision(4)));
+
 function diagram(
 	doc: PDFKit.PDFDocument,
 	c: ComputedCheck,
@@ -138,16 +158,24 @@ function diagram(
 	measured: number | null,
 	modes: number[]
 ) {
-	if (doc.y > 520) doc.addPage();
+	if (doc.y > doc.page.height - doc.page.margins.bottom - DIAGRAM_HEIGHT) doc.addPage();
 	const X = doc.page.margins.left + 40;
 	const Y = doc.y + 10;
-	const W = 440;
+	const W = 400;
 	const H = 220;
-	const x0 = Math.max(0, Math.min(minRpm, measured ?? minRpm) * 0.75);
-	const x1 = Math.max(maxRpm, measured ?? maxRpm) * 1.15;
-	const yMax = Math.max(10, ...modes.map((f) => f * 1.5), (x1 / 60) * 1.2);
+	// axes on round numbers: the ticks are multiples of a 1, 2, 2.5 or 5 step
+	const xt = niceTicks(
+		Math.max(0, Math.min(minRpm, measured ?? minRpm) * 0.75),
+		Math.max(maxRpm, measured ?? maxRpm) * 1.15
+	);
+	const x0 = xt[0];
+	const x1 = xt[xt.length - 1];
+	const yt = niceTicks(0, Math.max(10, ...modes.map((f) => f * 1.5), (x1 / 60) * 1.2));
+	const yMax = yt[yt.length - 1];
 	const sx = (r: number) => X + ((r - x0) / (x1 - x0)) * W;
 	const sy = (f: number) => Y + H - (Math.min(f, yMax) / yMax) * H;
+	// lines run on past the top and are clipped there (clamped, they all met in the corner)
+	const syLine = (f: number) => Y + H - (f / yMax) * H;
 	doc.save();
 	doc.rect(sx(minRpm), Y, Math.max(1, sx(maxRpm) - sx(minRpm)), H).fill('#e9ebe5');
 	for (const b of c.bands.bands)
@@ -180,11 +208,19 @@ function diagram(
 			.text(`${fn.toFixed(1)} Hz`, X + W + 2, sy(fn) - 3);
 	});
 	doc.rect(X, Y, W, H).clip();
+	// each line named where it leaves the plot (the right edge, or the top)
+	const labels: { text: string; x: number; y: number }[] = [];
+	for (const l of c.result.lines) {
+		const endF = l.order !== null ? (l.order * x1) / 60 : (l.fixedHz as number);
+		if (endF <= yMax) labels.push({ text: l.label, x: X + W + 2, y: sy(endF) - 3 });
+		else if (l.order !== null)
+			labels.push({ text: l.label, x: sx((yMax * 60) / l.order) - 10, y: Y - 9 });
+	}
 	for (const l of c.result.lines) {
 		if (l.order !== null)
 			doc
-				.moveTo(sx(x0), sy((l.order * x0) / 60))
-				.lineTo(sx(x1), sy((l.order * x1) / 60))
+				.moveTo(sx(x0), syLine((l.order * x0) / 60))
+				.lineTo(sx(x1), syLine((l.order * x1) / 60))
 				.lineWidth(0.8)
 				.stroke(accent);
 		else
@@ -205,12 +241,19 @@ function diagram(
 	doc.restore();
 	doc.rect(X, Y, W, H).lineWidth(0.5).stroke(muted);
 	doc.fontSize(7.5).fillColor(muted);
-	for (let k = 0; k <= 4; k++) {
-		const r = x0 + ((x1 - x0) * k) / 4;
-		doc.text(`${Math.round(r)}`, sx(r) - 15, Y + H + 3, { width: 30, align: 'center' });
-		const f = (yMax * k) / 4;
-		doc.text(`${f.toFixed(0)}`, X - 32, sy(f) - 3, { width: 28, align: 'right' });
+	for (const r of xt)
+		doc.text(tickText(r), sx(r) - 18, Y + H + 3, { width: 36, align: 'center', lineBreak: false });
+	for (const f of yt)
+		doc.text(tickText(f), X - 34, sy(f) - 3, { width: 30, align: 'right', lineBreak: false });
+	doc.fontSize(6.5).fillColor(accent);
+	let lastY = -Infinity;
+	for (const l of labels.sort((a, b) => a.y - b.y)) {
+		// labels at the right edge never overlap: each at least a line below the last
+		const y = l.x > X + W ? Math.max(l.y, lastY + 7) : l.y;
+		if (l.x > X + W) lastY = y;
+		doc.text(l.text, l.x, y, { lineBreak: false });
 	}
+	doc.fillColor(muted);
 	doc.text('shaft speed (rpm)', X, Y + H + 14, { width: W, align: 'center' });
 	doc.text('Hz', X - 32, Y - 10);
 	doc.fillColor(ink).fontSize(9.5);
@@ -245,7 +288,12 @@ function cautions(doc: PDFKit.PDFDocument) {
 const missingGlyphs = new WeakMap<PDFKit.PDFDocument, () => number>();
 
 function newReport(title: string): PDFKit.PDFDocument {
-	const doc = new PDFDocument({ size: 'A4', margin: 48, info: { Title: title, Author: 'Detune' } });
+	const doc = new PDFDocument({
+		size: 'A4',
+		margin: 48,
+		bufferPages: true,
+		info: { Title: title, Author: 'Detune' }
+	});
 	missingGlyphs.set(doc, useInter(doc));
 	return doc;
 }
@@ -282,6 +330,9 @@ function checkSection(doc: PDFKit.PDFDocument, d: NonNullable<ReturnType<typeof 
 		d.reviewer
 			? `Reviewed by ${d.reviewer} on ${when(check.reviewedAt)}${check.reviewComment ? `: ${check.reviewComment}` : ''}.`
 			: 'Not reviewed yet.'
+	);
+	doc.text(
+		check.notes.trim() ? `Technician's notes: ${check.notes.trim()}` : 'No notes with this check.'
 	);
 	doc.text(
 		`Rule: ${sheet.ruleSet ? `${sheet.ruleSet.name} (${sheet.ruleSet.source}${sheet.ruleSet.edition ? `, ${sheet.ruleSet.edition}` : ''})` : 'Detune default 10 % (common practice)'}. Margin = |fn - fe| / fe.`
@@ -352,6 +403,8 @@ function checkSection(doc: PDFKit.PDFDocument, d: NonNullable<ReturnType<typeof 
 	for (const w of c.bands.warnings) doc.text(w);
 	if (c.bands.bands.length)
 		doc.fontSize(8).fillColor(muted).text(c.bands.slipNote).fillColor(ink).fontSize(9.5);
+	// the heading goes with its diagram: a new page when both do not fit
+	if (doc.y > doc.page.height - doc.page.margins.bottom - DIAGRAM_HEIGHT - 40) doc.addPage();
 	heading(doc, 'Interference diagram');
 	diagram(
 		doc,
@@ -384,9 +437,71 @@ function assetHeader(
 	doc.text(
 		`Speed range: ${a.minRpm === a.maxRpm ? `${a.minRpm} rpm` : `${a.minRpm}-${a.maxRpm} rpm`}${a.nominalRpm ? `, nominal ${a.nominalRpm} rpm` : ''}. Motor poles ${a.motorPoles ?? '-'}, drive ratio ${a.driveRatio}, skip bands ${a.skipBands}.`
 	);
-	doc.text(
-		`Excitation sources: ${sheet.sources.map((s) => `${s.kind}${s.label ? ` (${s.label})` : ''} ${JSON.stringify(s.params)}`).join('; ')}`
+	doc.text(sheet.sources.length ? 'Excitation sources:' : 'Excitation sources: none entered.');
+	for (const s of sheet.sources) doc.text(`- ${describeSource(s.kind, s.label, s.params)}`);
+}
+
+/** The follow-ups of a check (or of the whole asset), with their status. */
+function followUpSection(doc: PDFKit.PDFDocument, assetId: string, checkId: string | null) {
+	const items = followUpQueries
+		.list({ assetId })
+		.filter((f) => checkId === null || f.checkId === checkId);
+	heading(doc, 'Follow-ups');
+	if (items.length === 0) {
+		doc.text(checkId ? 'None raised from this check.' : 'None for this asset.');
+		return;
+	}
+	table(
+		doc,
+		['Follow-up', 'Status', 'Due', 'Assigned to'],
+		items.map((f) => [f.title, f.status, f.dueDate ?? '-', f.assigneeName ?? 'not assigned']),
+		[220, 70, 80, 130]
 	);
+}
+
+/** Where the qualified engineer signs the report off for the machine file. */
+function signOff(doc: PDFKit.PDFDocument) {
+	if (doc.y > doc.page.height - doc.page.margins.bottom - 110) doc.addPage();
+	heading(doc, 'Sign-off');
+	doc.text('Reviewed for the machine file by a qualified engineer:');
+	const x0 = doc.page.margins.left;
+	for (const label of ['Name', 'Position', 'Date', 'Signature']) {
+		doc.moveDown(0.9);
+		const y = doc.y;
+		doc.text(`${label}:`, x0, y, { lineBreak: false });
+		doc
+			.moveTo(x0 + 70, y + 10)
+			.lineTo(x0 + 330, y + 10)
+			.lineWidth(0.6)
+			.stroke(muted);
+		doc.x = x0;
+		doc.y = y + 12;
+	}
+}
+
+/** "Page 2 of 3" at the foot of every page, once all pages exist. */
+function pageNumbers(doc: PDFKit.PDFDocument, title: string) {
+	const range = doc.bufferedPageRange();
+	for (let i = range.start; i < range.start + range.count; i++) {
+		doc.switchToPage(i);
+		const bottom = doc.page.margins.bottom;
+		doc.page.margins.bottom = 0; // writing in the margin must not open a new page
+		doc
+			.font('Body')
+			.fontSize(8)
+			.fillColor(muted)
+			.text(
+				`${title} · page ${i + 1} of ${range.count}`,
+				doc.page.margins.left,
+				doc.page.height - 30,
+				{
+					width: doc.page.width - doc.page.margins.left - doc.page.margins.right,
+					align: 'center',
+					lineBreak: false
+				}
+			);
+		doc.page.margins.bottom = bottom;
+	}
 }
 
 export async function checkReport(checkId: string): Promise<{ pdf: Buffer; tag: string } | null> {
@@ -395,7 +510,10 @@ export async function checkReport(checkId: string): Promise<{ pdf: Buffer; tag: 
 	const doc = newReport(`Detune check ${d.sheet.asset.tag}`);
 	assetHeader(doc, d.sheet, 'resonance check report');
 	checkSection(doc, d);
+	followUpSection(doc, d.sheet.asset.id, d.check.id);
+	signOff(doc);
 	cautions(doc);
+	pageNumbers(doc, `${d.sheet.asset.tag} check of ${when(d.check.checkedAt)}`);
 	return { pdf: await toBuffer(doc), tag: d.sheet.asset.tag };
 }
 
@@ -427,6 +545,9 @@ export async function assetReport(assetId: string): Promise<{ pdf: Buffer; tag: 
 		);
 	const latest = history[0] ? loadCheck(history[0].id) : null;
 	if (latest) checkSection(doc, latest);
+	followUpSection(doc, sheet.asset.id, null);
+	signOff(doc);
 	cautions(doc);
+	pageNumbers(doc, `${sheet.asset.tag} asset report`);
 	return { pdf: await toBuffer(doc), tag: sheet.asset.tag };
 }
