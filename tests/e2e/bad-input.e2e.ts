@@ -286,7 +286,7 @@ test.describe('bad input is refused with a message and changes nothing', () => {
 			role: 'supervisor',
 			path: `/assets/${ids.asset}`,
 			action: 'review',
-			base: { checkId: ids.check, comment: 'Seen' },
+			base: { checkId: ids.check, outcome: 'fine', comment: 'Seen' },
 			fields: { checkId: 'id', comment: 'longText' }
 		},
 		{

@@ -89,9 +89,21 @@ export const sourceFormMeta = z.object({
 });
 
 /** A reviewer's mark on a check, with an optional comment. */
+/**
+ * A review: "fine" (a comment optional) or "with remarks" (the comment says what). Before, an
+ * empty comment marked a check reviewed in one tap.
+ */
 export const reviewForm = z
 	.object({
 		checkId: z.string().min(1, 'Which check?').max(64),
+		outcome: z.enum(['fine', 'remarks'], { error: 'Choose: reviewed, fine, or with remarks.' }),
 		comment: z.string().trim().max(1000, 'Comment: at most 1000 characters.').default('')
 	})
-	.strict();
+	.strict()
+	.refine((r) => r.outcome === 'fine' || r.comment.length >= 3, {
+		message: 'Comment: say what the remarks are (at least 3 characters).',
+		path: ['comment']
+	});
+
+/** A review may be withdrawn by a supervisor or admin within this long of it. */
+export const REVIEW_WITHDRAW_MS = 24 * 3600 * 1000;

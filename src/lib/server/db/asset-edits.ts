@@ -3,6 +3,7 @@
  * sync version (the asset is sent again to the tablets), is audited with before and after, and
  * re-evaluates the asset's board row — all in one transaction.
  */
+import { REVIEW_WITHDRAW_MS } from '../../schemas/asset.ts';
 import { and, eq } from 'drizzle-orm';
 import { db } from './index.ts';
 import { assets, checks, excitationSources, ruleSets } from './schema.ts';
@@ -204,6 +205,7 @@ export function deleteSource(
 export function markReviewed(
 	assetId: string,
 	checkId: string,
+	outcome: 'fine' | 'remarks',
 	comment: string,
 	actorId: string,
 	now = Date.now()
@@ -215,13 +217,68 @@ export function markReviewed(
 			.where(and(eq(checks.id, checkId), eq(checks.assetId, assetId)))
 			.get();
 		if (!c) throw new UnknownCheckError();
+		if (c.reviewedAt !== null) throw new ReviewError('This check has been reviewed already.', 409);
 		tx.update(checks)
-			.set({ reviewedBy: actorId, reviewedAt: now, reviewComment: comment })
+			.set({ reviewedBy: actorId, reviewedAt: now, reviewComment: comment, reviewOutcome: outcome })
 			.where(eq(checks.id, checkId))
 			.run();
 		audit.record(
 			tx,
-			{ userId: actorId, entity: 'check', entityId: checkId, action: 'review', after: { comment } },
+			{
+				userId: actorId,
+				entity: 'check',
+				entityId: checkId,
+				action: 'review',
+				after: { outcome, comment }
+			},
+			now
+		);
+	});
+}
+
+export class ReviewError extends Error {
+	constructor(
+		message: string,
+		readonly status: number
+	) {
+		super(message);
+		this.name = 'ReviewError';
+	}
+}
+
+/** Withdraws a review within a day of it (supervisors and admins), on the record. */
+export function withdrawReview(
+	assetId: string,
+	checkId: string,
+	actorId: string,
+	now = Date.now()
+): void {
+	db.transaction((tx) => {
+		const c = tx
+			.select()
+			.from(checks)
+			.where(and(eq(checks.id, checkId), eq(checks.assetId, assetId)))
+			.get();
+		if (!c) throw new UnknownCheckError();
+		if (c.reviewedAt === null) throw new ReviewError('This check has no review to withdraw.', 409);
+		if (now - c.reviewedAt > REVIEW_WITHDRAW_MS)
+			throw new ReviewError(
+				'A review can be withdrawn within a day of it; this one is older.',
+				409
+			);
+		tx.update(checks)
+			.set({ reviewedBy: null, reviewedAt: null, reviewComment: null, reviewOutcome: null })
+			.where(eq(checks.id, checkId))
+			.run();
+		audit.record(
+			tx,
+			{
+				userId: actorId,
+				entity: 'check',
+				entityId: checkId,
+				action: 'review-withdrawn',
+				before: { outcome: c.reviewOutcome, comment: c.reviewComment, by: c.reviewedBy }
+			},
 			now
 		);
 	});

@@ -203,7 +203,9 @@ export const checks = sqliteTable(
 		resultDiffers: integer('result_differs', { mode: 'boolean' }).notNull().default(false),
 		reviewedBy: text('reviewed_by').references(() => users.id),
 		reviewedAt: integer('reviewed_at'),
-		reviewComment: text('review_comment')
+		reviewComment: text('review_comment'),
+		/** "fine" (comment optional) or "remarks" (a comment says what) */
+		reviewOutcome: text('review_outcome', { enum: ['fine', 'remarks'] })
 	},
 	(t) => [
 		index('checks_asset_idx').on(t.assetId, t.checkedAt),

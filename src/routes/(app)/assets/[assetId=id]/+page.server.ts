@@ -159,14 +159,35 @@ export const actions: Actions = {
 		const parsed = reviewForm.safeParse(raw);
 		if (!parsed.success)
 			return failAction(400, 'review', String(raw.checkId ?? ''), fieldErrors(parsed.error));
-		const { checkId, comment } = parsed.data;
+		const { checkId, comment, outcome } = parsed.data;
 		try {
-			edits.markReviewed(sheet.asset.id, checkId, comment, actor.id);
+			edits.markReviewed(sheet.asset.id, checkId, outcome, comment, actor.id);
 		} catch (e) {
 			if (e instanceof edits.UnknownCheckError)
 				return failAction(404, 'review', checkId, { form: e.message });
+			if (e instanceof edits.ReviewError)
+				return failAction(e.status, 'review', checkId, { form: e.message });
 			throw e;
 		}
-		return doneAction('review', checkId, 'Marked reviewed.');
+		return doneAction(
+			'review',
+			checkId,
+			outcome === 'fine' ? 'Marked reviewed, fine.' : 'Marked reviewed with remarks.'
+		);
+	},
+	withdrawReview: async (event) => {
+		const actor = requireRole(event, EDITORS);
+		const { sheet } = loadSheet(event);
+		const checkId = String((await event.request.formData()).get('checkId') ?? '');
+		try {
+			edits.withdrawReview(sheet.asset.id, checkId, actor.id);
+		} catch (e) {
+			if (e instanceof edits.UnknownCheckError)
+				return failAction(404, 'review', checkId, { form: e.message });
+			if (e instanceof edits.ReviewError)
+				return failAction(e.status, 'review', checkId, { form: e.message });
+			throw e;
+		}
+		return doneAction('review', checkId, 'Review withdrawn; the check awaits a review again.');
 	}
 };
