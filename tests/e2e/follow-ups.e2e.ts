@@ -11,6 +11,10 @@ test('a planner turns a conflict check into a follow-up for a technician; the ma
 	await signInApi(tech.request, 'technician');
 	const pulled = await (await tech.request.get('/api/sync/pull?since=0')).json();
 	const asset = pulled.assets.find((a: { tag: string }) => a.tag === 'KRW-RWP-101');
+	// the planner's queue lists it: in conflict, and no follow-up yet
+	await page.goto('/follow-ups');
+	const queued = page.getByTestId('planning-queue').locator('[data-tag="KRW-RWP-101"]');
+	await expect(queued).toContainText('conflict');
 	await page.goto(`/assets/${asset.id}`);
 	await page.getByRole('link', { name: 'Create follow-up' }).first().click();
 	const form = page.getByTestId('new-follow-up');
@@ -31,6 +35,8 @@ test('a planner turns a conflict check into a follow-up for a technician; the ma
 	);
 	await expect(item).toContainText('Add a stiffener');
 	await expect(item).toHaveAttribute('data-tag', 'KRW-RWP-101');
+	// and it has left the queue
+	await expect(queued).toHaveCount(0);
 	await expect(item.getByTestId('status')).toHaveText('scheduled');
 
 	// the admin's mailbox holds the assignment, with the asset and the due date
@@ -45,42 +51,57 @@ test('a planner turns a conflict check into a follow-up for a technician; the ma
 	await expect(message).toContainText('Due: 2027-01-15');
 	await expect(message).toContainText('KRW-RWP-101');
 
-	// the technician's new check of that asset is clear (the stiffened stand moved the mode up)
-	const res = await tech.request.post('/api/sync/push', {
-		headers: { origin: ORIGIN },
-		data: {
-			clientId: 'retest',
-			items: [
-				{
-					id: crypto.randomUUID(),
-					assetId: asset.id,
-					checkedAt: Date.now(),
-					measuredRpm: 1000,
-					driveSetpointHz: null,
-					notes: 'Retest after the stiffener',
-					replacesCheckId: null,
-					modes: [
-						{
-							frequencyHz: 300,
+	// the technician's new checks of that asset are clear (the stiffened stand moved the modes up)
+	const retest = (points: { direction: string; location: string }[]) =>
+		tech.request.post('/api/sync/push', {
+			headers: { origin: ORIGIN },
+			data: {
+				clientId: 'retest',
+				items: [
+					{
+						id: crypto.randomUUID(),
+						assetId: asset.id,
+						checkedAt: Date.now(),
+						measuredRpm: 1000,
+						driveSetpointHz: null,
+						notes: 'Retest after the stiffener',
+						replacesCheckId: null,
+						modes: points.map((p, i) => ({
+							frequencyHz: 300 + 40 * i,
 							dampingRatio: 0.02,
-							direction: 'horizontal',
-							location: 'Motor top',
+							...p,
 							origin: 'typed'
+						})),
+						device: {
+							verdict: 'clear',
+							verdictAtSpeed: 'clear',
+							worstMarginAtSpeedPct: null,
+							worstMarginOverRangePct: null
 						}
-					],
-					device: {
-						verdict: 'clear',
-						verdictAtSpeed: 'clear',
-						worstMarginAtSpeedPct: null,
-						worstMarginOverRangePct: null
 					}
-				}
-			]
-		}
-	});
+				]
+			}
+		});
+	// the flagged check measured two points; a retest of one of them does not close it
+	const motor = { direction: 'horizontal', location: 'Motor top, in line with discharge' };
+	const res = await retest([motor]);
 	expect((await res.json()).results[0]).toMatchObject({ status: 'applied', verdict: 'clear' });
 	await page.reload();
+	await expect(item.getByTestId('status')).toHaveText('scheduled');
+	await expect(item).toContainText('did not measure vertical at Discharge head');
+	const both = await retest([motor, { direction: 'vertical', location: 'Discharge head' }]);
+	expect((await both.json()).results[0]).toMatchObject({ status: 'applied', verdict: 'clear' });
+	await page.reload();
 	await expect(item.getByTestId('status')).toHaveText('retested');
+	// and the assignee and the planner who raised it are told
+	await ap.goto('/admin/mailbox');
+	const closed = ap
+		.getByTestId('message')
+		.filter({
+			hasText: 'Closed by a retest: KRW-RWP-101 — Add a stiffener to the motor stand and retest'
+		});
+	await expect(closed.filter({ hasText: 'to tech@example.com' })).toHaveCount(1);
+	await expect(closed.filter({ hasText: 'to planner@example.com' })).toHaveCount(1);
 
 	// the check report opens in chromium as a PDF
 	const latest = await ap.request.get(`/api/reports/assets/${asset.id}`);

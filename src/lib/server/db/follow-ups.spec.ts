@@ -105,6 +105,95 @@ describe('follow-ups', () => {
 		expect(() => fu.move(id, 'open', planner)).toThrow(/closed by a clear retest/);
 	});
 
+	it('is closed by a retest only when it measured every point of the flagged check, and says what was missed', () => {
+		// the flagged check: two modes, horizontal at the motor top and vertical at the pump foot
+		const base = {
+			assetId,
+			measuredRpm: 1000,
+			driveSetpointHz: null,
+			notes: '',
+			replacesCheckId: null,
+			device: {
+				verdict: 'conflict',
+				verdictAtSpeed: 'conflict',
+				worstMarginAtSpeedPct: null,
+				worstMarginOverRangePct: null
+			}
+		};
+		const flagged = crypto.randomUUID();
+		push(tech, [
+			{
+				...base,
+				id: flagged,
+				checkedAt: Date.now() - 5000,
+				modes: [
+					{
+						frequencyHz: 17.2,
+						dampingRatio: null,
+						direction: 'horizontal',
+						location: 'Motor top',
+						origin: 'typed'
+					},
+					{
+						frequencyHz: 33.5,
+						dampingRatio: null,
+						direction: 'vertical',
+						location: 'Pump foot',
+						origin: 'typed'
+					}
+				]
+			}
+		]);
+		const id = fu.create(
+			{
+				assetId,
+				checkId: flagged,
+				title: 'Brace the stand',
+				assigneeId: tech.id,
+				dueDate: '2027-01-20',
+				priority: 'high',
+				notes: ''
+			},
+			planner,
+			Date.now() - 4000
+		);
+		const clear = (points: { direction: string; location: string }[], at: number) =>
+			push(tech, [
+				{
+					...base,
+					id: crypto.randomUUID(),
+					checkedAt: at,
+					modes: points.map((p) => ({
+						frequencyHz: 300,
+						dampingRatio: null,
+						...p,
+						origin: 'typed'
+					}))
+				}
+			]);
+		// before, any clear check closed it, even one that measured only one of the two points
+		const partial = clear([{ direction: 'horizontal', location: 'motor top' }], Date.now() - 3000);
+		expect(partial.closedFollowUps).not.toContain(id);
+		const row = fu.byId(id)!;
+		expect(row.status).toBe('scheduled');
+		expect(row.notes).toMatch(/did not measure vertical at Pump foot, as the flagged check did/);
+		const full = clear(
+			[
+				{ direction: 'horizontal', location: 'Motor top' },
+				{ direction: 'vertical', location: 'Pump foot' }
+			],
+			Date.now() - 2000
+		);
+		expect(full.closedFollowUps).toContain(id);
+		expect(fu.byId(id)!.status).toBe('retested');
+		expect(
+			fu.uncoveredPoints(
+				[{ direction: 'axial', location: null }],
+				[{ direction: 'axial', location: 'x' }]
+			)
+		).toEqual([]);
+	});
+
 	it('sends exactly one overdue mail however often the reminder job runs', async () => {
 		const id = fu.create(
 			{

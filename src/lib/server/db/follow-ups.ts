@@ -3,9 +3,11 @@
  * open → scheduled → done by hand; "retested" only when a newer check of the asset comes in clear
  * (set in the same transaction as that check, see sync/push.ts).
  */
-import { and, asc, desc, eq, inArray, lt, ne, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, lt, ne, or, sql } from 'drizzle-orm';
 import { db } from './index.ts';
-import { assets, checks, followUps, sites, users } from './schema.ts';
+import { assetStatus, assets, checks, followUps, modes, sites, users } from './schema.ts';
+import { visibleSiteIds } from './assets.ts';
+import type { Role } from '../../roles.ts';
 import { refreshAsset } from './status.ts';
 import * as audit from './audit.ts';
 import type { FollowUpCreate, FollowUpListQuery, FollowUpUpdate } from '../../schemas/follow-up.ts';
@@ -34,6 +36,7 @@ const columns = {
 	remedy: followUps.remedy,
 	assigneeId: followUps.assigneeId,
 	retestCheckId: followUps.retestCheckId,
+	createdBy: followUps.createdBy,
 	createdAt: followUps.createdAt,
 	updatedAt: followUps.updatedAt,
 	tag: assets.tag,
@@ -261,25 +264,93 @@ export function move(
 }
 
 /** A new clear check closes the asset's follow-ups that were made before it (in the check's transaction). */
+/** A measurement point: the direction and location a mode was measured at. */
+interface Point {
+	direction: string | null;
+	location: string | null;
+}
+
+const same = (a: string | null, b: string | null) =>
+	(a ?? '').trim().toLowerCase() === (b ?? '').trim().toLowerCase();
+
+/**
+ * What a retest leaves out of the flagged check: each flagged mode's measurement point (direction
+ * and location) that no mode of the retest was measured at. Empty when the retest covers them all.
+ */
+export function uncoveredPoints(flagged: Point[], retest: Point[]): Point[] {
+	const missing: Point[] = [];
+	for (const f of flagged) {
+		const covered = retest.some(
+			(r) =>
+				same(r.direction, f.direction) &&
+				(!(f.location ?? '').trim() || same(r.location, f.location))
+		);
+		if (
+			!covered &&
+			!missing.some((m) => same(m.direction, f.direction) && same(m.location, f.location))
+		)
+			missing.push(f);
+	}
+	return missing;
+}
+
+const pointText = (p: Point) =>
+	`${p.direction ?? 'no direction'}${(p.location ?? '').trim() ? ` at ${p.location!.trim()}` : ''}`;
+
+/**
+ * A clear check closes the asset's follow-ups raised before it, as "retested", when it measured
+ * every point the flagged check had (a follow-up raised without a check: any clear check). One
+ * that misses points stays open, and its notes say what the retest left out. Returns the ids of
+ * the follow-ups closed.
+ */
 export function retestedBy(
 	tx: Tx,
 	assetId: string,
 	checkId: string,
 	checkedAt: number,
+	retestPoints: Point[],
 	now = Date.now()
-): number {
+): string[] {
 	const open = tx
-		.select({ id: followUps.id })
+		.select({ id: followUps.id, checkId: followUps.checkId, notes: followUps.notes })
 		.from(followUps)
 		.where(
 			and(
 				eq(followUps.assetId, assetId),
-				ne(followUps.status, 'retested'),
+				inArray(followUps.status, ['open', 'scheduled', 'done']),
 				lt(followUps.createdAt, checkedAt)
 			)
 		)
 		.all();
+	const closed: string[] = [];
 	for (const f of open) {
+		const flagged = f.checkId
+			? tx
+					.select({ direction: modes.direction, location: modes.location })
+					.from(modes)
+					.where(eq(modes.checkId, f.checkId))
+					.all()
+			: [];
+		const missing = uncoveredPoints(flagged, retestPoints);
+		if (missing.length) {
+			const note = `A clear check of ${new Date(checkedAt).toISOString().slice(0, 10)} did not close this: it did not measure ${missing.map(pointText).join('; ')}, as the flagged check did.`;
+			tx.update(followUps)
+				.set({ notes: f.notes ? `${f.notes}\n${note}` : note, updatedAt: now })
+				.where(eq(followUps.id, f.id))
+				.run();
+			audit.record(
+				tx,
+				{
+					userId: null,
+					entity: 'follow_up',
+					entityId: f.id,
+					action: 'retest incomplete',
+					after: { checkId, missing }
+				},
+				now
+			);
+			continue;
+		}
 		tx.update(followUps)
 			.set({ status: 'retested', retestCheckId: checkId, updatedAt: now })
 			.where(eq(followUps.id, f.id))
@@ -295,8 +366,9 @@ export function retestedBy(
 			},
 			now
 		);
+		closed.push(f.id);
 	}
-	return open.length;
+	return closed;
 }
 
 /** Follow-ups with a due date, for the reminder job. */
@@ -310,5 +382,47 @@ export function due(beforeOrOn: string) {
 				sql`${followUps.assigneeId} is not null`
 			)
 		)
+		.all();
+}
+
+/**
+ * The planner's queue: assets on the user's sites whose latest check is in conflict or tight, or
+ * is overdue for a recheck, and that have no follow-up open; worst first (verdict, then the
+ * smallest margin over the range).
+ */
+export function planningQueue(user: { id: string; role: Role }, now = Date.now(), limit = 50) {
+	const scope = visibleSiteIds(user);
+	if (scope !== 'all' && scope.length === 0) return [];
+	const flagged = or(
+		inArray(assetStatus.verdict, ['conflict', 'tight']),
+		lt(assetStatus.staleAfter, now)
+	);
+	return db
+		.select({
+			assetId: assetStatus.assetId,
+			tag: assetStatus.tag,
+			name: assetStatus.name,
+			site: assetStatus.siteName,
+			verdict: assetStatus.verdict,
+			checkId: assetStatus.latestCheckId,
+			checkedAt: assetStatus.checkedAt,
+			worstMarginOverRangePct: assetStatus.worstMarginOverRangePct,
+			worstPair: assetStatus.worstPair,
+			staleAfter: assetStatus.staleAfter
+		})
+		.from(assetStatus)
+		.where(
+			and(
+				eq(assetStatus.openFollowUps, 0),
+				flagged,
+				scope === 'all' ? undefined : inArray(assetStatus.siteId, scope)
+			)
+		)
+		.orderBy(
+			desc(assetStatus.verdictRank),
+			sql`${assetStatus.worstMarginOverRangePct} asc nulls last`,
+			asc(assetStatus.tag)
+		)
+		.limit(limit)
 		.all();
 }

@@ -13,7 +13,7 @@ import { mail } from '../db/schema.ts';
 import { setting } from '../config.ts';
 
 export interface Outgoing {
-	kind: 'assignment' | 'due-soon' | 'overdue' | 'test';
+	kind: 'assignment' | 'due-soon' | 'overdue' | 'retested' | 'test';
 	to: string;
 	subject: string;
 	text: string;

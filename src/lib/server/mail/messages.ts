@@ -7,15 +7,19 @@ const CAUTION =
 	'Work near machinery only under the plant’s lock-out/tag-out and site procedures. Detune’s figures support, but never replace, a qualified engineer’s judgement and local codes.';
 const esc = escapeHtml;
 
-export function followUpMail(kind: 'assignment' | 'due-soon' | 'overdue', f: FollowUpRow) {
+export function followUpMail(
+	kind: 'assignment' | 'due-soon' | 'overdue' | 'retested',
+	f: FollowUpRow
+) {
 	const origin = setting('ORIGIN') ?? 'http://localhost:3000';
 	const link = `${origin}/follow-ups?id=${f.id}`;
 	const lead = {
 		assignment: 'A follow-up is assigned to you',
 		'due-soon': 'A follow-up of yours is due soon',
-		overdue: 'A follow-up of yours is overdue'
+		overdue: 'A follow-up of yours is overdue',
+		retested: 'A clear retest has closed a follow-up'
 	}[kind];
-	const subject = `${{ assignment: 'Assigned', 'due-soon': 'Due soon', overdue: 'Overdue' }[kind]}: ${f.tag} — ${f.title}`;
+	const subject = `${{ assignment: 'Assigned', 'due-soon': 'Due soon', overdue: 'Overdue', retested: 'Closed by a retest' }[kind]}: ${f.tag} — ${f.title}`;
 	const lines = [
 		`${lead}.`,
 		'',

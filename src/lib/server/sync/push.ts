@@ -43,8 +43,9 @@ export function push(
 	user: { id: string; role: Role; name?: string },
 	items: unknown[],
 	options: PushOptions = {}
-): { response: PushResponse; failed: boolean } {
+): { response: PushResponse; failed: boolean; closedFollowUps: string[] } {
 	const results: ItemResult[] = [];
+	const closedFollowUps: string[] = [];
 	let error: string | undefined;
 	const scope = visibleSiteIds(user);
 	const now = options.now ?? Date.now();
@@ -54,7 +55,11 @@ export function push(
 			try {
 				probe?.({ item: index + 1, phase: 'before-item', checkId: rawIdOf(items[index]) });
 				// a savepoint: whatever this item wrote goes if any step of it throws
-				results.push(tx.transaction((sp) => applyOne(sp, user, scope, items[index], now, index)));
+				const closing: string[] = [];
+				results.push(
+					tx.transaction((sp) => applyOne(sp, user, scope, items[index], now, index, closing))
+				);
+				closedFollowUps.push(...closing);
 			} catch (e) {
 				error = `The server failed on item ${index + 1}; it and the items after it were not stored. Retry later.`;
 				console.error('[detune] push stopped:', (e as Error).message);
@@ -62,7 +67,11 @@ export function push(
 			}
 		}
 	});
-	return { response: error ? { results, error } : { results }, failed: error !== undefined };
+	return {
+		response: error ? { results, error } : { results },
+		failed: error !== undefined,
+		closedFollowUps
+	};
 }
 
 function rawIdOf(raw: unknown): string | null {
@@ -83,7 +92,9 @@ function applyOne(
 	scope: string[] | 'all',
 	raw: unknown,
 	now: number,
-	index: number
+	index: number,
+	/** follow-ups this check closes as retested (for the messages after the commit) */
+	closed?: string[]
 ): ItemResult {
 	const parsed = checkPush.safeParse(raw);
 	if (!parsed.success) {
@@ -121,7 +132,8 @@ function applyOne(
 	insertCheck(tx, user, c, found, computed, now);
 	pushProbe()?.({ item: index + 1, phase: 'after-insert', checkId: c.id });
 	const s = computed.summary;
-	if (s.verdict === 'clear') retestedBy(tx, found.asset.id, c.id, c.checkedAt, now);
+	if (s.verdict === 'clear')
+		closed?.push(...retestedBy(tx, found.asset.id, c.id, c.checkedAt, c.modes, now));
 	afterCheck(
 		tx,
 		found.asset.id,

@@ -35,6 +35,8 @@ export const load: PageServerLoad = (event) => {
 		today,
 		canPlan: planner,
 		items: followUps.listFor(user, q, today),
+		// flagged checks (conflict, tight, or overdue for a recheck) that no follow-up covers yet
+		queue: planner ? followUps.planningQueue(user) : [],
 		created: q.created ?? null,
 		mailed: q.mailed === 'yes',
 		// names and e-mail addresses go to those who assign, never to everyone; each with the sites

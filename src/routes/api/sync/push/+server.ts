@@ -5,6 +5,10 @@ import { push } from '$lib/server/sync/push';
 import { inTurn } from '$lib/server/turns';
 import { declaredLength } from '$lib/server/body';
 import { MAX_PUSH_BYTES, pushBatch } from '$lib/schemas/sync';
+import * as followUps from '$lib/server/db/follow-ups';
+import * as users from '$lib/server/db/users';
+import { send } from '$lib/server/mail';
+import { followUpMail } from '$lib/server/mail/messages';
 
 /** POST /api/sync/push — see DEVELOPERS.md, "Sync API". */
 export const POST: RequestHandler = async (event) => {
@@ -34,6 +38,23 @@ export const POST: RequestHandler = async (event) => {
 			message: `Bad batch: ${batch.error.issues[0].path.join('.') || 'body'}: ${batch.error.issues[0].message}`,
 			code: 'bad-batch'
 		});
-	const { response, failed } = await inTurn(() => push(user, batch.data.items));
+	const { response, failed, closedFollowUps } = await inTurn(() => push(user, batch.data.items));
+	// once committed: the planner who raised each closed follow-up and its assignee are told
+	for (const id of closedFollowUps) await tellRetested(id);
 	return json(response, { status: failed ? 500 : 200, headers: { 'cache-control': 'no-store' } });
 };
+
+async function tellRetested(id: string) {
+	const f = followUps.byId(id);
+	if (!f) return;
+	const to = new Set<string>();
+	if (f.assigneeEmail) to.add(f.assigneeEmail);
+	const creator = f.createdBy ? users.byId(f.createdBy) : undefined;
+	if (creator && !creator.disabled) to.add(creator.email);
+	for (const address of to)
+		await send({
+			...followUpMail('retested', f),
+			to: address,
+			dedupeKey: `retested:${f.id}:${address}`
+		});
+}
