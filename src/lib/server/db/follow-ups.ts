@@ -3,7 +3,7 @@
  * open → scheduled → done by hand; "retested" only when a newer check of the asset comes in clear
  * (set in the same transaction as that check, see sync/push.ts).
  */
-import { and, asc, desc, eq, inArray, lt, ne, or, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, lt, or, sql } from 'drizzle-orm';
 import { db } from './index.ts';
 import { assetStatus, assets, checks, followUps, modes, sites, users } from './schema.ts';
 import { visibleSiteIds } from './assets.ts';
