@@ -95,11 +95,9 @@ test('a planner turns a conflict check into a follow-up for a technician; the ma
 	await expect(item.getByTestId('status')).toHaveText('retested');
 	// and the assignee and the planner who raised it are told
 	await ap.goto('/admin/mailbox');
-	const closed = ap
-		.getByTestId('message')
-		.filter({
-			hasText: 'Closed by a retest: KRW-RWP-101 — Add a stiffener to the motor stand and retest'
-		});
+	const closed = ap.getByTestId('message').filter({
+		hasText: 'Closed by a retest: KRW-RWP-101 — Add a stiffener to the motor stand and retest'
+	});
 	await expect(closed.filter({ hasText: 'to tech@example.com' })).toHaveCount(1);
 	await expect(closed.filter({ hasText: 'to planner@example.com' })).toHaveCount(1);
 
