@@ -47,6 +47,7 @@ export const ROUTE_ACCESS: Record<string, RouteEntry> = {
 	'/(app)/admin/import': { access: ADMIN },
 	'/(app)/admin/import/template.csv': { access: ADMIN },
 	'/(app)/admin/audit': { access: ADMIN },
+	'/(app)/admin/audit/export.csv': { access: ADMIN },
 	'/api/health': { access: 'public' },
 	'/api/session': { access: 'signed-in' },
 	'/api/sync/pull': { access: ALL },

@@ -33,3 +33,19 @@ export function formatHz(hz: number): string {
 	if (Math.abs(hz - near) <= 1e-4 * hz) return `${near} Hz`;
 	return `${Number(hz.toPrecision(6))} Hz`;
 }
+
+const utcDay = new Intl.DateTimeFormat('en-GB', {
+	day: 'numeric',
+	month: 'short',
+	year: 'numeric',
+	timeZone: 'UTC'
+});
+const utcTime = new Intl.DateTimeFormat('en-GB', {
+	hour: '2-digit',
+	minute: '2-digit',
+	timeZone: 'UTC'
+});
+
+/** "2 Dec 2026, 14:05 UTC": for what the server writes (exports, reports), the zone named. */
+export const dayTimeUtc = (t: number | null | undefined): string =>
+	t === null || t === undefined ? '—' : `${utcDay.format(t)}, ${utcTime.format(t)} UTC`;

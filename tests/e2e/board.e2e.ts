@@ -63,8 +63,11 @@ test('a supervisor filters the board, sorts, opens an asset, edits a vane count 
 		.first()
 		.innerText();
 	expect(vaneRowsAfter).not.toBe(vaneRowsBefore);
-	await expect(page.getByTestId('audit')).toContainText('update vane on asset');
-	await expect(page.getByTestId('audit')).toContainText(/"count":6.*→.*"count":7|count.*6.*7/);
+	// in words: the asset, the form's label, before → after (it showed "count":6 → "count":7)
+	const change = page.getByTestId('audit').getByTestId('audit-line').first();
+	await expect(change).toContainText('(an excitation source) · update vane on asset');
+	await expect(change).toContainText('Values: 6 vanes → 7 vanes');
+	await expect(page.getByTestId('audit')).not.toContainText('{');
 });
 
 test('an admin imports a CSV with a bad row (every problem named with its row, column and value, nothing imported), fixes it and imports', async ({

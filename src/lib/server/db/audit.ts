@@ -47,7 +47,32 @@ export function forEntity(entity: AuditEntry['entity'], entityId: string, limit 
 		.all();
 }
 
-export function recent(limit = 200) {
+export interface AuditFilter {
+	/** entries about this asset: the asset, its sources, its checks and its follow-ups */
+	assetId?: string;
+	userId?: string;
+	/** from this time on, ms */
+	from?: number;
+	/** before this time, ms */
+	to?: number;
+}
+
+/** The log, newest first, filtered. */
+export function search(filter: AuditFilter, limit = 500) {
+	const c = [];
+	if (filter.userId) c.push(eq(auditLog.userId, filter.userId));
+	if (filter.from !== undefined) c.push(sql`${auditLog.at} >= ${filter.from}`);
+	if (filter.to !== undefined) c.push(sql`${auditLog.at} < ${filter.to}`);
+	if (filter.assetId) {
+		const a = filter.assetId;
+		// raw table names: drizzle writes a subquery's columns unqualified
+		c.push(
+			sql`((audit_log.entity = 'asset' and audit_log.entity_id = ${a})
+				or (audit_log.entity = 'excitation_source' and (json_extract(audit_log.before, '$.asset') = ${a} or json_extract(audit_log.after, '$.asset') = ${a}))
+				or (audit_log.entity = 'check' and audit_log.entity_id in (select c.id from checks c where c.asset_id = ${a}))
+				or (audit_log.entity = 'follow_up' and audit_log.entity_id in (select f.id from follow_ups f where f.asset_id = ${a})))`
+		);
+	}
 	return db
 		.select({
 			id: auditLog.id,
@@ -61,28 +86,7 @@ export function recent(limit = 200) {
 		})
 		.from(auditLog)
 		.leftJoin(users, eq(users.id, auditLog.userId))
-		.orderBy(desc(auditLog.at), desc(auditLog.id))
-		.limit(limit)
-		.all();
-}
-
-/** Changes to an asset and to its excitation sources, newest first. */
-export function forAsset(assetId: string, limit = 100) {
-	return db
-		.select({
-			id: auditLog.id,
-			at: auditLog.at,
-			entity: auditLog.entity,
-			action: auditLog.action,
-			before: auditLog.before,
-			after: auditLog.after,
-			userName: users.name
-		})
-		.from(auditLog)
-		.leftJoin(users, eq(users.id, auditLog.userId))
-		.where(
-			sql`(${auditLog.entity} = 'asset' and ${auditLog.entityId} = ${assetId}) or (${auditLog.entity} = 'excitation_source' and (json_extract(${auditLog.before}, '$.asset') = ${assetId} or json_extract(${auditLog.after}, '$.asset') = ${assetId}))`
-		)
+		.where(c.length ? and(...c) : undefined)
 		.orderBy(desc(auditLog.at), desc(auditLog.id))
 		.limit(limit)
 		.all();

@@ -7,6 +7,7 @@ import * as checkQueries from '$lib/server/db/checks';
 import * as recordingQueries from '$lib/server/db/recordings';
 import * as edits from '$lib/server/db/asset-edits';
 import * as audit from '$lib/server/db/audit';
+import { inWords } from '$lib/server/audit-words';
 import * as rules from '$lib/server/db/rule-sets';
 import { computeCheck } from '$lib/checks/compute';
 import { assetForm, reviewForm, sourceFormMeta } from '$lib/schemas/asset';
@@ -85,7 +86,8 @@ export const load: PageServerLoad = (event) => {
 				? formFromParams(s.kind as SourceKind, s.params, user.unitSystem)
 				: {}
 		})),
-		audit: audit.forAsset(sheet.asset.id)
+		// the asset's own changes, its sources', its checks' (reviews) and its follow-ups', in words
+		audit: inWords(audit.search({ assetId: sheet.asset.id }, 100))
 	};
 };
 

@@ -1,0 +1,227 @@
+/**
+ * The audit log as people read it: the asset's tag and name (for changes to its sources, checks
+ * and follow-ups too), the user's name, field labels as on the forms, values in words (names for
+ * ids, sources described, yes/no), before → after. Used by the audit page and its CSV export.
+ */
+import { inArray } from 'drizzle-orm';
+import { db } from './db/index.ts';
+import { assets, checks, followUps, ruleSets, sites, users } from './db/schema.ts';
+import { describeSource, SOURCE_KIND_LABELS, type SourceKind } from '../schemas/excitation.ts';
+import { dayTimeUtc } from '../format.ts';
+
+/** Field keys as the forms label them. */
+export const FIELD_LABELS: Record<string, string> = {
+	tag: 'Tag',
+	name: 'Name',
+	email: 'E-mail',
+	role: 'Role',
+	siteIds: 'Sites',
+	disabled: 'Disabled',
+	machineKind: 'Machine kind',
+	driveType: 'Drive',
+	minRpm: 'Minimum speed (rpm)',
+	maxRpm: 'Maximum speed (rpm)',
+	nominalRpm: 'Nominal speed (rpm)',
+	motorPoles: 'Motor poles',
+	slipPct: 'Motor slip (%)',
+	driveRatio: 'Drive ratio',
+	skipBands: 'Skip bands',
+	ruleSetId: 'Rule set',
+	areaId: 'Area',
+	siteId: 'Site',
+	notes: 'Notes',
+	label: 'Label',
+	params: 'Values',
+	kind: 'Kind',
+	percent: 'Required margin (%)',
+	perKind: 'Margins per excitation kind',
+	source: 'Source',
+	edition: 'Edition',
+	recheckDays: 'Recheck every (days)',
+	area: 'Area',
+	title: 'What is to be done',
+	assigneeId: 'Assigned to',
+	dueDate: 'Due date',
+	priority: 'Priority',
+	status: 'Status',
+	checkId: 'Check',
+	outcome: 'Review',
+	comment: 'Comment',
+	by: 'Reviewed by',
+	missing: 'Not measured by the retest',
+	code: 'Code',
+	lineFrequencyHz: 'Line frequency (Hz)'
+};
+
+/** Keys that carry context, not a change of their own. */
+const CONTEXT = new Set(['asset']);
+
+export interface AuditRow {
+	id: number;
+	at: number;
+	entity: string;
+	entityId: string;
+	action: string;
+	before: Record<string, unknown> | null;
+	after: Record<string, unknown> | null;
+	userName: string | null;
+}
+
+export interface AuditLine {
+	id: number;
+	at: number;
+	when: string;
+	who: string;
+	/** what was changed, in words: "KRW-RWP-101 · Raw water pump 1", "rule set Plant default" */
+	subject: string;
+	assetId: string | null;
+	action: string;
+	changes: { field: string; before: string; after: string }[];
+}
+
+const ACTION_WORDS: Record<string, string> = {
+	create: 'created',
+	update: 'changed',
+	review: 'reviewed',
+	'review-withdrawn': 'review withdrawn',
+	'reset-password': 'password reset'
+};
+
+/** The asset each row is about (directly, or through its source, check or follow-up). */
+function assetsOf(rows: AuditRow[]): Map<number, string> {
+	const byRow = new Map<number, string>();
+	const checkIds = rows.filter((r) => r.entity === 'check').map((r) => r.entityId);
+	const fuIds = rows.filter((r) => r.entity === 'follow_up').map((r) => r.entityId);
+	const checkAsset = new Map(
+		checkIds.length
+			? db
+					.select({ id: checks.id, assetId: checks.assetId })
+					.from(checks)
+					.where(inArray(checks.id, checkIds))
+					.all()
+					.map((c) => [c.id, c.assetId])
+			: []
+	);
+	const fuAsset = new Map(
+		fuIds.length
+			? db
+					.select({ id: followUps.id, assetId: followUps.assetId })
+					.from(followUps)
+					.where(inArray(followUps.id, fuIds))
+					.all()
+					.map((f) => [f.id, f.assetId])
+			: []
+	);
+	for (const r of rows) {
+		const viaJson = (r.before?.asset ?? r.after?.asset) as string | undefined;
+		const id =
+			r.entity === 'asset'
+				? r.entityId
+				: r.entity === 'excitation_source'
+					? viaJson
+					: r.entity === 'check'
+						? checkAsset.get(r.entityId)
+						: r.entity === 'follow_up'
+							? fuAsset.get(r.entityId)
+							: undefined;
+		if (id) byRow.set(r.id, id);
+	}
+	return byRow;
+}
+
+export function inWords(rows: AuditRow[]): AuditLine[] {
+	const assetOf = assetsOf(rows);
+	const names = {
+		asset: new Map(
+			db
+				.select({ id: assets.id, tag: assets.tag, name: assets.name })
+				.from(assets)
+				.all()
+				.map((a) => [a.id, `${a.tag} · ${a.name}`])
+		),
+		user: new Map(
+			db
+				.select({ id: users.id, name: users.name })
+				.from(users)
+				.all()
+				.map((u) => [u.id, u.name])
+		),
+		rule: new Map(
+			db
+				.select({ id: ruleSets.id, name: ruleSets.name })
+				.from(ruleSets)
+				.all()
+				.map((r) => [r.id, r.name])
+		),
+		site: new Map(
+			db
+				.select({ id: sites.id, name: sites.name })
+				.from(sites)
+				.all()
+				.map((s) => [s.id, s.name])
+		)
+	};
+	const value = (key: string, v: unknown, row: AuditRow, side: 'before' | 'after'): string => {
+		if (v === null || v === undefined || v === '') return '—';
+		if (typeof v === 'boolean') return v ? 'yes' : 'no';
+		if (key === 'ruleSetId') return names.rule.get(String(v)) ?? '(a rule set since removed)';
+		if (key === 'assigneeId' || key === 'by')
+			return names.user.get(String(v)) ?? '(a removed user)';
+		if (key === 'siteId') return names.site.get(String(v)) ?? '(a removed site)';
+		if (key === 'siteIds' && Array.isArray(v))
+			return v.map((s) => names.site.get(String(s)) ?? '?').join(', ') || '—';
+		if (key === 'checkId') return 'the check';
+		if (key === 'params') {
+			const kind = String(
+				row[side]?.kind ?? row.action.replace(/^(add|remove|update) | on asset$/g, '')
+			);
+			return describeSource(kind, '', v).replace(/^[^:]*: /, '');
+		}
+		if (key === 'kind' && row.entity === 'excitation_source')
+			return SOURCE_KIND_LABELS[v as SourceKind] ?? String(v);
+		if (key === 'perKind' && typeof v === 'object')
+			return (
+				Object.entries(v as Record<string, number>)
+					.map(([k, p]) => `${SOURCE_KIND_LABELS[k as SourceKind] ?? k} ${p} %`)
+					.join(', ') || '—'
+			);
+		if (key === 'missing' && Array.isArray(v))
+			return v
+				.map((p: { direction?: string; location?: string }) =>
+					[p.direction, p.location].filter(Boolean).join(' at ')
+				)
+				.join('; ');
+		if (typeof v === 'object') return JSON.stringify(v).replace(/[{}"]/g, '').replace(/,/g, ', ');
+		return String(v);
+	};
+	return rows.map((r) => {
+		const assetId = assetOf.get(r.id) ?? null;
+		const subject =
+			assetId !== null
+				? `${names.asset.get(assetId) ?? 'a removed asset'}${r.entity === 'check' ? ' (a check)' : r.entity === 'follow_up' ? ' (a follow-up)' : r.entity === 'excitation_source' ? ' (an excitation source)' : ''}`
+				: r.entity === 'rule_set'
+					? `rule set ${names.rule.get(r.entityId) ?? String(r.after?.name ?? r.before?.name ?? '')}`
+					: r.entity === 'site'
+						? `site ${names.site.get(r.entityId) ?? ''}`
+						: r.entity === 'user'
+							? `user ${names.user.get(r.entityId) ?? ''}`
+							: r.entity;
+		const keys = [
+			...new Set([...Object.keys(r.before ?? {}), ...Object.keys(r.after ?? {})])
+		].filter((k) => !CONTEXT.has(k));
+		return {
+			id: r.id,
+			at: r.at,
+			when: dayTimeUtc(r.at),
+			who: r.userName ?? 'Detune (automatic)',
+			subject,
+			assetId,
+			action: ACTION_WORDS[r.action] ?? r.action,
+			changes: keys.map((k) => ({
+				field: FIELD_LABELS[k] ?? k,
+				before: value(k, r.before?.[k], r, 'before'),
+				after: value(k, r.after?.[k], r, 'after')
+			}))
+		};
+	});
+}
