@@ -49,3 +49,20 @@ const utcTime = new Intl.DateTimeFormat('en-GB', {
 /** "2 Dec 2026, 14:05 UTC": for what the server writes (exports, reports), the zone named. */
 export const dayTimeUtc = (t: number | null | undefined): string =>
 	t === null || t === undefined ? '—' : `${utcDay.format(t)}, ${utcTime.format(t)} UTC`;
+
+const localDayTime = new Intl.DateTimeFormat('en-GB', {
+	day: 'numeric',
+	month: 'short',
+	year: 'numeric',
+	hour: '2-digit',
+	minute: '2-digit',
+	timeZoneName: 'short'
+});
+
+/** "2 Dec 2026, 15:49 CET": this device's local time, its zone named. */
+export const dayTimeLocal = (t: number | null | undefined): string =>
+	t === null || t === undefined ? '—' : localDayTime.format(t);
+
+/** A calendar date as stored (YYYY-MM-DD) written as a person reads it: "9 Dec 2026". */
+export const isoDay = (d: string | null | undefined): string =>
+	d ? utcDay.format(Date.parse(`${d}T00:00:00Z`)) : '—';

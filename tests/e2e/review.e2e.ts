@@ -9,6 +9,11 @@ test('a supervisor reviews a check: remarks need a comment, a fine review may go
 	// an asset no other test reviews
 	const asset = pulled.assets.find((a: { tag: string }) => a.tag === 'LBM-RF-411');
 	await page.goto(`/assets/${asset.id}`);
+	// one way of writing a moment: "23 Nov 2026, 11:06 UTC", the zone named (it was 11/23/2026, …)
+	await expect(page.locator('tbody time').first()).toHaveText(
+		/^\d{1,2} [A-Z][a-z]{2} \d{4}, \d{2}:\d{2} \S+$/
+	);
+	await expect(page.locator('main')).not.toContainText(/\d{1,2}\/\d{1,2}\/\d{4}/);
 	// each check's notes are on the sheet (before, they were shown nowhere after sync)
 	await expect(page.getByTestId('check-notes').first()).toHaveText(
 		'Notes: Machine stopped and locked out for the bump test.'

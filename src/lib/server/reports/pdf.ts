@@ -14,6 +14,7 @@ import { computeCheck, type ComputedCheck } from '../../checks/compute.ts';
 import { comparePairs } from '../../vibration/index.ts';
 import { VERDICT_MARKS, type MarkVerdict } from '../../checks/verdict-mark.ts';
 import { describeSource } from '../../schemas/excitation.ts';
+import { dayTimeUtc } from '../../format.ts';
 import * as followUpQueries from '../db/follow-ups.ts';
 
 export const CAUTIONS = [
@@ -33,8 +34,7 @@ const MARK_COLOURS: Record<MarkVerdict, string> = {
 };
 const accent = '#0b6e69';
 const pct = (v: number | null) => (v === null ? '-' : `${v.toFixed(1)} %`);
-const when = (t: number | null) =>
-	t === null ? '-' : new Date(t).toISOString().replace('T', ' ').slice(0, 16) + ' UTC';
+const when = (t: number | null) => (t === null ? '-' : dayTimeUtc(t));
 
 function toBuffer(doc: PDFKit.PDFDocument): Promise<Buffer> {
 	return new Promise((resolve, reject) => {
