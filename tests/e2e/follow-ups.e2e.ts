@@ -6,11 +6,60 @@ test('a planner turns a conflict check into a follow-up for a technician; the ma
 	browser
 }) => {
 	await signIn(page, 'planner');
-	// KRW-RWP-101's latest demo check is in conflict
 	const tech = await browser.newContext({ baseURL: ORIGIN });
 	await signInApi(tech.request, 'technician');
 	const pulled = await (await tech.request.get('/api/sync/pull?since=0')).json();
 	const asset = pulled.assets.find((a: { tag: string }) => a.tag === 'KRW-RWP-101');
+	// the technician's checks of that asset, as the tablet sends them
+	const checkOf = (
+		points: { direction: string; location: string }[],
+		frequencies: number[],
+		verdict: string
+	) =>
+		tech.request.post('/api/sync/push', {
+			headers: { origin: ORIGIN },
+			data: {
+				clientId: 'retest',
+				items: [
+					{
+						id: crypto.randomUUID(),
+						assetId: asset.id,
+						checkedAt: Date.now(),
+						measuredRpm: 1000,
+						driveSetpointHz: null,
+						notes: 'Retest after the stiffener',
+						replacesCheckId: null,
+						modes: points.map((p, i) => ({
+							frequencyHz: frequencies[i],
+							dampingRatio: 0.02,
+							...p,
+							origin: 'typed'
+						})),
+						device: {
+							verdict,
+							verdictAtSpeed: verdict,
+							worstMarginAtSpeedPct: null,
+							worstMarginOverRangePct: null
+						}
+					}
+				]
+			}
+		});
+	const motor = { direction: 'horizontal', location: 'Motor top, in line with discharge' };
+	const head = { direction: 'vertical', location: 'Discharge head' };
+	const retest = (points: (typeof motor)[]) =>
+		checkOf(
+			points,
+			points.map((_, i) => 300 + 40 * i),
+			'clear'
+		);
+	// the bump test that found the problem: two modes, at the motor and at the discharge head (the
+	// asset's latest check, whatever other tests sent before)
+	const flagged = await checkOf([motor, head], [17.2, 48.5], 'conflict');
+	expect((await flagged.json()).results[0]).toMatchObject({
+		status: 'applied',
+		verdict: 'conflict'
+	});
 	// the planner's queue lists it: in conflict, and no follow-up yet
 	await page.goto('/follow-ups');
 	const queued = page.getByTestId('planning-queue').locator('[data-tag="KRW-RWP-101"]');
@@ -51,45 +100,13 @@ test('a planner turns a conflict check into a follow-up for a technician; the ma
 	await expect(message).toContainText('Due: 2027-01-15');
 	await expect(message).toContainText('KRW-RWP-101');
 
-	// the technician's new checks of that asset are clear (the stiffened stand moved the modes up)
-	const retest = (points: { direction: string; location: string }[]) =>
-		tech.request.post('/api/sync/push', {
-			headers: { origin: ORIGIN },
-			data: {
-				clientId: 'retest',
-				items: [
-					{
-						id: crypto.randomUUID(),
-						assetId: asset.id,
-						checkedAt: Date.now(),
-						measuredRpm: 1000,
-						driveSetpointHz: null,
-						notes: 'Retest after the stiffener',
-						replacesCheckId: null,
-						modes: points.map((p, i) => ({
-							frequencyHz: 300 + 40 * i,
-							dampingRatio: 0.02,
-							...p,
-							origin: 'typed'
-						})),
-						device: {
-							verdict: 'clear',
-							verdictAtSpeed: 'clear',
-							worstMarginAtSpeedPct: null,
-							worstMarginOverRangePct: null
-						}
-					}
-				]
-			}
-		});
 	// the flagged check measured two points; a retest of one of them does not close it
-	const motor = { direction: 'horizontal', location: 'Motor top, in line with discharge' };
 	const res = await retest([motor]);
 	expect((await res.json()).results[0]).toMatchObject({ status: 'applied', verdict: 'clear' });
 	await page.reload();
 	await expect(item.getByTestId('status')).toHaveText('scheduled');
 	await expect(item).toContainText('did not measure vertical at Discharge head');
-	const both = await retest([motor, { direction: 'vertical', location: 'Discharge head' }]);
+	const both = await retest([motor, head]);
 	expect((await both.json()).results[0]).toMatchObject({ status: 'applied', verdict: 'clear' });
 	await page.reload();
 	await expect(item.getByTestId('status')).toHaveText('retested');

@@ -173,4 +173,19 @@ test('a sample rate typed for one CSV is not applied to the next, which has its 
 	await expect(page.getByTestId('recording-loader')).toContainText('timed.csv: 1 channel, 4096 Hz');
 	await expect(page.getByLabel(/Sample rate/)).toHaveValue('');
 	await expect(page.getByTestId('peaks')).toContainText('52.0');
+
+	// the frequency axis opens on the modes, with a way out to the whole spectrum
+	await expect(page.getByRole('button', { name: 'Show the whole spectrum' })).toBeVisible();
+	// a tap on the spectrum picks a frequency and adds nothing until the person says so
+	const before = await page.getByTestId('peaks').locator('li').count();
+	const over = page.locator('[data-testid="recording-loader"] .u-over').last();
+	const box = (await over.boundingBox())!;
+	await over.click({ position: { x: box.width * 0.3, y: box.height / 2 } });
+	await expect(page.getByTestId('pending-peak')).toBeVisible();
+	await expect(page.getByTestId('peaks').locator('li')).toHaveCount(before);
+	await page.getByRole('button', { name: /^Add a peak at / }).click();
+	await expect(page.getByTestId('peaks').locator('li')).toHaveCount(before + 1);
+	await expect(page.getByTestId('peaks')).toContainText('added by hand');
+	await page.getByRole('button', { name: 'Show the whole spectrum' }).click();
+	await expect(page.getByRole('button', { name: 'Zoom to the modes' })).toBeVisible();
 });
