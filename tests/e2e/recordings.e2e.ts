@@ -189,3 +189,36 @@ test('a sample rate typed for one CSV is not applied to the next, which has its 
 	await page.getByRole('button', { name: 'Show the whole spectrum' }).click();
 	await expect(page.getByRole('button', { name: 'Zoom to the modes' })).toBeVisible();
 });
+
+test('a technician subtracts a background record of the running machine from a bump test', async ({
+	page
+}) => {
+	await signIn(page, 'technician');
+	await page.goto('/field');
+	await page.getByLabel('Search by tag or name').fill('KRW-RWP-104');
+	await page
+		.getByTestId('asset-list')
+		.getByRole('button', { name: /KRW-RWP-104/ })
+		.click();
+	await page.getByRole('tab', { name: 'Bump-test file' }).click();
+	// 12 s of the machine running without hits, at the bump test's 2,048 Hz
+	let seed = 5;
+	const hum = Array.from({ length: 2048 * 12 }, (_, i) => {
+		seed = (seed * 16807) % 2147483647;
+		return Math.round(300 * Math.sin((2 * Math.PI * 140 * i) / 2048) * (seed / 2147483647));
+	});
+	const w = new WaveFile();
+	w.fromScratch(1, 2048, '16', hum);
+	await page.getByLabel(/^Background/).setInputFiles({
+		name: 'running.wav',
+		mimeType: 'audio/wav',
+		buffer: Buffer.from(w.toBuffer())
+	});
+	await page
+		.getByLabel(/CSV or WAV file/)
+		.setInputFiles({ name: 'hit.wav', mimeType: 'audio/wav', buffer: wavBuffer() });
+	await expect(page.getByTestId('recording-loader')).toContainText(
+		'the background (running.wav) averaged over 2 stretches and subtracted'
+	);
+	await expect(page.getByTestId('peaks')).toContainText('23.0');
+});

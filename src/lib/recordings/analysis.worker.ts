@@ -11,12 +11,14 @@ interface Request {
 	file: File;
 	sampleRateHz: number | null;
 	choice: AnalysisChoice | null;
+	/** a record of the running machine without hits, subtracted from the bump test's spectrum */
+	background?: File | null;
 }
 
 const post = (m: unknown) => (self as unknown as Worker).postMessage(m);
 
 self.onmessage = async (e: MessageEvent<Request>) => {
-	const { file, sampleRateHz, choice } = e.data;
+	const { file, sampleRateHz, choice, background } = e.data;
 	try {
 		checkSize(file.name, file.size);
 		post({ type: 'progress', stage: 'Reading the file', fraction: 0 });
@@ -24,9 +26,16 @@ self.onmessage = async (e: MessageEvent<Request>) => {
 			post({ type: 'progress', stage: 'Reading the file', fraction: f * 0.5 })
 		);
 		const pick = choice ?? defaultChoice(recording);
+		const bg = background
+			? (checkSize(background.name, background.size),
+				await parseRecordingFile(background, sampleRateHz))
+			: null;
 		post({ type: 'progress', stage: 'Finding the modes', fraction: 0.5 });
-		const analysis = analyzeRecording(recording, pick, (f) =>
-			post({ type: 'progress', stage: 'Finding the modes', fraction: 0.5 + f / 2 })
+		const analysis = analyzeRecording(
+			recording,
+			pick,
+			(f) => post({ type: 'progress', stage: 'Finding the modes', fraction: 0.5 + f / 2 }),
+			bg
 		);
 		post({
 			type: 'done',

@@ -10,7 +10,8 @@ import {
 	type RingdownResult
 } from '../vibration/index.ts';
 import type { ResponseKind } from '../vibration/damping.ts';
-import type { Recording } from './types.ts';
+import { RecordingError, type Recording } from './types.ts';
+import { formatHz } from '../format.ts';
 
 /** What a channel measures, from its unit (an accelerometer when the unit says nothing). */
 export function responseKindOf(unit: string): ResponseKind {
@@ -47,14 +48,26 @@ export function defaultChoice(r: Recording): AnalysisChoice {
 export function analyzeRecording(
 	r: Recording,
 	choice: AnalysisChoice,
-	onProgress: (f: number) => void = () => {}
+	onProgress: (f: number) => void = () => {},
+	background: Recording | null = null
 ): Analysis {
 	const resp = r.channels[choice.response];
 	if (!resp) throw new Error(`There is no channel ${choice.response + 1}.`);
+	// the background of the running machine: the same channel, at the same sample rate
+	let bg: Float64Array | null = null;
+	if (background) {
+		if (Math.abs(background.sampleRateHz - r.sampleRateHz) > 1e-3 * r.sampleRateHz)
+			throw new RecordingError(
+				`The background was recorded at ${formatHz(background.sampleRateHz)} and the bump test at ${formatHz(r.sampleRateHz)}: record both at the same rate.`
+			);
+		const ch = background.channels[Math.min(choice.response, background.channels.length - 1)];
+		bg = ch.samples;
+	}
 	const responseKind = responseKindOf(resp.unit);
 	const ringdown = analyzeRingdown(resp.samples, r.sampleRateHz, {
 		exponentialWindowS: choice.exponentialWindowS ?? null,
 		responseKind,
+		background: bg,
 		onProgress: (f) => onProgress(choice.force === null ? f : f / 2)
 	});
 	if (choice.force === null) return { kind: 'ringdown', result: ringdown };

@@ -84,6 +84,12 @@ export interface RingdownOptions {
 	/** what the samples measure, for the exact half-power form (default acceleration) */
 	responseKind?: ResponseKind;
 	onProgress?: (fraction: number) => void;
+	/**
+	 * a record of the running machine without hits, same sensor and sample rate: its averaged
+	 * power spectrum is subtracted from each hit's (spectral subtraction), so what the machine does
+	 * by itself neither hides a mode nor passes for one
+	 */
+	background?: ArrayLike<number> | null;
 }
 
 export interface RingdownMode {
@@ -125,6 +131,8 @@ export interface RingdownResult {
 	hitIndex: number;
 	/** hits found in the record, each analysed on its own and the modes combined (median) */
 	hitIndices: number[];
+	/** stretches of the background record averaged and subtracted (0: none given) */
+	backgroundSegments: number;
 	flags: ModeFlag[];
 	/** for charts: the spectrum (≤ 2048 points) and the waveform with its RMS envelope (≤ 2000) */
 	spectrum: { frequencyHz: number[]; magnitude: number[] };
@@ -869,7 +877,8 @@ function characterise(
 	const ip = interpolatePeak(mag, p.bin);
 	const fPeak = ip.bin * df;
 	const hp = halfPowerBins(mag, p.bin, ip.height);
-	const hpHz: [number, number] | null = hp ? [hp[0] * df, hp[1] * df] : null;
+	const hpHz: [number, number] | null =
+		hp && hp[0] > 0 && hp[1] > hp[0] && Number.isFinite(hp[1]) ? [hp[0] * df, hp[1] * df] : null;
 	const windowDampingAt = (f: number) => (tauW === null ? 0 : 1 / (2 * Math.PI * f * tauW));
 	// exact for the quantity measured (ζ ≈ Δf/2f reads 5 % high at ζ = 0.15 and 26 % at 0.3)
 	const hpRaw = hpHz
@@ -1272,6 +1281,9 @@ function oneHit(
 			? Math.min(nextPow2(n) * nextPow2(integerAtLeast('zeroPad', opt.zeroPad, 1)), 1 << 22)
 			: Math.min(2 * nextPow2(n), Math.max(nextPow2(n), PAD_UP_TO));
 	const mag = magnitudeSpectrum(windowed, nfft);
+	const backgroundSegments = opt.background
+		? subtractBackground(mag, opt.background, n, nfft, tauW, fs)
+		: 0;
 	progress(0.45);
 	const df = fs / nfft;
 	const T = n / fs;
@@ -1322,6 +1334,7 @@ function oneHit(
 		nfft,
 		hitIndex: hit,
 		hitIndices: [hit],
+		backgroundSegments,
 		flags: recordFlags,
 		spectrum: spectrumChart(mag, fs, df, n, fMaxAsked),
 		waveform: waveformChart(x0, fs)
@@ -1356,6 +1369,42 @@ function peakCandidates(
 		if (kept.every((q) => Math.abs(q.bin - p.bin) * df >= 2 * resolution)) kept.push(p);
 	}
 	return { list: kept, tallest };
+}
+
+/**
+ * Spectral subtraction, in place: |X|² less twice the mean |B|² of the background record cut in
+ * stretches of the hit's length n (windowed as the hit is, up to 16 stretches; a shorter record is
+ * used whole and its power scaled to n), floored 60 dB below the bin's own level. Returns the
+ * stretches averaged.
+ */
+function subtractBackground(
+	mag: Float64Array,
+	background: ArrayLike<number>,
+	n: number,
+	nfft: number,
+	tauW: number | null,
+	fs: number
+): number {
+	validateSamples(background);
+	const b = detrend(background);
+	const len = Math.min(n, b.length);
+	const count = Math.max(1, Math.min(16, Math.floor(b.length / len)));
+	const power = new Float64Array(mag.length);
+	const seg = new Float64Array(len);
+	for (let k = 0; k < count; k++) {
+		for (let i = 0; i < len; i++)
+			seg[i] = b[k * len + i] * (tauW === null ? 1 : Math.exp(-i / fs / tauW));
+		const m = magnitudeSpectrum(seg, nfft);
+		for (let j = 0; j < mag.length; j++) power[j] += (m[j] * m[j]) / count;
+	}
+	// a stationary record's power grows with its length; twice the mean is taken off, since one
+	// record's power scatters about its mean (over-subtraction, common practice in spectral
+	// subtraction)
+	const scale = (2 * n) / len;
+	// floored 60 dB under what was there, not at zero: peak interpolation takes logarithms
+	for (let j = 0; j < mag.length; j++)
+		mag[j] = Math.sqrt(Math.max(1e-6 * mag[j] * mag[j], mag[j] * mag[j] - scale * power[j]));
+	return count;
 }
 
 /** Chart data, decimated without building full-length arrays: the spectrum (≤ 2048 points). */
