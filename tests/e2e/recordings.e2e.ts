@@ -200,6 +200,7 @@ test('a technician subtracts a background record of the running machine from a b
 		.getByTestId('asset-list')
 		.getByRole('button', { name: /KRW-RWP-104/ })
 		.click();
+	await page.getByLabel(/^Measured running speed/).fill('1000');
 	await page.getByRole('tab', { name: 'Bump-test file' }).click();
 	// 12 s of the machine running without hits, at the bump test's 2,048 Hz
 	let seed = 5;
@@ -221,4 +222,24 @@ test('a technician subtracts a background record of the running machine from a b
 		'the background (running.wav) averaged over 2 stretches and subtracted'
 	);
 	await expect(page.getByTestId('peaks')).toContainText('23.0');
+	// saved and synced, the background travels with the check and the server analyses the bump
+	// test with it, as the tablet did
+	await page.getByRole('button', { name: /^Use \d frequenc/ }).click();
+	await page.getByRole('button', { name: 'Save check' }).click();
+	await page.getByRole('button', { name: 'Sync now' }).click();
+	await expect
+		.poll(async () => Number(await page.getByTestId('outbox-count').innerText()), {
+			timeout: 20_000
+		})
+		.toBe(0);
+	const pulled = await (await page.request.get('/api/sync/pull?since=0')).json();
+	const asset = pulled.assets.find((a: { tag: string }) => a.tag === 'KRW-RWP-104');
+	await page.goto(`/assets/${asset.id}`);
+	const recordings = page.getByTestId('recordings');
+	await expect(recordings).toContainText('running.wav');
+	await expect(recordings.locator('li').filter({ hasText: 'running.wav' })).toContainText(
+		'background of the running machine'
+	);
+	await expect(recordings).toContainText('hit.wav');
+	await expect(recordings).not.toContainText('server analysis differs');
 });

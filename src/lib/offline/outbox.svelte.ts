@@ -281,7 +281,9 @@ export class SyncManager {
 				const q = withParams(
 					{ id: rec.id, assetId: rec.assetId, name: rec.fileName },
 					{
-						sampleRateHz: rec.sampleRateHz ? String(rec.sampleRateHz) : null
+						sampleRateHz: rec.sampleRateHz ? String(rec.sampleRateHz) : null,
+						role: rec.role ?? null,
+						background: rec.backgroundId ?? null
 					}
 				);
 				let res: Response;

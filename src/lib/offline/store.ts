@@ -39,6 +39,10 @@ export interface PendingRecording {
 	mediaType: string;
 	sampleRateHz: number | null;
 	uploaded: boolean;
+	/** a record of the running machine, subtracted from recording `backgroundFor`'s spectrum */
+	role?: 'background';
+	/** the background recording this one was analysed with (uploaded before it) */
+	backgroundId?: string;
 }
 
 /** The check being typed for one asset, kept as it is typed until it is saved or discarded. */

@@ -17,6 +17,10 @@ export const recordingUploadQuery = z
 				.min(SAMPLE_RATE_LIMITS.minHz, 'sampleRateHz must be 1 Hz to 1 MHz.')
 				.max(SAMPLE_RATE_LIMITS.maxHz, 'sampleRateHz must be 1 Hz to 1 MHz.')
 				.nullable()
-		)
+		),
+		/** this file is a record of the running machine without hits */
+		role: z.literal('background', { error: 'role: background, or leave it out.' }).optional(),
+		/** the background recording (uploaded before) this bump test was analysed with */
+		background: z.uuid({ error: 'background must be a recording id.' }).optional()
 	})
 	.strict();

@@ -32,6 +32,16 @@ export interface IngestInput {
 	mediaType: string;
 	bytes: Buffer;
 	sampleRateHz: number | null;
+	role?: 'background';
+	/** a background recording of the same asset, already stored */
+	backgroundId?: string;
+}
+
+/** A background that is not a stored background of this asset. */
+export class UnknownBackground extends Error {
+	constructor() {
+		super('The background recording named is not on the server for this asset; send it first.');
+	}
 }
 
 /** An upload whose id is already a recording of another asset (never a retry of this one). */
@@ -65,11 +75,19 @@ export async function ingest(input: IngestInput): Promise<{
 		input.fileName,
 		input.mediaType
 	);
+	let background: { bytes: Uint8Array; fileName: string; mediaType: string } | null = null;
+	if (input.backgroundId) {
+		const bg = db.select().from(recordings).where(eq(recordings.id, input.backgroundId)).get();
+		if (!bg || bg.assetId !== input.assetId) throw new UnknownBackground();
+		background = { bytes: readStored(bg.sha256), fileName: bg.fileName, mediaType: bg.mediaType };
+	}
 	const outcome = await analyseUpload({
 		bytes: input.bytes,
 		fileName: input.fileName,
 		mediaType: input.mediaType,
-		sampleRateHz: input.sampleRateHz
+		sampleRateHz: input.sampleRateHz,
+		role: input.role,
+		background
 	});
 	if (!outcome.ok)
 		throw new RecordingError(outcome.message, { row: outcome.row, column: outcome.column });

@@ -9,7 +9,7 @@ import { db } from './db/index.ts';
 import { checks, users } from './db/schema.ts';
 import { demoId } from './db/seed.ts';
 import { push } from './sync/push.ts';
-import { ingest, RecordingIdTaken } from './recordings.ts';
+import { ingest, RecordingIdTaken, UnknownBackground } from './recordings.ts';
 import * as followUps from './db/follow-ups.ts';
 import { readableAsset, readableCheck, readableRecording } from './scope.ts';
 import { checkItem } from '../../../tests/support/check-item.ts';
@@ -130,6 +130,51 @@ describe('one scope check for every id', () => {
 				sampleRateHz: null
 			})
 		).rejects.toThrow(RecordingIdTaken);
+	});
+
+	it('a background is stored without modes, and a bump test names only a background of its own asset', async () => {
+		const bg = crypto.randomUUID();
+		const stored = await ingest({
+			id: bg,
+			assetId: larkspurAsset(),
+			fileName: 'running.csv',
+			mediaType: 'text/csv',
+			bytes: ringdownCsv(),
+			sampleRateHz: null,
+			role: 'background'
+		});
+		expect(stored.analysis).toEqual({ kind: 'background', modes: [] });
+		const withIt = await ingest({
+			id: crypto.randomUUID(),
+			assetId: larkspurAsset(),
+			fileName: 'hit.csv',
+			mediaType: 'text/csv',
+			bytes: ringdownCsv(),
+			sampleRateHz: null,
+			backgroundId: bg
+		});
+		// the same record as its own background: every line of it is taken off
+		const plain = await ingest({
+			id: crypto.randomUUID(),
+			assetId: larkspurAsset(),
+			fileName: 'hit2.csv',
+			mediaType: 'text/csv',
+			bytes: ringdownCsv(),
+			sampleRateHz: null
+		});
+		expect(plain.analysis.modes.length).toBeGreaterThan(0);
+		expect(withIt.analysis.modes).toEqual([]);
+		await expect(
+			ingest({
+				id: crypto.randomUUID(),
+				assetId: kettleAsset(),
+				fileName: 'other.csv',
+				mediaType: 'text/csv',
+				bytes: ringdownCsv(),
+				sampleRateHz: null,
+				backgroundId: bg
+			})
+		).rejects.toThrow(UnknownBackground);
 	});
 
 	it('follow-ups: a remedy is suggested only from a check of that asset; an assignee must have access', () => {

@@ -9,7 +9,8 @@ import { analyzeRecording, defaultChoice } from '../../recordings/analyze.ts';
 import { RecordingError } from '../../recordings/types.ts';
 
 export interface StoredAnalysis {
-	kind: 'ringdown' | 'impact';
+	/** background: a record of the running machine, kept for the bump tests analysed with it */
+	kind: 'ringdown' | 'impact' | 'background';
 	modes: {
 		frequencyHz: number;
 		dampingRatio: number | null;
@@ -23,6 +24,10 @@ export interface AnalysisTask {
 	fileName: string;
 	mediaType: string;
 	sampleRateHz: number | null;
+	/** parse only: a background record is stored, not searched for modes */
+	role?: 'background';
+	/** the background this bump test is analysed with (its spectrum subtracted) */
+	background?: { bytes: Uint8Array; fileName: string; mediaType: string } | null;
 }
 
 /** What the server keeps of a parsed recording: its shape, never its samples. */
@@ -41,23 +46,30 @@ export type AnalysisOutcome =
 export function runAnalysis(task: AnalysisTask): AnalysisOutcome {
 	try {
 		const rec = parseRecordingBytes(task.bytes, task.fileName, task.mediaType, task.sampleRateHz);
-		const a = analyzeRecording(rec, defaultChoice(rec));
+		const shape = {
+			format: rec.format,
+			sampleRateHz: rec.sampleRateHz,
+			channels: rec.channels.length,
+			durationS: rec.durationS
+		};
+		if (task.role === 'background')
+			return { ok: true, shape, analysis: { kind: 'background', modes: [] } };
+		const bg = task.background
+			? parseRecordingBytes(
+					task.background.bytes,
+					task.background.fileName,
+					task.background.mediaType,
+					task.sampleRateHz
+				)
+			: null;
+		const a = analyzeRecording(rec, defaultChoice(rec), () => {}, bg);
 		const modes = a.result.modes.map((m) => ({
 			frequencyHz: m.frequencyHz,
 			dampingRatio: m.dampingRatio,
 			qFactor: m.qFactor,
 			flags: m.flags as string[]
 		}));
-		return {
-			ok: true,
-			shape: {
-				format: rec.format,
-				sampleRateHz: rec.sampleRateHz,
-				channels: rec.channels.length,
-				durationS: rec.durationS
-			},
-			analysis: { kind: a.kind, modes }
-		};
+		return { ok: true, shape, analysis: { kind: a.kind, modes } };
 	} catch (e) {
 		if (e instanceof RecordingError)
 			return { ok: false, message: e.message, row: e.row, column: e.column };

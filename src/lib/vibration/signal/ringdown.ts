@@ -1374,7 +1374,7 @@ function peakCandidates(
 /**
  * Spectral subtraction, in place: |X|² less twice the mean |B|² of the background record cut in
  * stretches of the hit's length n (windowed as the hit is, up to 16 stretches; a shorter record is
- * used whole and its power scaled to n), floored 60 dB below the bin's own level. Returns the
+ * used whole and its power scaled to n), floored 60 dB below the tallest bin. Returns the
  * stretches averaged.
  */
 function subtractBackground(
@@ -1401,9 +1401,13 @@ function subtractBackground(
 	// record's power scatters about its mean (over-subtraction, common practice in spectral
 	// subtraction)
 	const scale = (2 * n) / len;
-	// floored 60 dB under what was there, not at zero: peak interpolation takes logarithms
+	// floored 60 dB under the tallest bin, not at zero (peak interpolation takes logarithms), and
+	// not under each bin's own level, which would keep a fully subtracted spectrum's shape
+	let tallest = 0;
+	for (let j = 0; j < mag.length; j++) tallest = Math.max(tallest, mag[j]);
+	const floor = 1e-6 * tallest * tallest;
 	for (let j = 0; j < mag.length; j++)
-		mag[j] = Math.sqrt(Math.max(1e-6 * mag[j] * mag[j], mag[j] * mag[j] - scale * power[j]));
+		mag[j] = Math.sqrt(Math.max(floor, mag[j] * mag[j] - scale * power[j]));
 	return count;
 }
 

@@ -2,7 +2,7 @@ import { error, json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
 import { requireUser } from '$lib/server/guard';
 import { readableAsset } from '$lib/server/scope';
-import { ingest, RecordingIdTaken } from '$lib/server/recordings';
+import { ingest, RecordingIdTaken, UnknownBackground } from '$lib/server/recordings';
 import { AnalysisUnavailable } from '$lib/server/analysis/pool';
 import { MAX_RECORDING_BYTES, RecordingError } from '$lib/recordings/types';
 import { recordingUploadQuery } from '$lib/schemas/recording';
@@ -18,7 +18,7 @@ export const POST: RequestHandler = async (event) => {
 	const user = requireUser(event);
 	const query = recordingUploadQuery.safeParse(Object.fromEntries(event.url.searchParams));
 	if (!query.success) error(400, { message: firstProblem(query.error), code: 'bad-query' });
-	const { id, assetId, name, sampleRateHz } = query.data;
+	const { id, assetId, name, sampleRateHz, role, background } = query.data;
 	const declared = declaredLength(event.request);
 	if (declared !== null && declared > MAX_RECORDING_BYTES)
 		error(413, {
@@ -37,13 +37,23 @@ export const POST: RequestHandler = async (event) => {
 	if (bytes.length > MAX_RECORDING_BYTES)
 		error(413, { message: 'Recordings may be at most 50 MB.', code: 'too-large' });
 	try {
-		const r = await ingest({ id, assetId, fileName: name, mediaType: type, bytes, sampleRateHz });
+		const r = await ingest({
+			id,
+			assetId,
+			fileName: name,
+			mediaType: type,
+			bytes,
+			sampleRateHz,
+			role,
+			backgroundId: background
+		});
 		return json(
 			{ id, sha256: r.sha256, created: r.created, modes: r.analysis.modes.length },
 			{ status: r.created ? 201 : 200 }
 		);
 	} catch (e) {
 		if (e instanceof RecordingIdTaken) error(409, { message: e.message, code: 'id-taken' });
+		if (e instanceof UnknownBackground) error(422, { message: e.message, code: 'no-background' });
 		if (e instanceof RecordingError) error(422, { message: e.message, code: 'bad-file' });
 		if (e instanceof AnalysisUnavailable) {
 			if (!e.retry) error(422, { message: e.message, code: 'too-heavy' });
