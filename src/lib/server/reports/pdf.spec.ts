@@ -149,6 +149,10 @@ describe('PDF reports', () => {
 		expect(text).toMatch(
 			/Brace the motor stand and retest (open|scheduled) 2027-03-01 Tomas Ferreira/
 		);
+		expect(text).toContain('Quality flags');
+		expect(text).toMatch(
+			/drive low\/high [\d.]+\/[\d.]+ Hz, centre \+ width [\d.]+ \+ [\d.]+ Hz, start \+ width/
+		);
 		expect(text).toContain('Sign-off');
 		expect(text).toContain('Signature:');
 		pages.forEach((p, i) => expect(p).toContain(`page ${i + 1} of ${pages.length}`));

@@ -7,7 +7,8 @@ import PDFDocument from 'pdfkit';
 import { useInter } from './fonts.ts';
 import { desc, eq } from 'drizzle-orm';
 import { db } from '../db/index.ts';
-import { checks, users } from '../db/schema.ts';
+import { checks, recordings, users } from '../db/schema.ts';
+import type { StoredAnalysis } from '../analysis/task.ts';
 import * as assetQueries from '../db/assets.ts';
 import * as checkQueries from '../db/checks.ts';
 import { computeCheck, type ComputedCheck } from '../../checks/compute.ts';
@@ -348,17 +349,27 @@ function checkSection(doc: PDFKit.PDFDocument, d: NonNullable<ReturnType<typeof 
 	doc.y = vy + 18;
 	doc.font('Body').fontSize(9.5);
 	heading(doc, 'Natural frequencies');
+	// a recorded mode's quality flags, from the server's analysis of its file
+	const flagsOf = (m: (typeof modes)[number]): string => {
+		if (!m.recordingId) return '-';
+		const rec = db.select().from(recordings).where(eq(recordings.id, m.recordingId)).get();
+		const found = (rec?.analysis as unknown as StoredAnalysis | null)?.modes.find(
+			(q) => Math.abs(q.frequencyHz - m.frequencyHz) <= 0.005 * m.frequencyHz
+		);
+		return found?.flags.length ? found.flags.map((f) => f.replace(/-/g, ' ')).join(', ') : 'none';
+	};
 	table(
 		doc,
-		['Frequency', 'Damping ratio', 'Direction', 'Location', 'From'],
+		['Frequency', 'Damping ratio', 'Direction', 'Location', 'From', 'Quality flags'],
 		modes.map((m) => [
 			`${m.frequencyHz.toFixed(2)} Hz`,
 			m.dampingRatio === null ? '-' : m.dampingRatio.toFixed(4),
 			m.direction ?? '-',
 			m.location ?? '-',
-			m.origin
+			m.origin,
+			flagsOf(m)
 		]),
-		[80, 80, 80, 170, 80]
+		[62, 62, 62, 140, 56, 118]
 	);
 	heading(doc, 'Separation margins');
 	const pairs = [...c.result.pairs].sort((a, b) => comparePairs(a, b, 'range'));
@@ -396,10 +407,14 @@ function checkSection(doc: PDFKit.PDFDocument, d: NonNullable<ReturnType<typeof 
 			.fontSize(9.5);
 	heading(doc, 'Avoidance bands');
 	if (c.bands.bands.length === 0) doc.text('No speed in the range is inside a required margin.');
-	for (const b of c.bands.bands)
+	// the drive's entry in the three ways drives take it: low/high, centre + width, start + width
+	for (const b of c.bands.bands) {
+		const lo = b.driveLowHz;
+		const hi = b.driveHighHz;
 		doc.text(
-			`Shaft ${b.lowRpm.toFixed(0)}-${b.highRpm.toFixed(0)} rpm; motor ${b.motorLowRpm.toFixed(0)}-${b.motorHighRpm.toFixed(0)} rpm${b.driveLowHz !== null ? `; drive ${b.driveLowHz.toFixed(1)}-${(b.driveHighHz as number).toFixed(1)} Hz` : ''}`
+			`Shaft ${b.lowRpm.toFixed(0)}-${b.highRpm.toFixed(0)} rpm; motor ${b.motorLowRpm.toFixed(0)}-${b.motorHighRpm.toFixed(0)} rpm${lo !== null && hi !== null ? `; drive low/high ${lo.toFixed(1)}/${hi.toFixed(1)} Hz, centre + width ${((lo + hi) / 2).toFixed(1)} + ${(hi - lo).toFixed(1)} Hz, start + width ${lo.toFixed(1)} + ${(hi - lo).toFixed(1)} Hz` : ''}`
 		);
+	}
 	for (const w of c.bands.warnings) doc.text(w);
 	if (c.bands.bands.length)
 		doc.fontSize(8).fillColor(muted).text(c.bands.slipNote).fillColor(ink).fontSize(9.5);
