@@ -13,6 +13,22 @@ export interface Peak {
  * between the peak and the nearest higher ground on each side). Linear time: nearest higher
  * samples from a monotonic stack, range minima from block minima.
  */
+// work arrays kept between calls: a spectrum's peaks are sought several times per analysis, and
+// allocating three index arrays of its length each time cost more than the search
+let works: { prev: Int32Array; next: Int32Array; stack: Int32Array } | null = null;
+function work(len: number) {
+	if (!works || works.prev.length < len)
+		works = { prev: new Int32Array(len), next: new Int32Array(len), stack: new Int32Array(len) };
+	return works;
+}
+let blocksBuf: Float64Array | null = null;
+function blockWork(count: number): Float64Array {
+	if (!blocksBuf || blocksBuf.length < count) blocksBuf = new Float64Array(count);
+	const b = blocksBuf.subarray(0, count);
+	b.fill(Infinity);
+	return b;
+}
+
 export function findPeaks(
 	mag: ArrayLike<number>,
 	from: number,
@@ -37,8 +53,8 @@ export function findPeaks(
 	if (cands.length === 0) return [];
 	const a0 = lo - 1;
 	const a1 = hi + 1;
-	// a few candidates (the usual spectrum: modes over a quiet floor): walk out from each to higher
-	// ground, keeping the lowest point on the way; only the tallest walks far
+	// a few candidates walk out to higher ground, keeping the lowest point on the way; a walk can run
+	// down a whole train of side lobes, so beyond a budget the stacks below are cheaper
 	if (cands.length <= 64) {
 		return cands.map((k) => {
 			const h = mag[k];
@@ -51,9 +67,7 @@ export function findPeaks(
 	}
 	// nearest strictly higher sample on each side within the searched range (monotonic stacks)
 	const len = a1 - a0;
-	const prev = new Int32Array(len);
-	const next = new Int32Array(len);
-	const stack = new Int32Array(len);
+	const { prev, next, stack } = work(len);
 	let top = 0;
 	for (let i = 0; i < len; i++) {
 		const v = mag[a0 + i];
@@ -69,7 +83,7 @@ export function findPeaks(
 		stack[top++] = i;
 	}
 	const B = 256;
-	const blocks = new Float64Array(Math.ceil(n / B)).fill(Infinity);
+	const blocks = blockWork(Math.ceil(n / B));
 	for (let i = a0; i < a1; i++) if (mag[i] < blocks[(i / B) | 0]) blocks[(i / B) | 0] = mag[i];
 	const rangeMin = (a: number, b: number): number => {
 		// min of mag[a..b], inclusive
