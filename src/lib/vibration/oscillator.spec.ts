@@ -21,7 +21,7 @@ import {
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.max(Math.abs(b), 1e-300);
 
 describe('oscillator from mass, stiffness, damping', () => {
-	it('matches the spring-and-bolt example (domain.md E1, [S] homework Q&A page, reproduced [C])', () => {
+	it('matches the spring-and-bolt check values (domain.md E1, values recomputed from the formulas [C])', () => {
 		const o = oscillator({ mass: 0.0492, stiffness: 857.8, damping: 0.11 });
 		expect(o.naturalFrequencyHz).toBeCloseTo(21.015, 3);
 		expect(1 / o.naturalFrequencyHz).toBeCloseTo(0.0476, 4);
