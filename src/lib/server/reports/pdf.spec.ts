@@ -71,6 +71,9 @@ describe('PDF reports', () => {
 		const text = await textOf((await assetReport(asset.id))!.pdf);
 		expect(text).toContain('LBM-IDF-110');
 		expect(text).toContain('Check history');
+		// the demo asset has a history of checks: its margins drawn as a trend
+		expect(text).toContain('Margin trend');
+		expect(text).toContain('Worst separation margin over the speed range at each check');
 		for (const caution of CAUTIONS) expect(text).toContain(caution);
 	});
 

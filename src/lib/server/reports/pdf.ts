@@ -494,6 +494,70 @@ function signOff(doc: PDFKit.PDFDocument) {
 	}
 }
 
+/**
+ * The worst margin over the speed range at each check, oldest to newest, as a line on round ticks,
+ * each point in its verdict's colour; a check with a mode inside the range counts as 0 %.
+ */
+function marginTrend(
+	doc: PDFKit.PDFDocument,
+	history: { checkedAt: number; worstMarginOverRangePct: number | null; verdict: string }[]
+) {
+	const pts = [...history]
+		.sort((a, b) => a.checkedAt - b.checkedAt)
+		.map((h) => ({ t: h.checkedAt, m: h.worstMarginOverRangePct ?? 0, v: h.verdict }));
+	const X = doc.page.margins.left + 40;
+	const Y = doc.y + 6;
+	const W = 400;
+	const H = 120;
+	const yt = niceTicks(0, Math.max(10, ...pts.map((p) => p.m)) * 1.1);
+	const yMax = yt[yt.length - 1];
+	const t0 = pts[0].t;
+	const t1 = Math.max(pts[pts.length - 1].t, t0 + 1);
+	const sx = (t: number) => X + ((t - t0) / (t1 - t0)) * W;
+	const sy = (m: number) => Y + H - (m / yMax) * H;
+	doc.rect(X, Y, W, H).lineWidth(0.5).stroke(muted);
+	doc.fontSize(7.5).fillColor(muted);
+	for (const f of yt) {
+		doc.text(`${tickText(f)} %`, X - 38, sy(f) - 3, {
+			width: 34,
+			align: 'right',
+			lineBreak: false
+		});
+		doc
+			.moveTo(X, sy(f))
+			.lineTo(X + W, sy(f))
+			.lineWidth(0.3)
+			.stroke('#d6d9d2');
+	}
+	doc.text(when(t0), X - 20, Y + H + 3, { width: 120, lineBreak: false });
+	doc.text(when(t1), X + W - 100, Y + H + 3, { width: 120, align: 'right', lineBreak: false });
+	pts.forEach((p, i) => {
+		if (i > 0)
+			doc
+				.moveTo(sx(pts[i - 1].t), sy(pts[i - 1].m))
+				.lineTo(sx(p.t), sy(p.m))
+				.lineWidth(1.2)
+				.stroke(accent);
+	});
+	for (const p of pts)
+		doc
+			.circle(sx(p.t), sy(p.m), 2.5)
+			.fill(
+				MARK_COLOURS[(p.v as MarkVerdict) in MARK_COLOURS ? (p.v as MarkVerdict) : 'unchecked']
+			);
+	doc.fillColor(ink).fontSize(9.5);
+	doc.x = doc.page.margins.left;
+	doc.y = Y + H + 16;
+	doc
+		.fontSize(8)
+		.fillColor(muted)
+		.text(
+			'Worst separation margin over the speed range at each check (0 % where a mode sits inside it).'
+		)
+		.fillColor(ink)
+		.fontSize(9.5);
+}
+
 /** "Page 2 of 3" at the foot of every page, once all pages exist. */
 function pageNumbers(doc: PDFKit.PDFDocument, title: string) {
 	const range = doc.bufferedPageRange();
@@ -543,6 +607,11 @@ export async function assetReport(assetId: string): Promise<{ pdf: Buffer; tag: 
 		.all();
 	const doc = newReport(`Detune asset ${sheet.asset.tag}`);
 	assetHeader(doc, sheet, 'asset resonance report');
+	if (history.length >= 2) {
+		if (doc.y > doc.page.height - doc.page.margins.bottom - 200) doc.addPage();
+		heading(doc, 'Margin trend');
+		marginTrend(doc, history);
+	}
 	heading(doc, 'Check history');
 	if (history.length === 0) doc.text('No checks yet.');
 	else
