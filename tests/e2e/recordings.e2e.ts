@@ -1,4 +1,4 @@
-import { expect, test } from '@playwright/test';
+import { expect, test, type Page } from '@playwright/test';
 import wavefile from 'wavefile';
 
 const { WaveFile } = wavefile;
@@ -21,6 +21,17 @@ function ringdown(
 			0
 		);
 	});
+}
+
+/** A technician signs in, opens Floor check and picks the asset by its tag. */
+async function openOnFloor(page: Page, tag: string) {
+	await signIn(page, 'technician');
+	await page.goto('/field');
+	await page.getByLabel('Search by tag or name').fill(tag);
+	await page
+		.getByTestId('asset-list')
+		.getByRole('button', { name: new RegExp(tag) })
+		.click();
 }
 
 function wavBuffer(): Buffer {
@@ -49,13 +60,7 @@ function csvBuffer(): Buffer {
 test('a technician loads a WAV and a CSV on Floor check, drops a peak, saves, syncs, and finds the modes and the files on the asset sheet', async ({
 	page
 }) => {
-	await signIn(page, 'technician');
-	await page.goto('/field');
-	await page.getByLabel('Search by tag or name').fill('KRW-RWP-102');
-	await page
-		.getByTestId('asset-list')
-		.getByRole('button', { name: /KRW-RWP-102/ })
-		.click();
+	await openOnFloor(page, 'KRW-RWP-102');
 	await page.getByLabel(/^Measured running speed/).fill('1000');
 	await page.getByRole('tab', { name: 'Bump-test file' }).click();
 
@@ -115,13 +120,7 @@ test('a technician loads a WAV and a CSV on Floor check, drops a peak, saves, sy
 });
 
 test('a bad file gets its own message on Floor check and nothing is added', async ({ page }) => {
-	await signIn(page, 'technician');
-	await page.goto('/field');
-	await page.getByLabel('Search by tag or name').fill('KRW-RWP-104');
-	await page
-		.getByTestId('asset-list')
-		.getByRole('button', { name: /KRW-RWP-104/ })
-		.click();
+	await openOnFloor(page, 'KRW-RWP-104');
 	await page.getByRole('tab', { name: 'Bump-test file' }).click();
 	const bad = Buffer.from('time,accel\n0,0.1\n0.001,abc\n'.padEnd(400, '\n'));
 	await page
@@ -138,13 +137,7 @@ test('a bad file gets its own message on Floor check and nothing is added', asyn
 test('a sample rate typed for one CSV is not applied to the next, which has its own time column', async ({
 	page
 }) => {
-	await signIn(page, 'technician');
-	await page.goto('/field');
-	await page.getByLabel('Search by tag or name').fill('KRW-RWP-104');
-	await page
-		.getByTestId('asset-list')
-		.getByRole('button', { name: /KRW-RWP-104/ })
-		.click();
+	await openOnFloor(page, 'KRW-RWP-104');
 	await page.getByRole('tab', { name: 'Bump-test file' }).click();
 	// a single column of samples needs the rate
 	const x = ringdown(2048, 4, [{ f: 37, zeta: 0.02, a: 1 }]);
@@ -193,13 +186,7 @@ test('a sample rate typed for one CSV is not applied to the next, which has its 
 test('a technician subtracts a background record of the running machine from a bump test', async ({
 	page
 }) => {
-	await signIn(page, 'technician');
-	await page.goto('/field');
-	await page.getByLabel('Search by tag or name').fill('KRW-RWP-104');
-	await page
-		.getByTestId('asset-list')
-		.getByRole('button', { name: /KRW-RWP-104/ })
-		.click();
+	await openOnFloor(page, 'KRW-RWP-104');
 	await page.getByLabel(/^Measured running speed/).fill('1000');
 	await page.getByRole('tab', { name: 'Bump-test file' }).click();
 	// 12 s of the machine running without hits, at the bump test's 2,048 Hz

@@ -87,38 +87,52 @@ const ACTION_WORDS: Record<string, string> = {
 	'reset-password': 'password reset'
 };
 
+/** id → what a query reads for those ids, in one query (none when there are no ids). */
+function lookup<T>(ids: Iterable<string>, read: (ids: string[]) => [string, T][]): Map<string, T> {
+	const list = [...new Set(ids)];
+	return new Map(list.length ? read(list) : []);
+}
+
+/** The values of `keys` in the rows' before and after, flattened (arrays too). */
+function idsUnder(rows: AuditRow[], keys: string[]): string[] {
+	return rows.flatMap((r) =>
+		[r.before, r.after].flatMap((side) =>
+			keys.flatMap((k) => {
+				const v = side?.[k];
+				return Array.isArray(v) ? v.map(String) : v ? [String(v)] : [];
+			})
+		)
+	);
+}
+
+const idsOf = (rows: AuditRow[], entity: string) =>
+	rows.filter((r) => r.entity === entity).map((r) => r.entityId);
+
 /** The asset each row is about (directly, or through its source, check or follow-up). */
 function assetsOf(rows: AuditRow[]): Map<number, string> {
+	const checkAsset = lookup(idsOf(rows, 'check'), (ids) =>
+		db
+			.select({ id: checks.id, assetId: checks.assetId })
+			.from(checks)
+			.where(inArray(checks.id, ids))
+			.all()
+			.map((c) => [c.id, c.assetId])
+	);
+	const fuAsset = lookup(idsOf(rows, 'follow_up'), (ids) =>
+		db
+			.select({ id: followUps.id, assetId: followUps.assetId })
+			.from(followUps)
+			.where(inArray(followUps.id, ids))
+			.all()
+			.map((f) => [f.id, f.assetId])
+	);
 	const byRow = new Map<number, string>();
-	const checkIds = rows.filter((r) => r.entity === 'check').map((r) => r.entityId);
-	const fuIds = rows.filter((r) => r.entity === 'follow_up').map((r) => r.entityId);
-	const checkAsset = new Map(
-		checkIds.length
-			? db
-					.select({ id: checks.id, assetId: checks.assetId })
-					.from(checks)
-					.where(inArray(checks.id, checkIds))
-					.all()
-					.map((c) => [c.id, c.assetId])
-			: []
-	);
-	const fuAsset = new Map(
-		fuIds.length
-			? db
-					.select({ id: followUps.id, assetId: followUps.assetId })
-					.from(followUps)
-					.where(inArray(followUps.id, fuIds))
-					.all()
-					.map((f) => [f.id, f.assetId])
-			: []
-	);
 	for (const r of rows) {
-		const viaJson = (r.before?.asset ?? r.after?.asset) as string | undefined;
 		const id =
 			r.entity === 'asset'
 				? r.entityId
 				: r.entity === 'excitation_source'
-					? viaJson
+					? ((r.before?.asset ?? r.after?.asset) as string | undefined)
 					: r.entity === 'check'
 						? checkAsset.get(r.entityId)
 						: r.entity === 'follow_up'
@@ -131,34 +145,39 @@ function assetsOf(rows: AuditRow[]): Map<number, string> {
 
 export function inWords(rows: AuditRow[]): AuditLine[] {
 	const assetOf = assetsOf(rows);
+	// only the names these rows mention: the asset sheet calls this on every view
 	const names = {
-		asset: new Map(
+		asset: lookup(assetOf.values(), (ids) =>
 			db
 				.select({ id: assets.id, tag: assets.tag, name: assets.name })
 				.from(assets)
+				.where(inArray(assets.id, ids))
 				.all()
 				.map((a) => [a.id, `${a.tag} · ${a.name}`])
 		),
-		user: new Map(
+		user: lookup([...idsOf(rows, 'user'), ...idsUnder(rows, ['assigneeId', 'by'])], (ids) =>
 			db
 				.select({ id: users.id, name: users.name })
 				.from(users)
+				.where(inArray(users.id, ids))
 				.all()
 				.map((u) => [u.id, u.name])
 		),
-		rule: new Map(
+		rule: lookup([...idsOf(rows, 'rule_set'), ...idsUnder(rows, ['ruleSetId'])], (ids) =>
 			db
 				.select({ id: ruleSets.id, name: ruleSets.name })
 				.from(ruleSets)
+				.where(inArray(ruleSets.id, ids))
 				.all()
 				.map((r) => [r.id, r.name])
 		),
-		site: new Map(
+		site: lookup([...idsOf(rows, 'site'), ...idsUnder(rows, ['siteId', 'siteIds'])], (ids) =>
 			db
 				.select({ id: sites.id, name: sites.name })
 				.from(sites)
+				.where(inArray(sites.id, ids))
 				.all()
-				.map((s) => [s.id, s.name])
+				.map((x) => [x.id, x.name])
 		)
 	};
 	const value = (key: string, v: unknown, row: AuditRow, side: 'before' | 'after'): string => {

@@ -202,6 +202,17 @@ export function deleteSource(
 	});
 }
 
+/** A check of this asset, or UnknownCheckError. */
+function checkOfAsset(tx: Tx, assetId: string, checkId: string) {
+	const c = tx
+		.select()
+		.from(checks)
+		.where(and(eq(checks.id, checkId), eq(checks.assetId, assetId)))
+		.get();
+	if (!c) throw new UnknownCheckError();
+	return c;
+}
+
 export function markReviewed(
 	assetId: string,
 	checkId: string,
@@ -211,12 +222,7 @@ export function markReviewed(
 	now = Date.now()
 ): void {
 	db.transaction((tx) => {
-		const c = tx
-			.select()
-			.from(checks)
-			.where(and(eq(checks.id, checkId), eq(checks.assetId, assetId)))
-			.get();
-		if (!c) throw new UnknownCheckError();
+		const c = checkOfAsset(tx, assetId, checkId);
 		if (c.reviewedAt !== null) throw new ReviewError('This check has been reviewed already.', 409);
 		tx.update(checks)
 			.set({ reviewedBy: actorId, reviewedAt: now, reviewComment: comment, reviewOutcome: outcome })
@@ -254,12 +260,7 @@ export function withdrawReview(
 	now = Date.now()
 ): void {
 	db.transaction((tx) => {
-		const c = tx
-			.select()
-			.from(checks)
-			.where(and(eq(checks.id, checkId), eq(checks.assetId, assetId)))
-			.get();
-		if (!c) throw new UnknownCheckError();
+		const c = checkOfAsset(tx, assetId, checkId);
 		if (c.reviewedAt === null) throw new ReviewError('This check has no review to withdraw.', 409);
 		if (now - c.reviewedAt > REVIEW_WITHDRAW_MS)
 			throw new ReviewError(
