@@ -66,3 +66,13 @@ export const dayTimeLocal = (t: number | null | undefined): string =>
 /** A calendar date as stored (YYYY-MM-DD) written as a person reads it: "9 Dec 2026". */
 export const isoDay = (d: string | null | undefined): string =>
 	d ? utcDay.format(Date.parse(`${d}T00:00:00Z`)) : '—';
+
+const weekdayFormat = new Intl.DateTimeFormat('en-GB', {
+	weekday: 'short',
+	day: 'numeric',
+	month: 'short',
+	timeZone: 'UTC'
+});
+
+/** A calendar date as stored (YYYY-MM-DD) with its weekday: "Tue 8 Dec". */
+export const weekdayDay = (d: string): string => weekdayFormat.format(Date.parse(`${d}T00:00:00Z`));

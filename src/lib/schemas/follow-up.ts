@@ -4,15 +4,18 @@ import { z } from 'zod';
 export const FOLLOW_UP_STATUS_LIST = ['open', 'scheduled', 'done', 'retested'] as const;
 export const PRIORITY_LIST = ['low', 'normal', 'high', 'urgent'] as const;
 
-const day = z
-	.string()
-	.trim()
-	.regex(/^\d{4}-\d{2}-\d{2}$/, 'Due date: a date (YYYY-MM-DD).')
-	.refine((d) => {
-		// Date.parse rolls 2026-02-30 over into March: a real day reads back as itself
-		const t = Date.parse(`${d}T00:00:00Z`);
-		return !Number.isNaN(t) && new Date(t).toISOString().slice(0, 10) === d;
-	}, 'Due date: a real calendar day.');
+/** A real calendar day (YYYY-MM-DD); `label` starts the message. */
+const dayOf = (label: string) =>
+	z
+		.string()
+		.trim()
+		.regex(/^\d{4}-\d{2}-\d{2}$/, `${label}: a date (YYYY-MM-DD).`)
+		.refine((d) => {
+			// Date.parse rolls 2026-02-30 over into March: a real day reads back as itself
+			const t = Date.parse(`${d}T00:00:00Z`);
+			return !Number.isNaN(t) && new Date(t).toISOString().slice(0, 10) === d;
+		}, `${label}: a real calendar day.`);
+const day = dayOf('Due date');
 
 /** A ticked checkbox ("on"), or yes. */
 const ticked = z
@@ -73,9 +76,15 @@ export const followUpMove = z
 	})
 	.strict();
 
+/** The week calendar moves one follow-up to another day (drag, or pick and place). */
+export const followUpReschedule = z
+	.object({ id: z.string().min(1).max(64), dueDate: day })
+	.strict();
+
 /**
  * The follow-ups list's address: a status tab, one assignee (planners), overdue only, a follow-up
- * to open (`id`, from the e-mail's link) and the prefill of the create form (`new`, `check`).
+ * to open (`id`, from the e-mail's link), the prefill of the create form (`new`, `check`), and the
+ * view: the list, or the week calendar of the week holding `week`.
  */
 export const followUpListQuery = z
 	.object({
@@ -89,7 +98,9 @@ export const followUpListQuery = z
 		check: z.string().max(64),
 		/** the follow-up just created, shown highlighted with its confirmation */
 		created: z.string().max(64),
-		mailed: z.literal('yes', { error: 'mailed: yes, or leave it out.' })
+		mailed: z.literal('yes', { error: 'mailed: yes, or leave it out.' }),
+		view: z.enum(['list', 'week'], { error: 'view: list or week.' }),
+		week: dayOf('week')
 	})
 	.partial();
 

@@ -4,6 +4,7 @@ import { freshDatabase } from '../test-db.ts';
 import { db } from './index.ts';
 import { assets, followUps, mail, users } from './schema.ts';
 import * as fu from './follow-ups.ts';
+import * as audit from './audit.ts';
 import { push } from '../sync/push.ts';
 import { runReminders } from '../mail/reminders.ts';
 import { startCatcher } from '../mail/index.ts';
@@ -222,5 +223,39 @@ describe('follow-ups', () => {
 		expect(got[0].textBody).toContain('Due: 2026-01-05');
 		expect(got[0].toAddress).toBe('tech@example.com');
 		expect(db.select().from(followUps).where(eq(followUps.id, id)).get()!.status).toBe('scheduled');
+	});
+
+	it('moves to another day on the week calendar, keeping the rest, audited; a done one stays put', () => {
+		const id = fu.create(
+			{
+				assetId,
+				checkId: null,
+				title: 'Fit the tuned absorber',
+				assigneeId: tech.id,
+				dueDate: null,
+				priority: 'urgent',
+				notes: 'Bring the 12 mm shims'
+			},
+			planner
+		);
+		fu.reschedule(id, '2027-03-10', planner);
+		const after = fu.byId(id)!;
+		expect(after).toMatchObject({
+			dueDate: '2027-03-10',
+			status: 'scheduled',
+			assigneeId: tech.id,
+			priority: 'urgent',
+			notes: 'Bring the 12 mm shims'
+		});
+		const trail = audit.forEntity('follow_up', id).filter((e) => e.action === 'update');
+		expect(trail[0]).toMatchObject({
+			userName: 'Dale Okonkwo',
+			before: expect.objectContaining({ dueDate: null }),
+			after: expect.objectContaining({ dueDate: '2027-03-10' })
+		});
+		fu.move(id, 'done', planner);
+		expect(() => fu.reschedule(id, '2027-03-12', planner)).toThrow(/mark it open again/);
+		expect(fu.byId(id)!.dueDate).toBe('2027-03-10');
+		expect(() => fu.reschedule('no-such-id', '2027-03-12', planner)).toThrow(/No such/);
 	});
 });

@@ -124,6 +124,29 @@ export function suggestRemedy(
 	};
 }
 
+/**
+ * Another due date, everything else kept: the week calendar's move. Only work still to do moves;
+ * a done follow-up is reopened first, a retested one is closed for good.
+ */
+export function reschedule(id: string, dueDate: string, actorId: string, now = Date.now()) {
+	const before = byId(id);
+	if (!before) throw new FollowUpError('No such follow-up.', 404);
+	if (before.status === 'done')
+		throw new FollowUpError('This follow-up is done: mark it open again to reschedule it.', 409);
+	update(
+		{
+			id,
+			assigneeId: before.assigneeId,
+			dueDate,
+			priority: before.priority,
+			notes: before.notes
+		},
+		actorId,
+		now
+	);
+	return before;
+}
+
 /** An assignee must be an active user who may read the follow-up's asset (its site). */
 function checkAssignee(tx: Tx, assigneeId: string | null, assetId: string): void {
 	if (!assigneeId) return;

@@ -7,6 +7,7 @@ import * as assetQueries from '$lib/server/db/assets';
 import {
 	followUpCreate,
 	followUpMove,
+	followUpReschedule,
 	followUpUpdate,
 	parseListQuery,
 	pastDueProblem
@@ -17,6 +18,7 @@ import { send } from '$lib/server/mail';
 import { followUpMail } from '$lib/server/mail/messages';
 import { runReminders } from '$lib/server/mail/reminders';
 import { canPlan, PLANNERS } from '$lib/roles';
+import { isoDay } from '$lib/format';
 import { readableAsset, sitesOf } from '$lib/server/scope';
 
 const today = () => new Date().toISOString().slice(0, 10);
@@ -115,6 +117,29 @@ export const actions: Actions = {
 		} catch (e) {
 			if (e instanceof followUps.FollowUpError)
 				return failAction(e.status, 'update', parsed.data.id, { form: e.message });
+			throw e;
+		}
+	},
+	/** the week calendar: one follow-up to another day; the outcome shows above the calendar */
+	reschedule: async (event) => {
+		const actor = requireRole(event, PLANNERS);
+		const raw = formToObject(await event.request.formData());
+		const parsed = followUpReschedule.safeParse(raw);
+		if (!parsed.success)
+			return failAction(400, 'reschedule', 'calendar', fieldErrors(parsed.error));
+		const { id, dueDate } = parsed.data;
+		const past = pastDueProblem(dueDate, today(), false);
+		if (past) return failAction(400, 'reschedule', 'calendar', { dueDate: past });
+		try {
+			const before = followUps.reschedule(id, dueDate, actor.id);
+			return doneAction(
+				'reschedule',
+				'calendar',
+				`${before.tag} “${before.title}” is now due ${isoDay(dueDate)}.`
+			);
+		} catch (e) {
+			if (e instanceof followUps.FollowUpError)
+				return failAction(e.status, 'reschedule', 'calendar', { form: e.message });
 			throw e;
 		}
 	},
