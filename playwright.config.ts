@@ -6,8 +6,8 @@ const ORIGIN = `http://127.0.0.1:${PORT}`;
 
 /**
  * End-to-end tests against the built app (`vite build` first), in Debian's chromium. No browser is
- * ever downloaded: the executable is /usr/bin/chromium. The server starts on a fresh database
- * (migrated and seeded by its own start-up) in .e2e/.
+ * ever downloaded: the executable is /usr/bin/chromium. Each test file gets the app on its own
+ * copy of the demo database, so files do not depend on one another or on their order.
  */
 export default defineConfig({
 	testDir: 'tests/e2e',
@@ -17,23 +17,9 @@ export default defineConfig({
 	fullyParallel: false,
 	workers: 1,
 	reporter: [['list']],
-	webServer: {
-		command: 'rm -rf .e2e && mkdir -p .e2e && node build',
-		url: `${ORIGIN}/api/health`,
-		env: {
-			PORT: String(PORT),
-			HOST: '127.0.0.1',
-			DATABASE_URL: '.e2e/e2e.db',
-			ORIGIN,
-			DATA_DIR: '.e2e/data',
-			SEED_DEMO: 'true',
-			BODY_SIZE_LIMIT: '52M',
-			SMTP_PORT: '2626'
-		},
-		reuseExistingServer: false,
-		timeout: 60_000,
-		stdout: 'pipe'
-	},
+	// the app is started for each test file on a fresh copy of the seeded demo database
+	// (tests/e2e/fixtures.ts); global setup seeds that database once
+	globalSetup: './tests/e2e/global-setup.ts',
 	use: {
 		baseURL: ORIGIN,
 		browserName: 'chromium',

@@ -1,11 +1,7 @@
 import { readdirSync, statSync } from 'node:fs';
 import { join, relative } from 'node:path';
-import {
-	expect,
-	request as playwrightRequest,
-	test,
-	type APIRequestContext
-} from '@playwright/test';
+import { request as playwrightRequest, type APIRequestContext } from '@playwright/test';
+import { expect, test } from './fixtures.ts';
 import { ROUTE_ACCESS, mayAccess, type RouteEntry } from '../../src/lib/access.ts';
 import { ROLES, type Role } from '../../src/lib/roles.ts';
 import { ORIGIN, signInApi } from './helpers.ts';

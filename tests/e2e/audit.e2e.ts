@@ -1,4 +1,4 @@
-import { expect, test } from '@playwright/test';
+import { expect, test } from './fixtures.ts';
 import { signIn } from './helpers.ts';
 
 test('an admin reads the audit log in words, filters it by asset, user and date, and exports it as CSV', async ({

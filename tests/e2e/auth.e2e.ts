@@ -1,4 +1,4 @@
-import { expect, test } from '@playwright/test';
+import { expect, test } from './fixtures.ts';
 import { navFor } from '../../src/lib/access.ts';
 import { ROLES } from '../../src/lib/roles.ts';
 import { demoUser, signIn } from './helpers.ts';

@@ -5,7 +5,7 @@
  * `message`, or on a page a field marked invalid or an alert) — never a 500 — and no table may
  * gain, lose or change a row. Oversized uploads must be refused before their body is read.
  */
-import { expect, test } from '@playwright/test';
+import { expect, test } from './fixtures.ts';
 import fc from 'fast-check';
 import { connect } from 'node:net';
 import {

@@ -1,4 +1,4 @@
-import { expect, test } from '@playwright/test';
+import { expect, test } from './fixtures.ts';
 import { ORIGIN, signIn, signInApi } from './helpers.ts';
 
 test('a supervisor filters the board, sorts, opens an asset, edits a vane count and sees the margins recomputed and the audit entry', async ({

@@ -1,4 +1,4 @@
-import { expect, test } from '@playwright/test';
+import { expect, test } from './fixtures.ts';
 import { openFieldOnline, pickAsset } from './floor.ts';
 
 test('a technician estimates a shaft with discs: one disc at mid-span gives the textbook value both ways, two discs are bracketed, and one becomes a mode', async ({

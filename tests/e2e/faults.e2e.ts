@@ -3,7 +3,7 @@
  * same database: the file is intact, no part of the batch is stored, and the tablet's outbox sends
  * it again — every check arrives exactly once.
  */
-import { expect, test } from '@playwright/test';
+import { expect, test } from './fixtures.ts';
 import { cleanDir, startBuiltServer, withDatabase } from '../support/built-server.ts';
 import { openFieldOnline, outboxCount, saveChecks } from './floor.ts';
 

@@ -3,7 +3,8 @@
  * survive what a plant floor does to them, and a Floor check usable with gloves.
  */
 import AxeBuilder from '@axe-core/playwright';
-import { expect, test, type Page } from '@playwright/test';
+import { type Page } from '@playwright/test';
+import { expect, test } from './fixtures.ts';
 import { demoUser, ORIGIN, signIn, signInApi } from './helpers.ts';
 import { DEMO_PASSWORDS, DEMO_USERS } from '../../src/lib/server/db/demo-data.ts';
 import { openFieldOnline, outboxCount, pickAsset, typeMode, waitReadyOffline } from './floor.ts';

@@ -1,4 +1,4 @@
-import { expect, test } from '@playwright/test';
+import { expect, test } from './fixtures.ts';
 import { ORIGIN, signIn, signInApi } from './helpers.ts';
 
 test('a planner turns a conflict check into a follow-up for a technician; the mail arrives; a clear retest closes it', async ({

@@ -1,4 +1,4 @@
-import { expect, test } from '@playwright/test';
+import { expect, test } from './fixtures.ts';
 import AxeBuilder from '@axe-core/playwright';
 import { demoUser, signIn } from './helpers.ts';
 import {

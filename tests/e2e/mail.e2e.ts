@@ -1,4 +1,4 @@
-import { expect, test } from '@playwright/test';
+import { expect, test } from './fixtures.ts';
 import { signIn } from './helpers.ts';
 
 test('an admin sees how mail is sent and sends a test message, which the local catcher receives', async ({

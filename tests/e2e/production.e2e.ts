@@ -6,7 +6,7 @@
 import { spawnSync } from 'node:child_process';
 import { statSync } from 'node:fs';
 import { join } from 'node:path';
-import { expect, test } from '@playwright/test';
+import { expect, test } from './fixtures.ts';
 import { cleanDir, postSignIn, startBuiltServer, withDatabase } from '../support/built-server.ts';
 
 const PORT = 4188;

@@ -1,5 +1,5 @@
 import { readFileSync } from 'node:fs';
-import { expect, test } from '@playwright/test';
+import { expect, test } from './fixtures.ts';
 import { ORIGIN, signInApi } from './helpers.ts';
 
 // The check report as a reader sees it: every page drawn by PDF.js (pdfjs-dist, an independent

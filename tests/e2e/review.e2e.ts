@@ -1,4 +1,4 @@
-import { expect, test } from '@playwright/test';
+import { expect, test } from './fixtures.ts';
 import { signIn } from './helpers.ts';
 
 test('a supervisor reviews a check: remarks need a comment, a fine review may go without, and a review can be withdrawn the same day', async ({

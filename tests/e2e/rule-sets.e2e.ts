@@ -1,4 +1,4 @@
-import { expect, test } from '@playwright/test';
+import { expect, test } from './fixtures.ts';
 import { signIn } from './helpers.ts';
 
 test('a supervisor edits a demo rule set with one per-kind margin and saves it', async ({

@@ -3,7 +3,7 @@
  * counted by the address the proxy reports (ADDRESS_HEADER, XFF_DEPTH), and wrong passwords make
  * an account wait a little, never lock its holder out; an admin lifts the wait at once.
  */
-import { expect, test } from '@playwright/test';
+import { expect, test } from './fixtures.ts';
 import { startBuiltServer, type BuiltServer } from '../support/built-server.ts';
 import { DEMO_PASSWORDS } from '../../src/lib/server/db/demo-data.ts';
 
