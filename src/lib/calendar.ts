@@ -19,3 +19,15 @@ export function mondayOf(iso: string): string {
 /** The seven days, Monday to Sunday, of the week starting `monday`. */
 export const weekDays = (monday: string): string[] =>
 	Array.from({ length: 7 }, (_, i) => addDays(monday, i));
+
+/** A follow-up as the week calendar shows it. */
+export interface CalendarItem {
+	id: string;
+	assetId: string;
+	tag: string;
+	title: string;
+	status: string;
+	priority: string;
+	dueDate: string | null;
+	assigneeName: string | null;
+}

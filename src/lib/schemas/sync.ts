@@ -2,6 +2,7 @@
  * The sync protocol's payloads, shared by the tablet and the server (documented in DEVELOPERS.md,
  * "Sync API"). A check carries its own UUID, made on the device: the idempotency key.
  */
+import { overallVelocity } from './severity.ts';
 import { z } from 'zod';
 import { DIRECTIONS_LIST, MODE_ORIGINS_LIST } from './shared-enums.ts';
 
@@ -140,6 +141,8 @@ export const checkPush = z
 			),
 		measuredRpm,
 		driveSetpointHz: driveSetpointHz.nullable(),
+		/** overall vibration velocity, mm/s r.m.s., on a bearing housing; absent or null: not measured */
+		overallVelocityMmS: overallVelocity.nullable().optional(),
 		notes: z.string().max(4000, 'notes are at most 4000 characters'),
 		replacesCheckId: uuid.nullable(),
 		modes: z
@@ -164,7 +167,8 @@ export const checkPush = z
 				verdict: z.enum(VERDICT_LIST),
 				verdictAtSpeed: z.enum(VERDICT_LIST),
 				worstMarginAtSpeedPct: z.number().finite().nullable(),
-				worstMarginOverRangePct: z.number().finite().nullable()
+				worstMarginOverRangePct: z.number().finite().nullable(),
+				severityZone: z.enum(['A', 'B', 'C', 'D']).nullable().optional()
 			})
 			.strict()
 	})
@@ -224,6 +228,8 @@ export interface PulledAsset {
 	driveRatio: number;
 	skipBands: number;
 	ruleSetId: string | null;
+	/** the vibration severity machine group; null: no zone */
+	machineGroup: 'group1' | 'group2' | null;
 	sources: PulledSource[];
 	version: number;
 	/** the asset's latest check on the server, for a retest on the floor */
@@ -242,6 +248,15 @@ export interface PulledAsset {
 	} | null;
 	/** follow-ups not yet closed by a clear retest */
 	openFollowUps: { id: string; title: string; status: string; dueDate: string | null }[];
+}
+
+export interface PulledSeverityLimit {
+	machineGroup: 'group1' | 'group2';
+	support: 'rigid' | 'flexible';
+	abMmS: number;
+	bcMmS: number;
+	cdMmS: number;
+	source: string;
 }
 
 export interface PulledRuleSet {
@@ -263,6 +278,8 @@ export interface PullResponse {
 	scope: string;
 	assets: PulledAsset[];
 	ruleSets: PulledRuleSet[];
+	/** every severity limit row (a handful): the tablet zones a typed level with them */
+	severityLimits: PulledSeverityLimit[];
 	/** assets that left the user's scope since the cursor */
 	deleted: { entity: 'asset'; id: string }[];
 	serverTime: number;

@@ -20,6 +20,7 @@ const asset: PulledAsset = {
 	slipPct: null,
 	driveRatio: 1,
 	skipBands: 3,
+	machineGroup: null,
 	ruleSetId: null,
 	version: 1,
 	sources: [

@@ -1,6 +1,7 @@
 import { describe, expect, it, vi } from 'vitest';
 import { createEvent, fireEvent, render, screen, within } from '@testing-library/svelte';
-import WeekCalendar, { type CalendarItem } from './WeekCalendar.svelte';
+import WeekCalendar from './WeekCalendar.svelte';
+import type { CalendarItem } from '$lib/calendar';
 
 const item = (id: string, dueDate: string | null, status = 'scheduled'): CalendarItem => ({
 	id,

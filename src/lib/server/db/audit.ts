@@ -7,7 +7,15 @@ type Tx = Pick<Db, 'insert'>;
 
 export interface AuditEntry {
 	userId: string | null;
-	entity: 'user' | 'asset' | 'excitation_source' | 'rule_set' | 'site' | 'check' | 'follow_up';
+	entity:
+		| 'user'
+		| 'asset'
+		| 'excitation_source'
+		| 'rule_set'
+		| 'site'
+		| 'check'
+		| 'follow_up'
+		| 'severity_limits';
 	entityId: string;
 	action: string;
 	before?: Record<string, unknown> | null;

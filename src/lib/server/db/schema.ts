@@ -109,6 +109,24 @@ export const ruleSets = sqliteTable('rule_sets', {
 import { MACHINE_KINDS_LIST as MACHINE_KINDS } from '../../schemas/shared-enums.ts';
 export { MACHINE_KINDS };
 export const DRIVE_TYPES = ['fixed', 'vfd'] as const;
+import { MACHINE_GROUPS } from '../../rules/severity-limits.ts';
+export { MACHINE_GROUPS };
+export const ZONES = ['A', 'B', 'C', 'D'] as const;
+
+/** Vibration severity zone boundaries per machine group and support, mm/s r.m.s. (editable). */
+export const severityLimits = sqliteTable(
+	'severity_limits',
+	{
+		machineGroup: text('machine_group', { enum: MACHINE_GROUPS }).notNull(),
+		support: text('support', { enum: ['rigid', 'flexible'] }).notNull(),
+		abMmS: real('ab_mm_s').notNull(),
+		bcMmS: real('bc_mm_s').notNull(),
+		cdMmS: real('cd_mm_s').notNull(),
+		source: text('source').notNull(),
+		updatedAt: integer('updated_at').notNull()
+	},
+	(t) => [primaryKey({ columns: [t.machineGroup, t.support] })]
+);
 
 export const assets = sqliteTable(
 	'assets',
@@ -132,6 +150,8 @@ export const assets = sqliteTable(
 		driveRatio: real('drive_ratio').notNull().default(1),
 		skipBands: integer('skip_bands').notNull().default(3),
 		ruleSetId: text('rule_set_id').references(() => ruleSets.id),
+		/** the vibration severity machine group (group1, group2); null: no zone is given */
+		machineGroup: text('machine_group', { enum: MACHINE_GROUPS }),
 		notes: text('notes').notNull().default(''),
 		version: integer('version').notNull().default(0),
 		...timestamps
@@ -205,7 +225,12 @@ export const checks = sqliteTable(
 		reviewedAt: integer('reviewed_at'),
 		reviewComment: text('review_comment'),
 		/** "fine" (comment optional) or "remarks" (a comment says what) */
-		reviewOutcome: text('review_outcome', { enum: ['fine', 'remarks'] })
+		reviewOutcome: text('review_outcome', { enum: ['fine', 'remarks'] }),
+		/** overall vibration velocity, mm/s r.m.s., and the zone the server gave it (null: none) */
+		overallVelocityMmS: real('overall_velocity_mm_s'),
+		severityZone: text('severity_zone', { enum: ZONES }),
+		/** how the zone was reached: support, band and the limits applied */
+		severity: text('severity', { mode: 'json' }).$type<Record<string, unknown>>()
 	},
 	(t) => [
 		index('checks_asset_idx').on(t.assetId, t.checkedAt),
@@ -359,6 +384,10 @@ export const assetStatus = sqliteTable(
 		worstMarginOverRangePct: real('worst_margin_over_range_pct'),
 		worstPair: text('worst_pair'),
 		openFollowUps: integer('open_follow_ups').notNull().default(0),
+		/** the latest check's overall velocity and zone; zone_rank 0 D … 3 A, 4 none (worst first) */
+		overallVelocityMmS: real('overall_velocity_mm_s'),
+		severityZone: text('severity_zone', { enum: ZONES }),
+		zoneRank: integer('zone_rank').notNull().default(4),
 		updatedAt: integer('updated_at').notNull(),
 		// copies of the asset's board columns, so the board filters and sorts one table with indexes
 		siteId: text('site_id').notNull().default(''),
@@ -375,6 +404,8 @@ export const assetStatus = sqliteTable(
 	},
 	(t) => [
 		index('status_worst_idx').on(t.verdictRank, t.worstMarginOverRangePct),
+		// the board's zone order and filter
+		index('status_zone_idx').on(t.zoneRank, t.verdictRank, t.worstMarginOverRangePct),
 		index('status_checked_idx').on(t.checkedAt),
 		index('status_site_worst_idx').on(t.siteId, t.verdictRank, t.worstMarginOverRangePct),
 		index('status_verdict_idx').on(t.verdict, t.staleAfter),

@@ -2,6 +2,7 @@
  * Builds the invented demo scenario. Idempotent: every row has an id derived from its natural key,
  * and inserts skip rows that exist, so running it twice changes nothing.
  */
+import { severityOf, storedSeverity } from './severity.ts';
 import { createHash } from 'node:crypto';
 import { eq, sql } from 'drizzle-orm';
 import type { Db } from './client.ts';
@@ -158,6 +159,7 @@ export async function seed(db: Db, now = Date.now()): Promise<SeedReport> {
 					motorPoles: a.motorPoles,
 					driveRatio: a.driveRatio,
 					ruleSetId: demoId(`rule:${a.ruleSet}`),
+					machineGroup: demoMachineGroup(a),
 					version,
 					createdAt: now,
 					updatedAt: now
@@ -188,6 +190,12 @@ export async function seed(db: Db, now = Date.now()): Promise<SeedReport> {
 	});
 	return report;
 }
+
+/** The demo's machine groups (invented): the large refiners and compressors group 1, the rest group 2. */
+const demoMachineGroup = (a: (typeof DEMO_ASSETS)[number]) =>
+	a.machineKind === 'refiner' || a.machineKind === 'compressor'
+		? ('group1' as const)
+		: ('group2' as const);
 
 type DemoMode = {
 	frequencyHz: number;
@@ -265,6 +273,15 @@ function seedChecks(tx: Parameters<Parameters<Db['transaction']>[0]>[0], now: nu
 			const ms = demoModes(a, index, drift, (list) => computeCheck(assetForCheck, rule, rpm, list));
 			const c = computeCheck(assetForCheck, rule, rpm, ms);
 			const sm = c.summary;
+			// an invented overall level on most checks (none on the oldest), mostly zones A and B
+			const velocity = k === 0 && ages.length > 2 ? null : +(0.8 + 6 * rnd() ** 2).toFixed(1);
+			const severity = severityOf(
+				tx,
+				{ ...a, machineGroup: demoMachineGroup(a) },
+				rpm,
+				ms.map((m) => m.frequencyHz),
+				velocity
+			);
 			tx.insert(checks)
 				.values({
 					id,
@@ -273,6 +290,8 @@ function seedChecks(tx: Parameters<Parameters<Db['transaction']>[0]>[0], now: nu
 					checkedAt,
 					receivedAt: checkedAt + 6 * 3_600_000,
 					measuredRpm: rpm,
+					overallVelocityMmS: velocity,
+					...storedSeverity(severity),
 					notes: k === ages.length - 1 ? 'Machine stopped and locked out for the bump test.' : '',
 					ruleSetId: demoId(`rule:${rs.key}`),
 					ruleSnapshot: { ...c.rule, name: rs.name, source: rs.source, edition: rs.edition },

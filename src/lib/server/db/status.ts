@@ -10,6 +10,7 @@ import { nextVersion } from './versions.ts';
 import { withSourcesAndRule } from './assets.ts';
 import { computeCheck, type CheckSummary } from '../../checks/compute.ts';
 import { VERDICT_RANK } from '../../vibration/index.ts';
+import { zoneRank } from '../../vibration/severity.ts';
 
 export interface StatusRow {
 	latestCheckId: string | null;
@@ -42,6 +43,14 @@ function write(tx: Tx, assetId: string, row: StatusRow, now: number): void {
 		.where(eq(assets.id, assetId))
 		.get();
 	if (!asset) return;
+	// the zone is the latest check's own, as stored with it (rezoned when limits or group change)
+	const severity = row.latestCheckId
+		? tx
+				.select({ v: checks.overallVelocityMmS, zone: checks.severityZone })
+				.from(checks)
+				.where(eq(checks.id, row.latestCheckId))
+				.get()
+		: undefined;
 	const values = {
 		siteId: asset.siteId,
 		areaId: asset.areaId,
@@ -61,6 +70,9 @@ function write(tx: Tx, assetId: string, row: StatusRow, now: number): void {
 		worstMarginOverRangePct: s?.worstMarginOverRangePct ?? null,
 		worstPair: s?.worstPair ?? null,
 		openFollowUps,
+		overallVelocityMmS: severity?.v ?? null,
+		severityZone: severity?.zone ?? null,
+		zoneRank: zoneRank(severity?.zone),
 		updatedAt: now,
 		version: nextVersion(tx)
 	};

@@ -24,6 +24,7 @@ import {
 } from '../db/schema.ts';
 import { currentVersion } from '../db/versions.ts';
 import { visibleSiteIds } from '../db/assets.ts';
+import { allLimits } from '../db/severity.ts';
 import type { PullResponse, PulledAsset } from '../../schemas/sync.ts';
 import type { Role } from '../../roles.ts';
 
@@ -71,6 +72,7 @@ export function pull(
 				driveRatio: assets.driveRatio,
 				skipBands: assets.skipBands,
 				ruleSetId: assets.ruleSetId,
+				machineGroup: assets.machineGroup,
 				version: assets.version,
 				latestCheckId: assetStatus.latestCheckId,
 				checkedAt: assetStatus.checkedAt,
@@ -210,6 +212,7 @@ export function pull(
 				})
 			),
 			ruleSets: rules,
+			severityLimits: allLimits(tx).map(({ updatedAt: _u, ...l }) => l),
 			deleted,
 			serverTime: Date.now()
 		};

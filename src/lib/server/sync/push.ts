@@ -28,6 +28,8 @@ import {
 import type { Role } from '../../roles.ts';
 import type { Db } from '../db/client.ts';
 import { pushProbe } from './probe.ts';
+import { severityOf, storedSeverity } from '../db/severity.ts';
+import type { SeverityOutcome } from '../../checks/severity.ts';
 import { readableAsset, readableCheck } from '../scope.ts';
 
 /** The batch transaction: it can open a savepoint per item. */
@@ -129,7 +131,14 @@ function applyOne(
 	} catch (e) {
 		return rejected(c.id, `The check cannot be computed: ${(e as Error).message}`);
 	}
-	insertCheck(tx, user, c, found, computed, now);
+	const severity = severityOf(
+		tx,
+		found.asset,
+		c.measuredRpm,
+		c.modes.map((m) => m.frequencyHz),
+		c.overallVelocityMmS
+	);
+	insertCheck(tx, user, c, found, computed, severity, now);
 	pushProbe()?.({ item: index + 1, phase: 'after-insert', checkId: c.id });
 	const s = computed.summary;
 	if (s.verdict === 'clear')
@@ -173,6 +182,7 @@ function insertCheck(
 	c: CheckPush,
 	{ asset, ruleSet: rule }: Found,
 	computed: ComputedCheck,
+	severity: SeverityOutcome | null,
 	now: number
 ): void {
 	const s = computed.summary;
@@ -190,6 +200,8 @@ function insertCheck(
 			receivedAt: now,
 			measuredRpm: c.measuredRpm,
 			driveSetpointHz: c.driveSetpointHz,
+			overallVelocityMmS: c.overallVelocityMmS ?? null,
+			...storedSeverity(severity),
 			notes: c.notes,
 			replacesCheckId: c.replacesCheckId,
 			ruleSetId: asset.ruleSetId,
