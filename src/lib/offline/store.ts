@@ -50,6 +50,8 @@ export interface Draft {
 	assetId: string;
 	rpmText: string;
 	setpointText: string;
+	/** the overall vibration level typed (mm/s r.m.s.); absent in drafts of older versions */
+	velocityText?: string;
 	/** the technician confirmed a speed outside the asset's range (for this rpm text) */
 	outsideRangeConfirmedFor: string | null;
 	modes: ModeInput[];
@@ -182,6 +184,7 @@ export class UserStore {
 		for (const a of p.assets) await tx.objectStore('assets').put(a);
 		for (const r of p.ruleSets) await tx.objectStore('ruleSets').put(r);
 		for (const d of p.deleted) await tx.objectStore('assets').delete(d.id);
+		await tx.objectStore('meta').put(p.severityLimits ?? [], 'severityLimits');
 		await tx.objectStore('meta').put(p.cursor, 'cursor');
 		await tx.objectStore('meta').put(p.scope, 'scope');
 		await tx.objectStore('meta').put(Date.now(), 'lastPullAt');

@@ -11,8 +11,11 @@ export const BOARD_SORTS = [
 	'atSpeed',
 	'overRange',
 	'verdict',
+	'zone',
 	'followUps'
 ] as const;
+/** vibration severity zones, and `none` for assets whose latest check has no level */
+export const BOARD_ZONES = ['A', 'B', 'C', 'D', 'CD', 'none'] as const;
 export const BOARD_VERDICTS = ['clear', 'tight', 'conflict', 'unchecked'] as const;
 
 const optional = <T extends z.ZodType>(s: T) =>
@@ -26,6 +29,7 @@ export const boardQuery = z
 			z.enum(BOARD_VERDICTS, { error: `verdict must be one of ${BOARD_VERDICTS.join(', ')}` })
 		),
 		stale: optional(z.enum(['yes', 'no'], { error: 'stale must be yes or no' })),
+		zone: optional(z.enum(BOARD_ZONES, { error: `zone must be one of ${BOARD_ZONES.join(', ')}` })),
 		kind: optional(
 			z.enum(MACHINE_KINDS_LIST, { error: `kind must be one of ${MACHINE_KINDS_LIST.join(', ')}` })
 		),
@@ -77,6 +81,9 @@ export interface BoardRow {
 	worstMarginOverRangePct: number | null;
 	worstPair: string | null;
 	verdict: 'clear' | 'tight' | 'conflict' | 'unchecked';
+	/** the latest check's overall velocity (mm/s r.m.s.) and its zone; null when none was taken */
+	overallVelocityMmS: number | null;
+	severityZone: 'A' | 'B' | 'C' | 'D' | null;
 	stale: boolean;
 	openFollowUps: number;
 }

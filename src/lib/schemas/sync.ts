@@ -110,6 +110,18 @@ export const setpointText = z
 			.nullable()
 	);
 
+/** Floor check's overall vibration field (mm/s r.m.s.): empty means not measured. */
+export const velocityText = z
+	.string()
+	.transform((s) => (s.trim() === '' ? null : typedNumber(s)))
+	.pipe(
+		z
+			.number({ error: 'Overall velocity: a number of mm/s, or leave it empty.' })
+			.refine(Number.isFinite, 'Overall velocity: a number of mm/s, or leave it empty.')
+			.pipe(overallVelocity)
+			.nullable()
+	);
+
 /** The first problem of a failed parse, as one sentence for the screen. */
 /**
  * The first problem as a person reads it beside a form: the message alone (each names its field

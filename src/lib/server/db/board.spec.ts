@@ -27,6 +27,26 @@ describe('the Margin board query', () => {
 		expect([...conflicts].sort((a, b) => a - b)).toEqual(conflicts);
 	});
 
+	it('sorts by vibration zone, worst first, and filters by zone', () => {
+		const r = query(q({ sort: 'zone', size: '100' }), 'all');
+		const order = ['D', 'C', 'B', 'A', null];
+		const ranks = r.rows.map((x) => order.indexOf(x.severityZone));
+		expect([...ranks].sort((a, b) => a - b)).toEqual(ranks);
+		// the demo has levels on most checks and none on some: both ends are there
+		expect(r.rows.some((x) => x.severityZone !== null)).toBe(true);
+		expect(r.rows.at(-1)!.severityZone).toBeNull();
+		const cd = query(q({ zone: 'CD', size: '100' }), 'all').rows;
+		expect(cd.every((x) => x.severityZone === 'C' || x.severityZone === 'D')).toBe(true);
+		const none = query(q({ zone: 'none', size: '100' }), 'all');
+		expect(none.rows.every((x) => x.severityZone === null && x.overallVelocityMmS === null)).toBe(
+			true
+		);
+		const b = query(q({ zone: 'B', size: '100' }), 'all').rows;
+		expect(b.length).toBeGreaterThan(0);
+		expect(b.every((x) => x.severityZone === 'B')).toBe(true);
+		expect(() => q({ zone: 'E' })).toThrow(/zone must be one of/);
+	});
+
 	it('filters by site and verdict, searches tag and name, and pages', () => {
 		const site = demoId('site:KRW');
 		const r = query(q({ site, verdict: 'conflict' }), 'all');

@@ -44,6 +44,9 @@ function conditions(q: BoardQuery, scope: string[] | 'all', withVerdict: boolean
 	if (q.area) c.push(sql`${assetStatus.areaId} = ${p('area')}`);
 	if (q.kind) c.push(sql`${assetStatus.machineKind} = ${p('kind')}`);
 	if (withVerdict && q.verdict) c.push(sql`${assetStatus.verdict} = ${p('verdict')}`);
+	if (q.zone === 'none') c.push(sql`${assetStatus.severityZone} is null`);
+	else if (q.zone === 'CD') c.push(sql`${assetStatus.severityZone} in ('C', 'D')`);
+	else if (q.zone) c.push(sql`${assetStatus.severityZone} = ${p('zone')}`);
 	if (q.stale === 'yes') c.push(sql`${assetStatus.staleAfter} < ${p('now')}`);
 	if (q.stale === 'no')
 		c.push(sql`(${assetStatus.staleAfter} is null or ${assetStatus.staleAfter} >= ${p('now')})`);
@@ -73,6 +76,7 @@ export function values(
 	if (q.area) v.area = q.area;
 	if (q.kind) v.kind = q.kind;
 	if (q.verdict) v.verdict = q.verdict;
+	if (q.zone && q.zone !== 'none' && q.zone !== 'CD') v.zone = q.zone;
 	if (q.q && byTrigrams(q.q)) v.phrase = searchPhrase(q.q);
 	else if (q.q) v.pattern = searchPattern(q.q);
 	return v;
@@ -85,6 +89,7 @@ const shapeOf = (q: BoardQuery, scope: string[] | 'all') =>
 		!!q.area,
 		!!q.kind,
 		q.verdict ? 1 : 0,
+		q.zone === 'none' || q.zone === 'CD' ? q.zone : q.zone ? 1 : 0,
 		q.stale ?? '',
 		q.q ? (byTrigrams(q.q) ? 'trigram' : 'like') : '',
 		q.sort,
@@ -118,6 +123,14 @@ function ordering(q: BoardQuery): SQL[] {
 			];
 		case 'followUps':
 			return [d(assetStatus.openFollowUps), asc(assetStatus.tag)];
+		case 'zone':
+			// worst zone first (D … A), assets without a level last; then worst margin (status_zone_idx)
+			return [
+				q.dir === 'desc' ? desc(assetStatus.zoneRank) : asc(assetStatus.zoneRank),
+				desc(assetStatus.verdictRank),
+				asc(assetStatus.worstMarginOverRangePct),
+				asc(assetStatus.tag)
+			];
 		default:
 			// worst first: verdict, then the smallest margin over the range (every checked asset has
 			// one; unchecked ones rank 0 and come last), then the tag. Matches status_worst_idx.
@@ -146,6 +159,8 @@ function base() {
 			worstMarginOverRangePct: assetStatus.worstMarginOverRangePct,
 			worstPair: assetStatus.worstPair,
 			verdict: assetStatus.verdict,
+			overallVelocityMmS: assetStatus.overallVelocityMmS,
+			severityZone: assetStatus.severityZone,
 			stale: staleExpr(),
 			openFollowUps: assetStatus.openFollowUps
 		})

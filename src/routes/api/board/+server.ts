@@ -28,6 +28,8 @@ const CSV_COLUMNS: [string, (r: BoardRow) => unknown][] = [
 	],
 	['worst_pair', (r) => r.worstPair ?? ''],
 	['verdict', (r) => r.verdict],
+	['overall_velocity_mm_s', (r) => r.overallVelocityMmS ?? ''],
+	['severity_zone', (r) => r.severityZone ?? ''],
 	['stale', (r) => (r.stale ? 'yes' : 'no')],
 	['open_follow_ups', (r) => r.openFollowUps]
 ];
