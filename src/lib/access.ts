@@ -44,6 +44,7 @@ export const ROUTE_ACCESS: Record<string, RouteEntry> = {
 	'/(app)/admin/users': { access: ADMIN },
 	'/(app)/admin/sites': { access: ADMIN },
 	'/(app)/rule-sets': { access: EDITORS },
+	'/(app)/severity-limits': { access: EDITORS },
 	'/(app)/admin/import': { access: ADMIN },
 	'/(app)/admin/import/template.csv': { access: ADMIN },
 	'/(app)/admin/audit': { access: ADMIN },
@@ -88,7 +89,16 @@ export interface NavItem {
 	label: string;
 	routeId: string;
 	icon:
-		'field' | 'board' | 'follow-ups' | 'users' | 'sites' | 'rules' | 'import' | 'audit' | 'mail';
+		| 'field'
+		| 'board'
+		| 'follow-ups'
+		| 'users'
+		| 'sites'
+		| 'rules'
+		| 'severity'
+		| 'import'
+		| 'audit'
+		| 'mail';
 }
 
 export const NAV: readonly NavItem[] = [
@@ -96,6 +106,12 @@ export const NAV: readonly NavItem[] = [
 	{ href: '/board', label: 'Margin board', routeId: '/(app)/board', icon: 'board' },
 	{ href: '/follow-ups', label: 'Follow-ups', routeId: '/(app)/follow-ups', icon: 'follow-ups' },
 	{ href: '/rule-sets', label: 'Rule sets', routeId: '/(app)/rule-sets', icon: 'rules' },
+	{
+		href: '/severity-limits',
+		label: 'Severity limits',
+		routeId: '/(app)/severity-limits',
+		icon: 'severity'
+	},
 	{ href: '/admin/users', label: 'Users', routeId: '/(app)/admin/users', icon: 'users' },
 	{ href: '/admin/sites', label: 'Sites', routeId: '/(app)/admin/sites', icon: 'sites' },
 	{ href: '/admin/import', label: 'Import', routeId: '/(app)/admin/import', icon: 'import' },

@@ -54,5 +54,30 @@ test('a technician types an overall level on Floor check, sees its zone, syncs, 
 	expect(zones.map((z) => order.indexOf(z ?? ''))).toEqual(
 		[...zones.map((z) => order.indexOf(z ?? ''))].sort((a, b) => a - b)
 	);
+
+	// the supervisor adjusts the group 2 flexible limits (after checking them against their copy):
+	// a boundary out of order is refused with the reason; a good one zones the asset again
+	await desk.goto('/severity-limits');
+	await expect(desk.getByRole('note')).toContainText('licensed copy');
+	const flexible = desk.getByTestId('limits-group2-flexible');
+	await flexible.getByLabel('B/C').fill('2.0');
+	await flexible.getByRole('button', { name: 'Save' }).click();
+	await expect(flexible.getByText('The boundaries must rise: A/B < B/C < C/D.')).toBeVisible();
+	await flexible.getByLabel('B/C').fill('5.5');
+	await flexible.getByLabel('Source').fill('Site limits, confirmed against ISO 20816-3:2022');
+	await flexible.getByRole('button', { name: 'Save' }).click();
+	await expect(flexible.getByRole('status')).toContainText('zoned again');
+	await desk.goto('/board?zone=B');
+	await expect(
+		desk.getByTestId('board-row').filter({ hasText: 'KRW-HLP-201' }).getByTestId('board-zone')
+	).toContainText('zone B');
+	// the change is in the audit trail, in words (admin)
+	const admin = await browser.newPage();
+	await signIn(admin, 'admin');
+	await admin.goto('/admin/audit');
+	await expect(admin.getByTestId('audit-entries').or(admin.locator('main'))).toContainText(
+		'Zone B/C boundary (mm/s)'
+	);
+	await admin.close();
 	await desk.close();
 });

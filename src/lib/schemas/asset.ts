@@ -1,5 +1,6 @@
 /** The asset form (supervisors and admins), shared by the sheet and the CSV import. */
 import { z } from 'zod';
+import { MACHINE_GROUPS } from '../rules/severity-limits.ts';
 import { MACHINE_KINDS_LIST } from './shared-enums.ts';
 
 const numberText = (what: string) =>
@@ -67,6 +68,14 @@ export const assetForm = z
 			z.number().int('Skip bands: a whole number.').min(0).max(16, 'Skip bands: at most 16.')
 		),
 		ruleSetId: z.preprocess((v) => (v === '' ? null : v), z.string().max(64).nullable()),
+		/** the vibration severity group; empty: none (no zone); absent: unchanged */
+		machineGroup: z.preprocess(
+			(v) => (v === '' ? null : v),
+			z
+				.enum(MACHINE_GROUPS, { error: 'Machine group: group1 or group2, or leave it empty.' })
+				.nullable()
+				.optional()
+		),
 		notes: z.string().max(2000, 'Notes: at most 2000 characters.').default('')
 	})
 	.strict()

@@ -50,7 +50,11 @@ export const FIELD_LABELS: Record<string, string> = {
 	by: 'Reviewed by',
 	missing: 'Not measured by the retest',
 	code: 'Code',
-	lineFrequencyHz: 'Line frequency (Hz)'
+	lineFrequencyHz: 'Line frequency (Hz)',
+	machineGroup: 'Machine group (severity)',
+	abMmS: 'Zone A/B boundary (mm/s)',
+	bcMmS: 'Zone B/C boundary (mm/s)',
+	cdMmS: 'Zone C/D boundary (mm/s)'
 };
 
 /** Keys that carry context, not a change of their own. */
@@ -224,7 +228,9 @@ export function inWords(rows: AuditRow[]): AuditLine[] {
 						? `site ${names.site.get(r.entityId) ?? ''}`
 						: r.entity === 'user'
 							? `user ${names.user.get(r.entityId) ?? ''}`
-							: r.entity;
+							: r.entity === 'severity_limits'
+								? `severity limits ${r.entityId.replace('/', ', ')} support`
+								: r.entity;
 		const keys = [
 			...new Set([...Object.keys(r.before ?? {}), ...Object.keys(r.after ?? {})])
 		].filter((k) => !CONTEXT.has(k));

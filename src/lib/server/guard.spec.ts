@@ -35,6 +35,7 @@ describe('role guard', () => {
 			'Margin board',
 			'Follow-ups',
 			'Rule sets',
+			'Severity limits',
 			'Users',
 			'Sites',
 			'Import',
@@ -45,7 +46,8 @@ describe('role guard', () => {
 			'Floor check',
 			'Margin board',
 			'Follow-ups',
-			'Rule sets'
+			'Rule sets',
+			'Severity limits'
 		]);
 		expect(homeFor('technician')).toBe('/field');
 	});

@@ -3,6 +3,7 @@
  * sync version (the asset is sent again to the tablets), is audited with before and after, and
  * re-evaluates the asset's board row — all in one transaction.
  */
+import { rezoneAsset } from './severity.ts';
 import { REVIEW_WITHDRAW_MS } from '../../schemas/asset.ts';
 import { and, eq } from 'drizzle-orm';
 import { db } from './index.ts';
@@ -73,7 +74,8 @@ export function updateAsset(
 			},
 			now
 		);
-		refreshAsset(tx, id, now);
+		// a new machine group (or speed range) can change the latest check's zone
+		rezoneAsset(tx, id, now);
 		return true;
 	});
 }

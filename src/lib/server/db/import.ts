@@ -38,13 +38,17 @@ export const IMPORT_COLUMNS = [
 	['bearing_pitch_mm', 'pitch diameter, mm'],
 	['bearing_angle_deg', 'contact angle, °'],
 	['line_hz', 'mains frequency, for 2× line'],
-	['fixed_hz', 'a fixed forcing frequency, Hz']
+	['fixed_hz', 'a fixed forcing frequency, Hz'],
+	[
+		'machine_group',
+		'vibration severity group: group1 (> 300 kW) or group2 (15–300 kW); empty: none'
+	]
 ] as const;
 
 export const TEMPLATE = [
 	IMPORT_COLUMNS.map((c) => c[0]).join(','),
-	'KRW-RWP-105,Raw water pump 5,KRW,Raw Water Intake,pump,vfd,720,1180,1180,6,1.7,1,3,Pump structures 15 %\\, vane pass 20 %,1;2,5,,,,9,25.4,115,0,60,',
-	'LBM-EXF-130,Dryer exhaust fan,LBM,Dryer Section,fan,fixed,1180,1180,1180,6,,1,3,,1;2,,9,,,,,,,60,'
+	'KRW-RWP-105,Raw water pump 5,KRW,Raw Water Intake,pump,vfd,720,1180,1180,6,1.7,1,3,Pump structures 15 %\\, vane pass 20 %,1;2,5,,,,9,25.4,115,0,60,,group2',
+	'LBM-EXF-130,Dryer exhaust fan,LBM,Dryer Section,fan,fixed,1180,1180,1180,6,,1,3,,1;2,,9,,,,,,,60,,group2'
 ]
 	.map((l) =>
 		l.replace('Pump structures 15 %\\, vane pass 20 %', '"Pump structures 15 %, vane pass 20 %"')
@@ -79,7 +83,8 @@ const COLUMN_OF: Record<string, string> = {
 	slipPct: 'slip_pct',
 	driveRatio: 'drive_ratio',
 	skipBands: 'skip_bands',
-	ruleSetId: 'rule_set'
+	ruleSetId: 'rule_set',
+	machineGroup: 'machine_group'
 };
 
 /** The longest header row read: every known column, spaced and quoted, fits several times over. */
@@ -190,6 +195,8 @@ export function validate(text: string): { rows: ValidRow[]; errors: RowError[]; 
 			driveRatio: get('drive_ratio') || '1',
 			skipBands: get('skip_bands') || '3',
 			ruleSetId: ruleSetId ?? '',
+			// a file without the column leaves each asset's group as it is
+			machineGroup: 'machine_group' in raw ? get('machine_group') : undefined,
 			notes: ''
 		});
 		if (!form.success)

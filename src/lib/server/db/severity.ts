@@ -58,15 +58,16 @@ export function rezoneAsset(tx: Tx, assetId: string, now = Date.now()): void {
 		.orderBy(desc(checks.checkedAt), desc(checks.receivedAt))
 		.limit(1)
 		.get();
-	if (!asset || !latest || latest.overallVelocityMmS === null) return;
-	const hz = tx
-		.select({ f: modes.frequencyHz })
-		.from(modes)
-		.where(eq(modes.checkId, latest.id))
-		.all()
-		.map((m) => m.f);
-	const o = severityOf(tx, asset, latest.measuredRpm, hz, latest.overallVelocityMmS);
-	tx.update(checks).set(storedSeverity(o)).where(eq(checks.id, latest.id)).run();
+	if (asset && latest && latest.overallVelocityMmS !== null) {
+		const hz = tx
+			.select({ f: modes.frequencyHz })
+			.from(modes)
+			.where(eq(modes.checkId, latest.id))
+			.all()
+			.map((m) => m.f);
+		const o = severityOf(tx, asset, latest.measuredRpm, hz, latest.overallVelocityMmS);
+		tx.update(checks).set(storedSeverity(o)).where(eq(checks.id, latest.id)).run();
+	}
 	refreshAsset(tx, assetId, now);
 }
 
