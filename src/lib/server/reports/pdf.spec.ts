@@ -156,6 +156,14 @@ describe('PDF reports', () => {
 		expect(text).toMatch(
 			/drive low\/high [\d.]+\/[\d.]+ Hz, centre \+ width [\d.]+ \+ [\d.]+ Hz, start \+ width/
 		);
+		// the demo's latest check carries an invented level: its zone, how it was reached, the caution
+		expect(check.overallVelocityMmS).not.toBeNull();
+		expect(text).toContain('Vibration severity');
+		expect(text).toContain(
+			`Overall velocity ${check.overallVelocityMmS} mm/s r.m.s.: zone ${check.severityZone}`
+		);
+		expect(text).toMatch(/measured over (2|10)-1000 Hz/);
+		expect(text).toContain('confirm them against the licensed standard');
 		expect(text).toContain('Sign-off');
 		expect(text).toContain('Signature:');
 		pages.forEach((p, i) => expect(p).toContain(`page ${i + 1} of ${pages.length}`));

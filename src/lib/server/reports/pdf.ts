@@ -3,6 +3,8 @@
  * margins table, verdict, avoidance bands, the interference diagram drawn as vectors, who and
  * when, who reviewed, and the cautions. Text stays text, so it can be searched and extracted.
  */
+import type { SeverityOutcome } from '../../checks/severity.ts';
+import { ZONE_MEANING } from '../../rules/severity-limits.ts';
 import PDFDocument from 'pdfkit';
 import { useInter } from './fonts.ts';
 import { desc, eq } from 'drizzle-orm';
@@ -321,6 +323,36 @@ function loadCheck(checkId: string) {
 	return { check, sheet, modes, by, reviewer, c };
 }
 
+/** The check's overall vibration level and its zone, with how it was reached and the caution. */
+function severitySection(
+	doc: PDFKit.PDFDocument,
+	check: { overallVelocityMmS: number | null; severityZone: string | null; severity: unknown }
+) {
+	heading(doc, 'Vibration severity');
+	if (check.overallVelocityMmS === null) {
+		doc.text('No overall vibration level was taken with this check.');
+		return;
+	}
+	const o = check.severity as SeverityOutcome | null;
+	if (!o || o.status !== 'zoned') {
+		doc.text(
+			`Overall velocity ${check.overallVelocityMmS} mm/s r.m.s.; no zone: ${o ? o.message : 'not evaluated.'}`
+		);
+		return;
+	}
+	doc.text(
+		`Overall velocity ${check.overallVelocityMmS} mm/s r.m.s.: zone ${o.zone}, ${ZONE_MEANING[o.zone]}. ${o.support === 'rigid' ? 'Rigid' : 'Flexible'} support${o.supportAssumed ? ' (assumed: no natural frequency known)' : ' (from the lowest natural frequency against running speed)'}; boundaries A/B ${o.limits.abMmS}, B/C ${o.limits.bcMmS}, C/D ${o.limits.cdMmS} mm/s; measured over ${o.band.lowHz}-${o.band.highHz} Hz.`
+	);
+	doc
+		.fontSize(8)
+		.fillColor(muted)
+		.text(
+			'Zone boundaries as quoted from ISO 20816-3 Annex A or as set on site: confirm them against the licensed standard and the machine maker’s limits.'
+		)
+		.fillColor(ink)
+		.fontSize(9.5);
+}
+
 function checkSection(doc: PDFKit.PDFDocument, d: NonNullable<ReturnType<typeof loadCheck>>) {
 	const { check, sheet, modes, c } = d;
 	heading(doc, `Check of ${when(check.checkedAt)}`);
@@ -348,6 +380,7 @@ function checkSection(doc: PDFKit.PDFDocument, d: NonNullable<ReturnType<typeof 
 	doc.x = x0;
 	doc.y = vy + 18;
 	doc.font('Body').fontSize(9.5);
+	severitySection(doc, check);
 	heading(doc, 'Natural frequencies');
 	// a recorded mode's quality flags, from the server's analysis of its file
 	const flagsOf = (m: (typeof modes)[number]): string => {
@@ -617,15 +650,18 @@ export async function assetReport(assetId: string): Promise<{ pdf: Buffer; tag: 
 	else
 		table(
 			doc,
-			['When', 'Speed', 'Worst at speed', 'Worst over range', 'Verdict'],
+			['When', 'Speed', 'Worst at speed', 'Worst over range', 'Verdict', 'Vibration'],
 			history.map((h) => [
 				when(h.checkedAt),
 				`${h.measuredRpm ?? '-'} rpm`,
 				pct(h.worstMarginAtSpeedPct),
 				pct(h.worstMarginOverRangePct),
-				{ verdict: h.verdict }
+				{ verdict: h.verdict },
+				h.overallVelocityMmS === null
+					? '-'
+					: `${h.overallVelocityMmS} mm/s${h.severityZone ? `, zone ${h.severityZone}` : ''}`
 			]),
-			[130, 70, 90, 100, 80]
+			[110, 60, 80, 90, 80, 90]
 		);
 	const latest = history[0] ? loadCheck(history[0].id) : null;
 	if (latest) checkSection(doc, latest);

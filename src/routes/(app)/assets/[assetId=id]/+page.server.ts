@@ -1,3 +1,4 @@
+import * as severity from '$lib/server/db/severity';
 import { error } from '@sveltejs/kit';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
 import { requireRole, requireUser } from '$lib/server/guard';
@@ -75,6 +76,11 @@ export const load: PageServerLoad = (event) => {
 		canEdit: canEditAssets(user.role),
 		canPlan: canPlan(user.role),
 		history,
+		// today's boundaries of the asset's group, rigid (the stricter), for the level trend
+		levelLimits:
+			severity
+				.allLimits()
+				.find((l) => l.machineGroup === sheet.asset.machineGroup && l.support === 'rigid') ?? null,
 		current,
 		recordings: recordingQueries.forAsset(sheet.asset.id),
 		ruleSets: rules.list().map((r) => ({ id: r.id, name: r.name })),
