@@ -418,7 +418,9 @@ export function planningQueue(user: { id: string; role: Role }, now = Date.now()
 	if (scope !== 'all' && scope.length === 0) return [];
 	const flagged = or(
 		inArray(assetStatus.verdict, ['conflict', 'tight']),
-		lt(assetStatus.staleAfter, now)
+		lt(assetStatus.staleAfter, now),
+		// a vibration level in zone C or D wants action whatever the margins say
+		inArray(assetStatus.severityZone, ['C', 'D'])
 	);
 	return db
 		.select({
@@ -431,7 +433,9 @@ export function planningQueue(user: { id: string; role: Role }, now = Date.now()
 			checkedAt: assetStatus.checkedAt,
 			worstMarginOverRangePct: assetStatus.worstMarginOverRangePct,
 			worstPair: assetStatus.worstPair,
-			staleAfter: assetStatus.staleAfter
+			staleAfter: assetStatus.staleAfter,
+			severityZone: assetStatus.severityZone,
+			overallVelocityMmS: assetStatus.overallVelocityMmS
 		})
 		.from(assetStatus)
 		.where(
@@ -443,6 +447,7 @@ export function planningQueue(user: { id: string; role: Role }, now = Date.now()
 		)
 		.orderBy(
 			desc(assetStatus.verdictRank),
+			asc(assetStatus.zoneRank),
 			sql`${assetStatus.worstMarginOverRangePct} asc nulls last`,
 			asc(assetStatus.tag)
 		)

@@ -7,6 +7,7 @@ import { allLimits, updateLimits } from './severity.ts';
 import { push } from '../sync/push.ts';
 import { pull } from '../sync/pull.ts';
 import { demoId } from './seed.ts';
+import { planningQueue } from './follow-ups.ts';
 import { DEFAULT_SEVERITY_LIMITS } from '../../rules/severity-limits.ts';
 
 let tech: { id: string; role: 'technician' };
@@ -60,8 +61,8 @@ describe('severity on the server', () => {
 	});
 
 	it('zones a pushed level, keeps how, and puts the zone on the board; the tablet gets the limits', () => {
-		// 1180 r/min = 19.7 Hz; a 30 Hz lowest mode is ≥ 1.25 × that: rigid, group 2 (B/C 2.8, C/D 4.5)
-		const c = checkWith(3.9, 30);
+		// 1180 r/min = 19.7 Hz; a 250 Hz lowest mode (clear of every forcing line) is ≥ 1.25 × that: rigid, group 2 (B/C 2.8, C/D 4.5)
+		const c = checkWith(3.9, 250);
 		const r = push({ ...tech, name: 'Tomas Ferreira' }, [c]).response.results[0];
 		expect(r.status).toBe('applied');
 		const row = db.select().from(checks).where(eq(checks.id, c.id)).get()!;
@@ -69,6 +70,13 @@ describe('severity on the server', () => {
 		expect(row.severity).toMatchObject({ support: 'rigid', band: { lowHz: 10, highHz: 1000 } });
 		const status = db.select().from(assetStatus).where(eq(assetStatus.assetId, assetId())).get()!;
 		expect(status).toMatchObject({ severityZone: 'C', zoneRank: 1, overallVelocityMmS: 3.9 });
+		// clear margins, but zone C: the planner's queue lists it for a follow-up all the same
+		expect(r).toMatchObject({ verdict: 'clear' });
+		const planner = db.select().from(users).where(eq(users.email, 'planner@example.com')).get()!;
+		const queued = planningQueue({ id: planner.id, role: 'planner' }).find(
+			(q) => q.assetId === assetId()
+		);
+		expect(queued).toMatchObject({ verdict: 'clear', severityZone: 'C' });
 		const pulled = pull(tech, 0);
 		expect(pulled.severityLimits).toHaveLength(4);
 		expect(pulled.assets.find((a) => a.id === assetId())!.machineGroup).toBe('group2');
