@@ -210,6 +210,8 @@ test('a technician subtracts a background record of the running machine from a b
 		'the background (running.wav) averaged over 2 stretches and subtracted'
 	);
 	await expect(page.getByTestId('peaks')).toContainText('23.0');
+	// a WAV in raw counts gives no overall level, and says why
+	await expect(page.getByTestId('background-level')).toContainText('not a calibrated acceleration');
 	// saved and synced, the background travels with the check and the server analyses the bump
 	// test with it, as the tablet did
 	await page.getByRole('button', { name: /^Use \d frequenc/ }).click();
@@ -230,4 +232,35 @@ test('a technician subtracts a background record of the running machine from a b
 	);
 	await expect(recordings).toContainText('hit.wav');
 	await expect(recordings).not.toContainText('server analysis differs');
+});
+
+test('a calibrated background record gives the overall level, which the technician takes for the check', async ({
+	page
+}) => {
+	await openOnFloor(page, 'KRW-RWP-104');
+	await page.getByLabel(/^Measured running speed/).fill('1000');
+	await page.getByRole('tab', { name: 'Bump-test file' }).click();
+	// 8 s of the machine running: 0.2 g at 40 Hz, which is 0.2 · 9.80665 / (2π · 40) / √2 m/s =
+	// 5.52 mm/s r.m.s. (v = a / 2πf)
+	const rows = Array.from({ length: 2048 * 8 }, (_, i) => {
+		const t = i / 2048;
+		return `${t.toFixed(6)},${(0.2 * Math.sin(2 * Math.PI * 40 * t)).toFixed(6)}`;
+	});
+	await page.getByLabel(/^Background/).setInputFiles({
+		name: 'running.csv',
+		mimeType: 'text/csv',
+		buffer: Buffer.from(['time,acceleration', 's,g', ...rows].join('\n'))
+	});
+	await page
+		.getByLabel(/CSV or WAV file/)
+		.setInputFiles({ name: 'hit.wav', mimeType: 'audio/wav', buffer: wavBuffer() });
+	const level = page.getByTestId('background-level');
+	await expect(level).toContainText('5.52 mm/s r.m.s.');
+	await expect(level).toContainText('10–1000 Hz, integrated from acceleration');
+	await level.getByRole('button', { name: 'Use 5.52 mm/s as the overall level' }).click();
+	await expect(page.getByLabel(/^Overall vibration/)).toHaveValue('5.52');
+	await expect(page.getByTestId('severity').locator('[data-zone]')).toHaveAttribute(
+		'data-zone',
+		/[A-D]/
+	);
 });

@@ -6,6 +6,7 @@
 import { parseRecordingFile } from './parse.ts';
 import { analyzeRecording, defaultChoice, type AnalysisChoice } from './analyze.ts';
 import { checkSize } from './types.ts';
+import { overallLevel } from './level.ts';
 
 interface Request {
 	file: File;
@@ -13,12 +14,14 @@ interface Request {
 	choice: AnalysisChoice | null;
 	/** a record of the running machine without hits, subtracted from the bump test's spectrum */
 	background?: File | null;
+	/** the measured running speed, for the overall level's band (2 or 10 Hz up to 1000 Hz) */
+	rpm?: number | null;
 }
 
 const post = (m: unknown) => (self as unknown as Worker).postMessage(m);
 
 self.onmessage = async (e: MessageEvent<Request>) => {
-	const { file, sampleRateHz, choice, background } = e.data;
+	const { file, sampleRateHz, choice, background, rpm } = e.data;
 	try {
 		checkSize(file.name, file.size);
 		post({ type: 'progress', stage: 'Reading the file', fraction: 0 });
@@ -52,7 +55,15 @@ self.onmessage = async (e: MessageEvent<Request>) => {
 				}))
 			},
 			choice: pick,
-			analysis
+			analysis,
+			// the running machine's overall vibration, from the background record's response channel
+			level: bg
+				? overallLevel(
+						bg.channels[Math.min(pick.response, bg.channels.length - 1)],
+						bg.sampleRateHz,
+						rpm ?? null
+					)
+				: null
 		});
 	} catch (err) {
 		post({ type: 'error', message: err instanceof Error ? err.message : String(err) });
