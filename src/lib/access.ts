@@ -58,6 +58,10 @@ export const ROUTE_ACCESS: Record<string, RouteEntry> = {
 		access: ALL,
 		sample: '/api/reports/checks/00000000-0000-4000-a000-000000000000'
 	},
+	'/api/reports/checks/[checkId=id]/uff': {
+		access: ALL,
+		sample: '/api/reports/checks/00000000-0000-4000-a000-000000000000/uff'
+	},
 	'/api/reports/assets/[assetId=id]': {
 		access: ALL,
 		sample: '/api/reports/assets/ee690482-2661-40f0-a1ba-59140aa07f60'

@@ -1,4 +1,5 @@
 import { type Page } from '@playwright/test';
+import { readUff } from '../../src/lib/recordings/uff.ts';
 import { expect, test } from './fixtures.ts';
 import wavefile from 'wavefile';
 
@@ -232,6 +233,18 @@ test('a technician subtracts a background record of the running machine from a b
 	);
 	await expect(recordings).toContainText('hit.wav');
 	await expect(recordings).not.toContainText('server analysis differs');
+	// the check's recordings leave as UFF dataset 58: one time record per channel, read back
+	const href = await page.getByTestId('uff-export').first().getAttribute('href');
+	const uff = await page.request.get(href!);
+	expect(uff.headers()['content-disposition']).toContain('.uff');
+	const datasets = readUff(new Uint8Array(await uff.body()));
+	expect(datasets.map((d) => d.idLines[0])).toEqual(
+		expect.arrayContaining([
+			expect.stringContaining('running.wav'),
+			expect.stringContaining('hit.wav')
+		])
+	);
+	expect(datasets.every((d) => Math.round(1 / d.dx) === 2048)).toBe(true);
 });
 
 test('a calibrated background record gives the overall level, which the technician takes for the check', async ({
@@ -256,7 +269,9 @@ test('a calibrated background record gives the overall level, which the technici
 		.setInputFiles({ name: 'hit.wav', mimeType: 'audio/wav', buffer: wavBuffer() });
 	const level = page.getByTestId('background-level');
 	await expect(level).toContainText('5.52 mm/s r.m.s.');
-	await expect(level).toContainText('10–1000 Hz, integrated from acceleration');
+	// at 2,048 samples/s the band is cut below 1,000 Hz, and the screen says so
+	await expect(level).toContainText('10–922 Hz, integrated from acceleration');
+	await expect(level).toContainText('reaches only 922 Hz of the 1000 Hz band');
 	await level.getByRole('button', { name: 'Use 5.52 mm/s as the overall level' }).click();
 	await expect(page.getByLabel(/^Overall vibration/)).toHaveValue('5.52');
 	await expect(page.getByTestId('severity').locator('[data-zone]')).toHaveAttribute(

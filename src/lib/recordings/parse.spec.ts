@@ -187,7 +187,7 @@ describe('one way into a recording', () => {
 		expect(formatOf('hit.txt', '')).toBe('csv');
 		expect(formatOf('export', 'text/csv')).toBe('csv');
 		expect(() => formatOf('photo.png', 'image/png')).toThrow(
-			'photo.png is neither a CSV nor a WAV file.'
+			'photo.png is neither a CSV nor a WAV file (nor a UFF .uff / .unv).'
 		);
 	});
 });

@@ -5,14 +5,17 @@
  */
 import { checkFirstRow, parseCsvBlob, parseCsvText } from './csv.ts';
 import { parseWav } from './wav.ts';
+import { readUff, recordingFromUff } from './uff.ts';
 import { RecordingError, type Recording } from './types.ts';
 
-export type RecordingFormat = 'wav' | 'csv';
+export type RecordingFormat = 'wav' | 'csv' | 'uff';
 
 export function formatOf(fileName: string, mediaType: string): RecordingFormat {
 	if (/\.wav$/i.test(fileName) || /^audio\/(x-)?wav$/i.test(mediaType)) return 'wav';
+	// Universal File Format (dataset 58 / 58b): .uff or .unv by custom
+	if (/\.(uff|unv)$/i.test(fileName)) return 'uff';
 	if (/\.(csv|txt)$/i.test(fileName) || /^text\//i.test(mediaType)) return 'csv';
-	throw new RecordingError(`${fileName} is neither a CSV nor a WAV file.`);
+	throw new RecordingError(`${fileName} is neither a CSV nor a WAV file (nor a UFF .uff / .unv).`);
 }
 
 /** From bytes in memory (the server, at upload). */
@@ -22,7 +25,9 @@ export function parseRecordingBytes(
 	mediaType: string,
 	sampleRateHz: number | null
 ): Recording {
-	if (formatOf(fileName, mediaType) === 'wav') return parseWav(bytes, fileName);
+	const format = formatOf(fileName, mediaType);
+	if (format === 'wav') return parseWav(bytes, fileName);
+	if (format === 'uff') return recordingFromUff(readUff(bytes), fileName, bytes.length);
 	checkFirstRow(bytes);
 	return parseCsvText(new TextDecoder().decode(bytes), fileName, sampleRateHz);
 }
@@ -41,7 +46,11 @@ export async function parseRecordingFile(
 	sampleRateHz: number | null,
 	onProgress: (fraction: number) => void = () => {}
 ): Promise<Recording> {
-	return formatOf(file.name, file.type) === 'wav'
-		? parseWav(new Uint8Array(await file.arrayBuffer()), file.name)
-		: parseCsvBlob(file, sampleRateHz, onProgress);
+	const format = formatOf(file.name, file.type);
+	if (format === 'wav') return parseWav(new Uint8Array(await file.arrayBuffer()), file.name);
+	if (format === 'uff') {
+		const bytes = new Uint8Array(await file.arrayBuffer());
+		return recordingFromUff(readUff(bytes), file.name, bytes.length);
+	}
+	return parseCsvBlob(file, sampleRateHz, onProgress);
 }

@@ -6,7 +6,7 @@ export interface Channel {
 }
 
 export interface Recording {
-	format: 'csv' | 'wav';
+	format: 'csv' | 'wav' | 'uff';
 	fileName: string;
 	sizeBytes: number;
 	sampleRateHz: number;

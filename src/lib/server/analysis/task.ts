@@ -32,7 +32,7 @@ export interface AnalysisTask {
 
 /** What the server keeps of a parsed recording: its shape, never its samples. */
 export interface RecordingShape {
-	format: 'csv' | 'wav';
+	format: 'csv' | 'wav' | 'uff';
 	sampleRateHz: number;
 	channels: number;
 	durationS: number;
