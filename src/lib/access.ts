@@ -35,6 +35,7 @@ export const ROUTE_ACCESS: Record<string, RouteEntry> = {
 	'/(app)/board': { access: FLEET },
 	'/(app)/follow-ups': { access: ALL },
 	'/(app)/follow-ups/export.csv': { access: ALL },
+	'/(app)/follow-ups/export.xlsx': { access: ALL },
 	'/(app)/admin/mailbox': { access: ADMIN },
 	// sample: the demo's KRW-RWP-101 (a Kettle River asset, so the demo technician may read it)
 	'/(app)/assets/[assetId=id]': {

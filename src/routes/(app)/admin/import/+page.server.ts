@@ -4,6 +4,7 @@ import { requireRole, requireUser } from '$lib/server/guard';
 import * as importer from '$lib/server/db/import';
 import { inTurn } from '$lib/server/turns';
 import { declaredLength } from '$lib/server/body';
+import { isZip, sheetToCsv, WorkbookError } from '$lib/server/xlsx';
 
 const MAX = 2 * 1024 * 1024;
 
@@ -38,10 +39,20 @@ async function textOf(
 			return {
 				error: `The file is ${(file.size / 1048576).toFixed(1)} MB; an asset list may be at most 2 MB.`
 			};
-		return { text: await file.text() };
+		const bytes = new Uint8Array(await file.arrayBuffer());
+		// a workbook (.xlsx) is read into the same CSV text, so the same rules apply to both
+		if (/\.xlsx$/i.test(file.name) || isZip(bytes)) {
+			try {
+				return { text: await sheetToCsv(bytes) };
+			} catch (e) {
+				if (e instanceof WorkbookError) return { error: e.message };
+				throw e;
+			}
+		}
+		return { text: new TextDecoder().decode(bytes) };
 	}
 	if (typeof kept === 'string' && kept.length > 0 && kept.length <= MAX) return { text: kept };
-	return { error: 'Choose a CSV file.' };
+	return { error: 'Choose a CSV or .xlsx file.' };
 }
 
 export const actions: Actions = {
