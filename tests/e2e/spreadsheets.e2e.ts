@@ -3,6 +3,7 @@ import ExcelJS from 'exceljs';
 import * as XLSX from '@e965/xlsx';
 import { expect, test } from './fixtures.ts';
 import { signIn } from './helpers.ts';
+import { FOLLOW_UP_COLUMNS } from '../../src/lib/schemas/follow-up.ts';
 
 test('an admin imports assets from an Excel workbook with the CSV checks, and a planner exports follow-ups to Excel', async ({
 	page,
@@ -84,18 +85,7 @@ test('an admin imports assets from an Excel workbook with the CSV checks, and a 
 	const path = await download.path();
 	const book = XLSX.read(readFileSync(path!), { type: 'buffer' });
 	const rows = XLSX.utils.sheet_to_json<string[]>(book.Sheets['Follow-ups'], { header: 1 });
-	expect(rows[0]).toEqual([
-		'tag',
-		'asset',
-		'site',
-		'title',
-		'status',
-		'priority',
-		'due_date',
-		'assignee',
-		'created',
-		'notes'
-	]);
+	expect(rows[0]).toEqual(FOLLOW_UP_COLUMNS);
 	const csv = await (await planner.request.get('/follow-ups/export.csv')).text();
 	expect(rows.length).toBe(csv.trim().split('\r\n').length);
 	await planner.close();

@@ -112,3 +112,17 @@ export const parseListQuery = (params: URLSearchParams) =>
 
 export type FollowUpCreate = z.infer<typeof followUpCreate>;
 export type FollowUpUpdate = z.infer<typeof followUpUpdate>;
+
+/** The columns of the follow-ups export (CSV and Excel), in order. */
+export const FOLLOW_UP_COLUMNS = [
+	'tag',
+	'asset',
+	'site',
+	'title',
+	'status',
+	'priority',
+	'due_date',
+	'assignee',
+	'created',
+	'notes'
+];

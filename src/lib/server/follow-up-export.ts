@@ -1,21 +1,9 @@
 /** The follow-ups list as a table (the page's filters applied), for CSV and Excel alike. */
 import { error, type RequestEvent } from '@sveltejs/kit';
 import { parseListQuery } from '../schemas/follow-up.ts';
+export { FOLLOW_UP_COLUMNS } from '../schemas/follow-up.ts';
 import { requireUser } from './guard.ts';
 import * as followUps from './db/follow-ups.ts';
-
-export const FOLLOW_UP_COLUMNS = [
-	'tag',
-	'asset',
-	'site',
-	'title',
-	'status',
-	'priority',
-	'due_date',
-	'assignee',
-	'created',
-	'notes'
-];
 
 export function followUpTable(event: RequestEvent) {
 	const user = requireUser(event);

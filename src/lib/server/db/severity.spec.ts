@@ -7,6 +7,7 @@ import { allLimits, updateLimits } from './severity.ts';
 import { push } from '../sync/push.ts';
 import { pull } from '../sync/pull.ts';
 import { demoId } from './seed.ts';
+import { checkItem } from '../../../../tests/support/check-item.ts';
 import { planningQueue } from './follow-ups.ts';
 import { DEFAULT_SEVERITY_LIMITS } from '../../rules/severity-limits.ts';
 
@@ -25,29 +26,8 @@ beforeAll(async () => {
 });
 
 const checkWith = (velocity: number | null, modeHz: number) => ({
-	id: crypto.randomUUID(),
-	assetId: assetId(),
-	checkedAt: Date.now(),
-	measuredRpm: 1180,
-	driveSetpointHz: null,
-	overallVelocityMmS: velocity,
-	notes: '',
-	replacesCheckId: null,
-	modes: [
-		{
-			frequencyHz: modeHz,
-			dampingRatio: 0.03,
-			direction: 'horizontal',
-			location: 'Motor top',
-			origin: 'typed'
-		}
-	],
-	device: {
-		verdict: 'clear',
-		verdictAtSpeed: 'clear',
-		worstMarginAtSpeedPct: null,
-		worstMarginOverRangePct: null
-	}
+	...checkItem(assetId(), 1180, { modes: [{ hz: modeHz, zeta: 0.03 }] }),
+	overallVelocityMmS: velocity
 });
 
 describe('severity on the server', () => {

@@ -3,12 +3,12 @@
  * `checkSeverity` the tablet runs), and rezoning the latest checks when limits or an asset's
  * machine group change.
  */
-import { and, desc, eq, isNotNull } from 'drizzle-orm';
+import { and, eq, isNotNull } from 'drizzle-orm';
 import { db } from './index.ts';
 import type { Tx } from './client.ts';
 import { assets, checks, modes, severityLimits } from './schema.ts';
 import * as audit from './audit.ts';
-import { refreshAsset } from './status.ts';
+import { latestCheck, refreshAsset } from './status.ts';
 import {
 	checkSeverity,
 	type AssetForSeverity,
@@ -51,13 +51,7 @@ export const storedSeverity = (o: SeverityOutcome | null) => ({
 /** The latest check of an asset zoned again with today's limits and group; then its board row. */
 export function rezoneAsset(tx: Tx, assetId: string, now = Date.now()): void {
 	const asset = tx.select().from(assets).where(eq(assets.id, assetId)).get();
-	const latest = tx
-		.select()
-		.from(checks)
-		.where(eq(checks.assetId, assetId))
-		.orderBy(desc(checks.checkedAt), desc(checks.receivedAt))
-		.limit(1)
-		.get();
+	const latest = latestCheck(tx, assetId);
 	if (asset && latest && latest.overallVelocityMmS !== null) {
 		const hz = tx
 			.select({ f: modes.frequencyHz })

@@ -82,18 +82,23 @@ function write(tx: Tx, assetId: string, row: StatusRow, now: number): void {
 		.run();
 }
 
-/** Re-evaluates an asset's latest check against its current data and rule set. */
-export function refreshAsset(tx: Tx, assetId: string, now = Date.now()): CheckSummary | null {
-	const found = withSourcesAndRule(tx, assetId);
-	if (!found) return null;
-	const { asset, sources, ruleSet: rule } = found;
-	const latest = tx
+/** An asset's latest check (by when it was taken, then when it arrived), or undefined. */
+export function latestCheck(tx: Pick<Tx, 'select'>, assetId: string) {
+	return tx
 		.select()
 		.from(checks)
 		.where(eq(checks.assetId, assetId))
 		.orderBy(desc(checks.checkedAt), desc(checks.receivedAt))
 		.limit(1)
 		.get();
+}
+
+/** Re-evaluates an asset's latest check against its current data and rule set. */
+export function refreshAsset(tx: Tx, assetId: string, now = Date.now()): CheckSummary | null {
+	const found = withSourcesAndRule(tx, assetId);
+	if (!found) return null;
+	const { asset, sources, ruleSet: rule } = found;
+	const latest = latestCheck(tx, assetId);
 	if (!latest) {
 		write(
 			tx,
