@@ -5,7 +5,7 @@
  */
 import { expect, test } from './fixtures.ts';
 import { cleanDir, startBuiltServer, withDatabase } from '../support/built-server.ts';
-import { openFieldOnline, outboxCount, saveChecks } from './floor.ts';
+import { openFieldOnline, outboxCount, saveChecks, syncAll } from './floor.ts';
 
 const PORT = 4181;
 const DIR = '.e2e/killed';
@@ -73,8 +73,7 @@ test('SIGKILL mid-batch: the database is intact, no half batch is stored, the ta
 		expect(await outboxCount(page)).toBe(3);
 
 		server = await startBuiltServer(PORT, { dir: DIR });
-		await page.getByRole('button', { name: 'Sync now' }).click();
-		await expect.poll(() => outboxCount(page), { timeout: 20_000 }).toBe(0);
+		await syncAll(page);
 		const unique = [...new Set(ids)];
 		expect(unique).toHaveLength(3);
 		const afterRetry = inspect(server.dbFile, unique);
@@ -105,8 +104,7 @@ test('a server fault on the second item: the first is acknowledged and gone, the
 		await context.setOffline(false);
 		await expect.poll(() => outboxCount(page)).toBe(2);
 		await expect(page.getByTestId('sync-state')).toHaveText('Sync failed');
-		await page.getByRole('button', { name: 'Sync now' }).click();
-		await expect.poll(() => outboxCount(page)).toBe(0);
+		await syncAll(page);
 		const stored = inspect(server.dbFile, []);
 		expect(stored.integrity).toBe('ok');
 	} finally {

@@ -1,7 +1,7 @@
 import { chromium, type Page } from '@playwright/test';
 import { expect, test } from './fixtures.ts';
 import { signIn, signInApi, ORIGIN } from './helpers.ts';
-import { openFieldOnline, outboxCount, pickAsset, saveChecks, typeMode } from './floor.ts';
+import { openFieldOnline, outboxCount, pickAsset, saveChecks, typeMode, syncAll } from './floor.ts';
 import { CHROMIUM, CHROMIUM_ARGS } from '../support/chromium.ts';
 
 /** A browser profile on disk, so that a test can close the browser and start it again. */
@@ -101,8 +101,7 @@ test.describe('Floor check offline', () => {
 				sent.push(...(r.postDataJSON() as { items: unknown[] }).items);
 		});
 		await context.setOffline(false);
-		await page.getByRole('button', { name: 'Sync now' }).click();
-		await expect.poll(() => outboxCount(page), { timeout: 20_000 }).toBe(0);
+		await syncAll(page);
 		await context.close();
 		expect(sent).toHaveLength(3);
 
@@ -168,8 +167,7 @@ test.describe('Floor check offline', () => {
 		await context.setOffline(false);
 		await expect(page.getByTestId('sync-state')).toHaveText('Sync failed');
 		await expect.poll(() => outboxCount(page)).toBe(2);
-		await page.getByRole('button', { name: 'Sync now' }).click();
-		await expect.poll(() => outboxCount(page)).toBe(0);
+		await syncAll(page);
 		const api = await browser.newContext({ baseURL: ORIGIN });
 		await signInApi(api.request, 'supervisor');
 		const all = await (await api.request.get('/api/checks/latest')).json();
@@ -203,8 +201,7 @@ test.describe('Floor check offline', () => {
 		await page.waitForLoadState('load');
 		await expect.poll(() => outboxCount(page)).toBe(2);
 		await page.unroute('**/api/sync/push');
-		await page.getByRole('button', { name: 'Sync now' }).click();
-		await expect.poll(() => outboxCount(page)).toBe(0);
+		await syncAll(page);
 	});
 
 	test('a session that expired offline asks for sign-in and loses nothing', async ({

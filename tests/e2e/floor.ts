@@ -59,6 +59,12 @@ export async function outboxCount(page: Page) {
 	return Number(await page.getByTestId('outbox-count').innerText());
 }
 
+/** Sync now, as the technician taps it, and wait until the outbox is empty. */
+export async function syncAll(page: Page) {
+	await page.getByRole('button', { name: 'Sync now' }).click();
+	await expect.poll(() => outboxCount(page), { timeout: 20_000 }).toBe(0);
+}
+
 /** Saves `n` typed checks on the open Floor check page. */
 export async function saveChecks(page: Page, tags: string[]) {
 	for (const tag of tags) {

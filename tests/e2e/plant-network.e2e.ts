@@ -12,7 +12,7 @@ import { join } from 'node:path';
 import { chromium, type Browser } from '@playwright/test';
 import { expect, test } from './fixtures.ts';
 import { startBuiltServer, type BuiltServer } from '../support/built-server.ts';
-import { outboxCount, openFieldOnline, saveChecks } from './floor.ts';
+import { outboxCount, openFieldOnline, saveChecks, syncAll } from './floor.ts';
 import { CHROMIUM, CHROMIUM_ARGS } from '../support/chromium.ts';
 
 const HOST = 'detune.plant.test';
@@ -49,8 +49,7 @@ async function offlineShift(browser: Browser, origin: string, tag: string) {
 	await saveChecks(page, [tag]);
 	await expect.poll(() => outboxCount(page)).toBe(1);
 	await context.setOffline(false);
-	await page.getByRole('button', { name: 'Sync now' }).click();
-	await expect.poll(() => outboxCount(page), { timeout: 20_000 }).toBe(0);
+	await syncAll(page);
 	await context.close();
 }
 

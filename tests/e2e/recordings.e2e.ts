@@ -1,6 +1,7 @@
 import { type Page } from '@playwright/test';
 import { readUff } from '../../src/lib/recordings/uff.ts';
 import { expect, test } from './fixtures.ts';
+import { syncAll } from './floor.ts';
 import wavefile from 'wavefile';
 
 const { WaveFile } = wavefile;
@@ -89,12 +90,7 @@ test('a technician loads a WAV and a CSV on Floor check, drops a peak, saves, sy
 	await expect(page.getByTestId('modes-list')).toContainText(/3[01]\.\d\d Hz/);
 
 	await page.getByRole('button', { name: 'Save check' }).click();
-	await page.getByRole('button', { name: 'Sync now' }).click();
-	await expect
-		.poll(async () => Number(await page.getByTestId('outbox-count').innerText()), {
-			timeout: 20_000
-		})
-		.toBe(0);
+	await syncAll(page);
 
 	const pulled = await (await page.request.get('/api/sync/pull?since=0')).json();
 	const asset = pulled.assets.find((a: { tag: string }) => a.tag === 'KRW-RWP-102');
@@ -217,12 +213,7 @@ test('a technician subtracts a background record of the running machine from a b
 	// test with it, as the tablet did
 	await page.getByRole('button', { name: /^Use \d frequenc/ }).click();
 	await page.getByRole('button', { name: 'Save check' }).click();
-	await page.getByRole('button', { name: 'Sync now' }).click();
-	await expect
-		.poll(async () => Number(await page.getByTestId('outbox-count').innerText()), {
-			timeout: 20_000
-		})
-		.toBe(0);
+	await syncAll(page);
 	const pulled = await (await page.request.get('/api/sync/pull?since=0')).json();
 	const asset = pulled.assets.find((a: { tag: string }) => a.tag === 'KRW-RWP-104');
 	await page.goto(`/assets/${asset.id}`);

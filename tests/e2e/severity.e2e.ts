@@ -1,5 +1,5 @@
 import { expect, test } from './fixtures.ts';
-import { openFieldOnline, outboxCount, pickAsset, typeMode } from './floor.ts';
+import { openFieldOnline, pickAsset, typeMode, syncAll } from './floor.ts';
 import { signIn } from './helpers.ts';
 
 // Zones from the shipped limit set (ISO 20816-3 Annex A as quoted, group 2): rigid 1.4/2.8/4.5,
@@ -35,8 +35,7 @@ test('a technician types an overall level on Floor check, sees its zone, syncs, 
 	);
 	await page.getByRole('button', { name: 'Save check' }).click();
 	await expect(page.getByTestId('saved-message')).toContainText('KRW-HLP-201');
-	await page.getByRole('button', { name: 'Sync now' }).click();
-	await expect.poll(() => outboxCount(page), { timeout: 20_000 }).toBe(0);
+	await syncAll(page);
 
 	const desk = await browser.newPage();
 	await signIn(desk, 'supervisor');

@@ -49,6 +49,11 @@ function toBuffer(doc: PDFKit.PDFDocument): Promise<Buffer> {
 	});
 }
 
+/** A line of small grey text (a legend, a caution, a remark), then back to body text. */
+function smallNote(doc: PDFKit.PDFDocument, text: string) {
+	doc.fontSize(8).fillColor(muted).text(text).fillColor(ink).fontSize(9.5);
+}
+
 function heading(doc: PDFKit.PDFDocument, text: string) {
 	if (doc.y > 720) doc.addPage();
 	doc
@@ -262,14 +267,10 @@ function diagram(
 	doc.fillColor(ink).fontSize(9.5);
 	doc.x = doc.page.margins.left;
 	doc.y = Y + H + 30;
-	doc
-		.fontSize(8)
-		.fillColor(muted)
-		.text(
-			'Lines: excitation orders (solid) and fixed frequencies (dashed). Bands: each natural frequency with its required margin. Grey: the speed range; red: avoidance bands; black: the measured speed.'
-		)
-		.fillColor(ink)
-		.fontSize(9.5);
+	smallNote(
+		doc,
+		'Lines: excitation orders (solid) and fixed frequencies (dashed). Bands: each natural frequency with its required margin. Grey: the speed range; red: avoidance bands; black: the measured speed.'
+	);
 }
 
 function cautions(doc: PDFKit.PDFDocument) {
@@ -277,15 +278,10 @@ function cautions(doc: PDFKit.PDFDocument) {
 	for (const c of CAUTIONS) doc.text(`- ${c}`);
 	const missing = missingGlyphs.get(doc)?.() ?? 0;
 	if (missing > 0)
-		doc
-			.moveDown(0.5)
-			.fontSize(8)
-			.fillColor(muted)
-			.text(
-				`${missing} character${missing === 1 ? ' in names or notes is' : 's in names or notes are'} outside the report's font (Inter: Latin, Greek, Cyrillic) and print as "?"; the screen shows them as typed.`
-			)
-			.fillColor(ink)
-			.fontSize(9.5);
+		smallNote(
+			doc.moveDown(0.5),
+			`${missing} character${missing === 1 ? ' in names or notes is' : 's in names or notes are'} outside the report's font (Inter: Latin, Greek, Cyrillic) and print as "?"; the screen shows them as typed.`
+		);
 }
 
 const missingGlyphs = new WeakMap<PDFKit.PDFDocument, () => number>();
@@ -343,14 +339,10 @@ function severitySection(
 	doc.text(
 		`Overall velocity ${check.overallVelocityMmS} mm/s r.m.s.: zone ${o.zone}, ${ZONE_MEANING[o.zone]}. ${o.support === 'rigid' ? 'Rigid' : 'Flexible'} support${o.supportAssumed ? ' (assumed: no natural frequency known)' : ' (from the lowest natural frequency against running speed)'}; boundaries A/B ${o.limits.abMmS}, B/C ${o.limits.bcMmS}, C/D ${o.limits.cdMmS} mm/s; measured over ${o.band.lowHz}-${o.band.highHz} Hz.`
 	);
-	doc
-		.fontSize(8)
-		.fillColor(muted)
-		.text(
-			'Zone boundaries as quoted from ISO 20816-3 Annex A or as set on site: confirm them against the licensed standard and the machine maker’s limits.'
-		)
-		.fillColor(ink)
-		.fontSize(9.5);
+	smallNote(
+		doc,
+		'Zone boundaries as quoted from ISO 20816-3 Annex A or as set on site: confirm them against the licensed standard and the machine maker’s limits.'
+	);
 }
 
 function checkSection(doc: PDFKit.PDFDocument, d: NonNullable<ReturnType<typeof loadCheck>>) {
@@ -432,12 +424,7 @@ function checkSection(doc: PDFKit.PDFDocument, d: NonNullable<ReturnType<typeof 
 	);
 	// what a bare "clear" would hide (a line sweeping across a mode the rule lets pass)
 	for (const p of pairs.filter((q) => q.remark))
-		doc
-			.fontSize(8)
-			.fillColor(muted)
-			.text(`${p.naturalHz.toFixed(2)} Hz × ${p.label}: ${p.remark}`)
-			.fillColor(ink)
-			.fontSize(9.5);
+		smallNote(doc, `${p.naturalHz.toFixed(2)} Hz × ${p.label}: ${p.remark}`);
 	heading(doc, 'Avoidance bands');
 	if (c.bands.bands.length === 0) doc.text('No speed in the range is inside a required margin.');
 	// the drive's entry in the three ways drives take it: low/high, centre + width, start + width
@@ -449,8 +436,7 @@ function checkSection(doc: PDFKit.PDFDocument, d: NonNullable<ReturnType<typeof 
 		);
 	}
 	for (const w of c.bands.warnings) doc.text(w);
-	if (c.bands.bands.length)
-		doc.fontSize(8).fillColor(muted).text(c.bands.slipNote).fillColor(ink).fontSize(9.5);
+	if (c.bands.bands.length) smallNote(doc, c.bands.slipNote);
 	// the heading goes with its diagram: a new page when both do not fit
 	if (doc.y > doc.page.height - doc.page.margins.bottom - DIAGRAM_HEIGHT - 40) doc.addPage();
 	heading(doc, 'Interference diagram');
@@ -581,14 +567,10 @@ function marginTrend(
 	doc.fillColor(ink).fontSize(9.5);
 	doc.x = doc.page.margins.left;
 	doc.y = Y + H + 16;
-	doc
-		.fontSize(8)
-		.fillColor(muted)
-		.text(
-			'Worst separation margin over the speed range at each check (0 % where a mode sits inside it).'
-		)
-		.fillColor(ink)
-		.fontSize(9.5);
+	smallNote(
+		doc,
+		'Worst separation margin over the speed range at each check (0 % where a mode sits inside it).'
+	);
 }
 
 /** "Page 2 of 3" at the foot of every page, once all pages exist. */
