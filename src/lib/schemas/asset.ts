@@ -79,14 +79,34 @@ export const assetForm = z
 		notes: z.string().max(2000, 'Notes: at most 2000 characters.').default('')
 	})
 	.strict()
+	// checked even when another field of the row is wrong, so one pass names every problem: the
+	// speeds and the drive need only be valid themselves
 	.refine((a) => a.maxRpm >= a.minRpm, {
 		message: 'Maximum speed must be at least the minimum speed.',
-		path: ['maxRpm']
+		path: ['maxRpm'],
+		when: (p) => speedsValid(p.value)
 	})
 	.refine((a) => a.driveType === 'vfd' || a.minRpm === a.maxRpm, {
 		message: 'A fixed-speed machine has one speed: make minimum and maximum equal, or choose vfd.',
-		path: ['maxRpm']
+		path: ['maxRpm'],
+		when: (p) =>
+			speedsValid(p.value) &&
+			(['fixed', 'vfd'] as unknown[]).includes((p.value as Speeds).driveType)
 	});
+
+type Speeds = { minRpm: unknown; maxRpm: unknown; driveType: unknown };
+/** Whether a row's speeds parsed as numbers (the refinements above need them). */
+function speedsValid(v: unknown): boolean {
+	const x = v as Speeds | null;
+	return (
+		typeof x === 'object' &&
+		x !== null &&
+		typeof x.minRpm === 'number' &&
+		Number.isFinite(x.minRpm) &&
+		typeof x.maxRpm === 'number' &&
+		Number.isFinite(x.maxRpm)
+	);
+}
 
 export type AssetForm = z.infer<typeof assetForm>;
 

@@ -40,6 +40,18 @@ describe('asset import', () => {
 		expect(db.select().from(assets).where(eq(assets.tag, 'KRW-RWP-105')).get()).toBeUndefined();
 	});
 
+	it('names a row’s speed problem even when another of its fields is wrong too, in one pass', () => {
+		// before: a wrong machine group hid the reversed speed range until the next round
+		const bad = TEMPLATE.replace(
+			'LBM-EXF-130,Dryer exhaust fan,LBM,Dryer Section,fan,fixed,1180,1180',
+			'LBM-EXF-130,Dryer exhaust fan,LBM,Dryer Section,fan,vfd,1180,900'
+		).replace(/,group2$/, ',group9');
+		const r = validate(bad);
+		expect(r.errors.filter((e) => e.row === 3).map((e) => e.column)).toEqual(
+			expect.arrayContaining(['machine_group', 'max_rpm'])
+		);
+	});
+
 	it('imports all rows, and a second import updates by tag', () => {
 		const first = run(TEMPLATE, null as unknown as string);
 		expect(first).toEqual({ errors: [], added: 2, updated: 0 });
