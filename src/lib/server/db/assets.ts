@@ -1,8 +1,8 @@
 /** Assets and what a user may see of them. */
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { db } from './index.ts';
-import { areas, assets, checks, excitationSources, ruleSets, sites, userSites } from './schema.ts';
-import type { Tx } from './client.ts';
+import { areas, assets, checks, sites, userSites } from './schema.ts';
+import { withSourcesAndRule } from './asset-with-rule.ts';
 import { FLEET_WIDE, type Role } from '../../roles.ts';
 
 /** The site ids a user may read: every site for fleet-wide roles, else their assignments. */
@@ -71,24 +71,7 @@ export function byId(id: string) {
 	return db.select().from(assets).where(eq(assets.id, id)).get();
 }
 
-/**
- * An asset with what its margins need: its excitation sources in their order and its rule set.
- * The one read behind push, the board status and the asset sheet, inside the caller's transaction.
- */
-export function withSourcesAndRule(tx: Pick<Tx, 'select'>, id: string) {
-	const asset = tx.select().from(assets).where(eq(assets.id, id)).get();
-	if (!asset) return null;
-	const sources = tx
-		.select()
-		.from(excitationSources)
-		.where(eq(excitationSources.assetId, id))
-		.orderBy(asc(excitationSources.sortOrder))
-		.all();
-	const ruleSet = asset.ruleSetId
-		? (tx.select().from(ruleSets).where(eq(ruleSets.id, asset.ruleSetId)).get() ?? null)
-		: null;
-	return { asset, sources, ruleSet };
-}
+export { withSourcesAndRule };
 
 /** Everything the asset sheet shows about the asset itself. */
 export function sheet(id: string) {

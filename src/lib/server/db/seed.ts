@@ -2,7 +2,7 @@
  * Builds the invented demo scenario. Idempotent: every row has an id derived from its natural key,
  * and inserts skip rows that exist, so running it twice changes nothing.
  */
-import { severityOf, storedSeverity } from './severity.ts';
+import { severityOf, storedSeverity } from './severity-zone.ts';
 import { createHash } from 'node:crypto';
 import { eq, sql } from 'drizzle-orm';
 import type { Db } from './client.ts';

@@ -9,44 +9,14 @@ import type { Tx } from './client.ts';
 import { assets, checks, modes, severityLimits } from './schema.ts';
 import * as audit from './audit.ts';
 import { latestCheck, refreshAsset } from './status.ts';
-import {
-	checkSeverity,
-	type AssetForSeverity,
-	type SeverityOutcome
-} from '../../checks/severity.ts';
+import { limitsIn, severityOf, storedSeverity, type Read } from './severity-zone.ts';
 import { checkLimits } from '../../vibration/severity.ts';
 import type { SeverityLimitsInput } from '../../schemas/severity.ts';
 
-type Read = Pick<Tx, 'select'>;
-
 /** Every limit row, group 1 first, rigid before flexible. */
-export function allLimits(tx: Read = db) {
-	return tx
-		.select()
-		.from(severityLimits)
-		.all()
-		.sort(
-			(a, b) => a.machineGroup.localeCompare(b.machineGroup) || b.support.localeCompare(a.support)
-		);
-}
+export const allLimits = (tx: Read = db) => limitsIn(tx);
 
-/** The zone of a check, with how it was reached; null when no level was given. */
-export function severityOf(
-	tx: Read,
-	asset: AssetForSeverity,
-	measuredRpm: number | null,
-	naturalHz: readonly number[],
-	velocityMmS: number | null | undefined
-): SeverityOutcome | null {
-	if (velocityMmS === null || velocityMmS === undefined) return null;
-	return checkSeverity(asset, allLimits(tx), measuredRpm, naturalHz, velocityMmS);
-}
-
-/** What a check row stores of an outcome. */
-export const storedSeverity = (o: SeverityOutcome | null) => ({
-	severityZone: o?.status === 'zoned' ? o.zone : null,
-	severity: o as Record<string, unknown> | null
-});
+export { severityOf, storedSeverity };
 
 /** The latest check of an asset zoned again with today's limits and group; then its board row. */
 export function rezoneAsset(tx: Tx, assetId: string, now = Date.now()): void {

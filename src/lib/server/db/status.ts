@@ -7,7 +7,7 @@ import { and, desc, eq, ne, sql } from 'drizzle-orm';
 import type { Tx } from './client.ts';
 import { assetStatus, assets, checks, followUps, modes, sites, users } from './schema.ts';
 import { nextVersion } from './versions.ts';
-import { withSourcesAndRule } from './assets.ts';
+import { withSourcesAndRule } from './asset-with-rule.ts';
 import { computeCheck, type CheckSummary } from '../../checks/compute.ts';
 import { VERDICT_RANK } from '../../vibration/index.ts';
 import { zoneRank } from '../../vibration/severity.ts';
