@@ -34,7 +34,7 @@ export async function buildFleet(file: string, size: FleetSize): Promise<void> {
 		`insert into checks (id, asset_id, user_id, checked_at, received_at, measured_rpm, notes, verdict, verdict_at_speed, worst_margin_at_speed_pct, worst_margin_over_range_pct, result_differs) values (?, ?, ?, ?, ?, ?, '', ?, ?, ?, ?, 0)`
 	);
 	const insStatus = sqlite.prepare(
-		`insert into asset_status (asset_id, latest_check_id, checked_at, checked_by, measured_rpm, verdict, verdict_rank, worst_margin_at_speed_pct, worst_margin_over_range_pct, worst_pair, open_follow_ups, updated_at, site_id, site_name, area_id, machine_kind, tag, name, stale_after) values (?, ?, ?, 'Tomas Ferreira', ?, ?, ?, ?, ?, '24.00 Hz × 1× shaft', 0, ?, ?, ?, null, ?, ?, ?, ?)`
+		`insert into asset_status (asset_id, latest_check_id, checked_at, checked_by, measured_rpm, verdict, verdict_rank, worst_margin_at_speed_pct, worst_margin_over_range_pct, worst_pair, worst_natural_hz, worst_label, open_follow_ups, updated_at, site_id, site_name, area_id, machine_kind, tag, name, stale_after) values (?, ?, ?, 'Tomas Ferreira', ?, ?, ?, ?, ?, '24.00 Hz × 1× shaft', 24, '1× shaft', 0, ?, ?, ?, null, ?, ?, ?, ?)`
 	);
 	const kinds = ['pump', 'fan', 'blower', 'compressor', 'motor'];
 	const verdicts = ['clear', 'tight', 'conflict'] as const;

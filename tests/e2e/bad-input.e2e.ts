@@ -413,6 +413,14 @@ test.describe('bad input is refused with a message and changes nothing', () => {
 			fields: { unitSystem: 'enum' }
 		},
 		{
+			name: 'settings: frequency unit',
+			role: 'technician',
+			path: '/settings',
+			action: 'frequency',
+			base: { frequencyUnit: 'CPM' },
+			fields: { frequencyUnit: 'enum' }
+		},
+		{
 			name: 'site: create',
 			role: 'admin',
 			path: '/admin/sites',

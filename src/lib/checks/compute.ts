@@ -15,6 +15,7 @@ import {
 	type ModeRemedy
 } from '../vibration/index.ts';
 import { toEngineSources, type StoredSource } from '../schemas/excitation.ts';
+import { pairLabel } from '../frequency.ts';
 
 export interface AssetForCheck {
 	minRpm: number;
@@ -53,7 +54,10 @@ export interface CheckSummary {
 	verdictAtSpeed: CheckResult['verdictAtSpeed'];
 	worstMarginAtSpeedPct: number | null;
 	worstMarginOverRangePct: number | null;
+	/** "29.60 Hz × 2× running speed", as stored; screens compose it from the two fields below */
 	worstPair: string | null;
+	worstNaturalHz: number | null;
+	worstLabel: string | null;
 }
 
 export interface ComputedCheck {
@@ -98,7 +102,9 @@ export function computeCheck(
 			verdictAtSpeed: result.verdictAtSpeed,
 			worstMarginAtSpeedPct: result.worstAtSpeed?.marginAtSpeedPct ?? null,
 			worstMarginOverRangePct: w?.marginOverRangePct ?? null,
-			worstPair: w ? `${w.naturalHz.toFixed(2)} Hz × ${w.label}` : null
+			worstPair: w ? pairLabel(w.naturalHz, w.label, 'Hz') : null,
+			worstNaturalHz: w?.naturalHz ?? null,
+			worstLabel: w?.label ?? null
 		}
 	};
 }

@@ -6,6 +6,7 @@
  */
 import { openDB, type DBSchema, type IDBPDatabase } from 'idb';
 import type { Role } from '../roles.ts';
+import type { FrequencyUnit } from '../frequency.ts';
 
 export interface LocalUser {
 	id: string;
@@ -13,6 +14,8 @@ export interface LocalUser {
 	email: string;
 	role: Role;
 	unitSystem: 'metric' | 'us';
+	/** missing on a tablet that remembered its user before the choice existed: read as Hz */
+	frequencyUnit?: FrequencyUnit;
 }
 
 interface DeviceDB extends DBSchema {

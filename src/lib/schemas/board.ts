@@ -79,7 +79,9 @@ export interface BoardRow {
 	measuredRpm: number | null;
 	worstMarginAtSpeedPct: number | null;
 	worstMarginOverRangePct: number | null;
-	worstPair: string | null;
+	/** the worst pair's natural frequency (Hz) and its forcing label; shown in the reader's unit */
+	worstNaturalHz: number | null;
+	worstLabel: string | null;
 	verdict: 'clear' | 'tight' | 'conflict' | 'unchecked';
 	/** the latest check's overall velocity (mm/s r.m.s.) and its zone; null when none was taken */
 	overallVelocityMmS: number | null;

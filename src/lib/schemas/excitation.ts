@@ -4,6 +4,7 @@
  */
 import { z } from 'zod';
 import type { ExcitationSource } from '../vibration/index.ts';
+import type { FrequencyUnit } from '../frequency.ts';
 
 const pos = (what: string) =>
 	z
@@ -98,7 +99,12 @@ const orderList = (v: unknown) => (Array.isArray(v) ? v.map((o) => `${num(o)}×`
  * A source in words, with the same label as the screens: "Vane pass (pump): 5 vanes, up to 3×".
  * For reports and lists; an unreadable stored value prints as "?", never as code.
  */
-export function describeSource(kind: string, label: string, params: unknown): string {
+export function describeSource(
+	kind: string,
+	label: string,
+	params: unknown,
+	frequencyUnit: FrequencyUnit = 'Hz'
+): string {
 	const p = (params ?? {}) as Record<string, unknown>;
 	const name = SOURCE_KIND_LABELS[kind as SourceKind] ?? kind;
 	const harm = typeof p.harmonics === 'number' && p.harmonics > 1 ? `, up to ${p.harmonics}×` : '';
@@ -133,7 +139,10 @@ export function describeSource(kind: string, label: string, params: unknown): st
 			break;
 		}
 		case 'fixed':
-			what = `${num(p.frequencyHz, 6)} Hz`;
+			what =
+				frequencyUnit === 'CPM' && typeof p.frequencyHz === 'number'
+					? `${num(p.frequencyHz * 60, 6)} CPM`
+					: `${num(p.frequencyHz, 6)} Hz`;
 			break;
 		default:
 			what = '';

@@ -4,6 +4,7 @@
  */
 import { sourceParams, type SourceKind } from './excitation.ts';
 import { METRES_PER_INCH, type UnitSystem } from '../vibration/units.ts';
+import type { FrequencyUnit } from '../frequency.ts';
 
 export interface FieldSpec {
 	key: string;
@@ -83,12 +84,22 @@ export const SOURCE_FIELDS: Record<SourceKind, FieldSpec[]> = {
 	fixed: [{ key: 'frequencyHz', label: 'Frequency', unit: 'Hz', type: 'number' }]
 };
 
-/** The fields of a kind in a unit system: lengths in mm (metric) or inches (US customary). */
-export function fieldsFor(kind: SourceKind, units: UnitSystem = 'metric'): FieldSpec[] {
-	if (units === 'metric') return SOURCE_FIELDS[kind];
-	return SOURCE_FIELDS[kind].map((f) =>
-		f.unit === 'mm' ? { ...f, unit: 'in', scale: METRES_PER_INCH } : f
-	);
+/**
+ * The fields of a kind in a unit system: lengths in mm (metric) or inches (US customary); a fixed
+ * forcing frequency in the user's frequency unit (Hz or CPM). The line frequency stays in Hz: it is
+ * the supply's, read off the nameplate.
+ */
+export function fieldsFor(
+	kind: SourceKind,
+	units: UnitSystem = 'metric',
+	frequencyUnit: FrequencyUnit = 'Hz'
+): FieldSpec[] {
+	return SOURCE_FIELDS[kind].map((f) => {
+		if (f.unit === 'mm' && units === 'us') return { ...f, unit: 'in', scale: METRES_PER_INCH };
+		if (kind === 'fixed' && f.key === 'frequencyHz' && frequencyUnit === 'CPM')
+			return { ...f, unit: 'CPM', scale: 1 / 60 };
+		return f;
+	});
 }
 
 const num = (s: string) => Number(s.replace(',', '.').trim());
@@ -100,12 +111,13 @@ const num = (s: string) => Number(s.replace(',', '.').trim());
 export function paramsFromForm(
 	kind: SourceKind,
 	form: Record<string, unknown>,
-	units: UnitSystem = 'metric'
+	units: UnitSystem = 'metric',
+	frequencyUnit: FrequencyUnit = 'Hz'
 ): { ok: true; params: Record<string, unknown> } | { ok: false; errors: Record<string, string> } {
 	const errors: Record<string, string> = {};
 	const params: Record<string, unknown> = {};
 	const drive: Record<string, unknown> = {};
-	const fields = fieldsFor(kind, units);
+	const fields = fieldsFor(kind, units, frequencyUnit);
 	for (const f of fields) {
 		const raw = String(form[`p.${f.key}`] ?? '').trim();
 		if (raw === '') {
@@ -157,10 +169,11 @@ export function paramsFromForm(
 export function formFromParams(
 	kind: SourceKind,
 	params: Record<string, unknown>,
-	units: UnitSystem = 'metric'
+	units: UnitSystem = 'metric',
+	frequencyUnit: FrequencyUnit = 'Hz'
 ): Record<string, string> {
 	const out: Record<string, string> = {};
-	for (const f of fieldsFor(kind, units)) {
+	for (const f of fieldsFor(kind, units, frequencyUnit)) {
 		const v =
 			f.group === 'drive'
 				? (params.drive as Record<string, unknown> | null | undefined)?.[f.key]

@@ -5,6 +5,7 @@
 import { overallVelocity } from './severity.ts';
 import { z } from 'zod';
 import { DIRECTIONS_LIST, MODE_ORIGINS_LIST } from './shared-enums.ts';
+import { FREQUENCY_UNITS, toHz } from '../frequency.ts';
 
 export const MAX_PUSH_ITEMS = 50;
 export const MAX_PUSH_BYTES = 1024 * 1024;
@@ -37,23 +38,28 @@ export const modeInput = z
 
 export type ModeInput = z.infer<typeof modeInput>;
 
-/** Floor check's "type a natural frequency" form, read into a mode with the same limits. */
+/**
+ * Floor check's "type a natural frequency" form, read into a mode with the same limits. The
+ * frequency is typed in the user's unit (Hz or CPM) and kept in Hz.
+ */
 export const modeText = z
 	.object({
 		freq: z.string(),
 		zeta: z.string(),
 		direction: z.string(),
-		location: z.string()
+		location: z.string(),
+		unit: z.enum(FREQUENCY_UNITS).default('Hz')
 	})
 	.transform((f, ctx) => {
-		const frequencyHz = typedNumber(f.freq);
-		if (!Number.isFinite(frequencyHz)) {
+		const typed = typedNumber(f.freq);
+		if (!Number.isFinite(typed)) {
 			ctx.addIssue({
 				code: 'custom',
-				message: 'Natural frequency: enter a number of hertz greater than zero.'
+				message: `Natural frequency: enter a number of ${f.unit === 'CPM' ? 'cycles per minute' : 'hertz'} greater than zero.`
 			});
 			return z.NEVER;
 		}
+		const frequencyHz = toHz(typed, f.unit);
 		const dampingRatio = f.zeta.trim() === '' ? null : typedNumber(f.zeta);
 		if (dampingRatio !== null && !Number.isFinite(dampingRatio)) {
 			ctx.addIssue({

@@ -7,6 +7,7 @@ import { inArray } from 'drizzle-orm';
 import { db } from './db/index.ts';
 import { assets, checks, followUps, ruleSets, sites, users } from './db/schema.ts';
 import { describeSource, SOURCE_KIND_LABELS, type SourceKind } from '../schemas/excitation.ts';
+import type { FrequencyUnit } from '../frequency.ts';
 import { dayTimeUtc } from '../format.ts';
 
 /** Field keys as the forms label them. */
@@ -147,7 +148,8 @@ function assetsOf(rows: AuditRow[]): Map<number, string> {
 	return byRow;
 }
 
-export function inWords(rows: AuditRow[]): AuditLine[] {
+/** The rows in words; a fixed forcing frequency in the reader's unit (Hz unless told). */
+export function inWords(rows: AuditRow[], frequencyUnit: FrequencyUnit = 'Hz'): AuditLine[] {
 	const assetOf = assetsOf(rows);
 	// only the names these rows mention: the asset sheet calls this on every view
 	const names = {
@@ -198,7 +200,7 @@ export function inWords(rows: AuditRow[]): AuditLine[] {
 			const kind = String(
 				row[side]?.kind ?? row.action.replace(/^(add|remove|update) | on asset$/g, '')
 			);
-			return describeSource(kind, '', v).replace(/^[^:]*: /, '');
+			return describeSource(kind, '', v, frequencyUnit).replace(/^[^:]*: /, '');
 		}
 		if (key === 'kind' && row.entity === 'excitation_source')
 			return SOURCE_KIND_LABELS[v as SourceKind] ?? String(v);

@@ -11,7 +11,8 @@ export const load: LayoutServerLoad = (event) => {
 			name: user.name,
 			email: user.email,
 			role: user.role,
-			unitSystem: user.unitSystem
+			unitSystem: user.unitSystem,
+			frequencyUnit: user.frequencyUnit
 		},
 		nav: navFor(user.role)
 	};

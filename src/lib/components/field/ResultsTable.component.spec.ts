@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { fireEvent, render, screen } from '@testing-library/svelte';
 import ResultsTable from './ResultsTable.svelte';
 import { evaluateCheck } from '$lib/vibration';
+import { frequencyUnitContext } from '$lib/components/frequency-context';
 
 // pairs from the engine itself: a fan at 600–1,800 rpm with 1× and 2× shaft and three modes
 const check = (rule: Parameters<typeof evaluateCheck>[0]['rule'], zeta: number | null = null) =>
@@ -24,6 +25,18 @@ describe('ResultsTable (Floor check)', () => {
 		await fireEvent.click(button);
 		expect(screen.getByTestId('pairs-table').querySelectorAll('tbody tr')).toHaveLength(6);
 		expect(screen.getByRole('button', { name: 'Hide the full table' })).toBeTruthy();
+	});
+
+	it('writes every frequency in CPM for a reader who chose CPM (1 Hz = 60 CPM)', () => {
+		render(ResultsTable, {
+			props: { pairs: check({ kind: 'fixed', percent: 10 }) },
+			context: frequencyUnitContext('CPM')
+		});
+		const text = screen.getByTestId('worst-pairs').textContent ?? '';
+		// the 20, 45 and 95 Hz modes: 1200, 2700 and 5700 CPM; 1× at 1200 rpm is 1200 CPM
+		expect(text).toContain('1200 CPM × ');
+		expect(text).toContain('(1200 CPM at speed)');
+		expect(text).not.toMatch(/\d Hz/);
 	});
 
 	it('names a crossed pair the rule lets pass instead of showing a bare clear', () => {

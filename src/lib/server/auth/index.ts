@@ -9,6 +9,7 @@ import { db } from '../db/index.ts';
 import { sessions, users } from '../db/schema.ts';
 import * as userQueries from '../db/users.ts';
 import type { Role } from '../../roles.ts';
+import type { FrequencyUnit } from '../../frequency.ts';
 import { burnVerification, verifyPassword } from './password.ts';
 import { accountThrottle, addressThrottle } from './throttle.ts';
 import { HashedSessionAdapter } from './hashed-adapter.ts';
@@ -42,7 +43,8 @@ export const lucia = new Lucia(
 			name: a.name,
 			role: a.role,
 			disabled: a.disabled,
-			unitSystem: a.unitSystem
+			unitSystem: a.unitSystem,
+			frequencyUnit: a.frequencyUnit
 		})
 	}
 );
@@ -56,6 +58,7 @@ declare module 'lucia' {
 			role: Role;
 			disabled: boolean;
 			unitSystem: 'metric' | 'us';
+			frequencyUnit: FrequencyUnit;
 		};
 	}
 }

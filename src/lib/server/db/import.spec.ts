@@ -16,6 +16,30 @@ describe('asset import', () => {
 		expect(v.rows.map((r) => r.tag)).toEqual(['KRW-RWP-105', 'LBM-EXF-130']);
 	});
 
+	it('takes a fixed forcing frequency in CPM, and refuses it given twice', () => {
+		const [head, first] = TEMPLATE.split('\r\n');
+		const cols = head.split(',');
+		const at = (name: string) => cols.indexOf(name);
+		const cells = first.replace('"Pump structures 15 %, vane pass 20 %"', '').split(',');
+		const row = (hz: string, cpm: string) => {
+			const c = [...cells];
+			c[at('fixed_hz')] = hz;
+			c[at('fixed_cpm')] = cpm;
+			return [head, c.join(',')].join('\r\n');
+		};
+		// 7,200 CPM is 120 Hz (1 Hz = 60 CPM)
+		const v = validate(row('', '7200'));
+		expect(v.errors).toEqual([]);
+		expect(v.rows[0].sources.find((s) => s.kind === 'fixed')?.params).toEqual({ frequencyHz: 120 });
+		expect(validate(row('120', '7200')).errors).toEqual([
+			expect.objectContaining({
+				row: 2,
+				column: 'fixed_cpm',
+				message: 'Give the fixed frequency once: in fixed_hz or in fixed_cpm, not both.'
+			})
+		]);
+	});
+
 	it('names the row and column of a bad value and imports nothing', () => {
 		const bad = TEMPLATE.replace(
 			'LBM-EXF-130,Dryer exhaust fan,LBM,Dryer Section,fan,fixed,1180,1180',

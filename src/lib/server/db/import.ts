@@ -12,6 +12,7 @@ import { refreshAsset } from './status.ts';
 import * as audit from './audit.ts';
 import { assetForm, type AssetForm } from '../../schemas/asset.ts';
 import { sourceParams } from '../../schemas/excitation.ts';
+import { toHz } from '../../frequency.ts';
 
 export const IMPORT_COLUMNS = [
 	['tag', 'unique asset tag (required)'],
@@ -39,6 +40,7 @@ export const IMPORT_COLUMNS = [
 	['bearing_angle_deg', 'contact angle, °'],
 	['line_hz', 'mains frequency, for 2× line'],
 	['fixed_hz', 'a fixed forcing frequency, Hz'],
+	['fixed_cpm', 'or the same in CPM (cycles per minute); give one of the two'],
 	[
 		'machine_group',
 		'vibration severity group: group1 (> 300 kW) or group2 (15–300 kW); empty: none'
@@ -47,8 +49,8 @@ export const IMPORT_COLUMNS = [
 
 export const TEMPLATE = [
 	IMPORT_COLUMNS.map((c) => c[0]).join(','),
-	'KRW-RWP-105,Raw water pump 5,KRW,Raw Water Intake,pump,vfd,720,1180,1180,6,1.7,1,3,Pump structures 15 %\\, vane pass 20 %,1;2,5,,,,9,25.4,115,0,60,,group2',
-	'LBM-EXF-130,Dryer exhaust fan,LBM,Dryer Section,fan,fixed,1180,1180,1180,6,,1,3,,1;2,,9,,,,,,,60,,group2'
+	'KRW-RWP-105,Raw water pump 5,KRW,Raw Water Intake,pump,vfd,720,1180,1180,6,1.7,1,3,Pump structures 15 %\\, vane pass 20 %,1;2,5,,,,9,25.4,115,0,60,,,group2',
+	'LBM-EXF-130,Dryer exhaust fan,LBM,Dryer Section,fan,fixed,1180,1180,1180,6,,1,3,,1;2,,9,,,,,,,60,,,group2'
 ]
 	.map((l) =>
 		l.replace('Pump structures 15 %\\, vane pass 20 %', '"Pump structures 15 %, vane pass 20 %"')
@@ -239,7 +241,11 @@ export function validate(text: string): { rows: ValidRow[]; errors: RowError[]; 
 						? { poles: form.data.motorPoles, motorRpmPerShaftRpm: form.data.driveRatio }
 						: null
 			});
-		if (get('fixed_hz')) add('fixed', 'fixed_hz', { frequencyHz: n('fixed_hz') });
+		if (get('fixed_hz') && get('fixed_cpm'))
+			fail('fixed_cpm', 'Give the fixed frequency once: in fixed_hz or in fixed_cpm, not both.');
+		else if (get('fixed_hz')) add('fixed', 'fixed_hz', { frequencyHz: n('fixed_hz') });
+		else if (get('fixed_cpm'))
+			add('fixed', 'fixed_cpm', { frequencyHz: toHz(n('fixed_cpm') ?? NaN, 'CPM') });
 		if (!ok || !site || !form.success) return;
 		rows.push({
 			row,

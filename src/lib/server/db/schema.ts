@@ -18,6 +18,7 @@ import {
 
 import { sql } from 'drizzle-orm';
 import { ROLES } from '../../roles.ts';
+import { FREQUENCY_UNITS } from '../../frequency.ts';
 export { ROLES, type Role } from '../../roles.ts';
 
 const timestamps = {
@@ -37,6 +38,8 @@ export const users = sqliteTable(
 		unitSystem: text('unit_system', { enum: ['metric', 'us'] })
 			.notNull()
 			.default('metric'),
+		/** how this user reads natural and forcing frequencies; stored values are Hz either way */
+		frequencyUnit: text('frequency_unit', { enum: FREQUENCY_UNITS }).notNull().default('Hz'),
 		...timestamps
 	},
 	(t) => [uniqueIndex('users_email_idx').on(t.email)]
@@ -216,6 +219,9 @@ export const checks = sqliteTable(
 		worstMarginAtSpeedPct: real('worst_margin_at_speed_pct'),
 		worstMarginOverRangePct: real('worst_margin_over_range_pct'),
 		worstPair: text('worst_pair'),
+		/** the worst pair's natural frequency (Hz) and forcing label, so each reader's unit shows it */
+		worstNaturalHz: real('worst_natural_hz'),
+		worstLabel: text('worst_label'),
 		/** the server's result of record (pairs, bands) */
 		result: text('result', { mode: 'json' }).$type<Record<string, unknown>>(),
 		/** what the device showed, kept when it differs from the server's */
@@ -383,6 +389,9 @@ export const assetStatus = sqliteTable(
 		worstMarginAtSpeedPct: real('worst_margin_at_speed_pct'),
 		worstMarginOverRangePct: real('worst_margin_over_range_pct'),
 		worstPair: text('worst_pair'),
+		/** the worst pair's natural frequency (Hz) and forcing label, so each reader's unit shows it */
+		worstNaturalHz: real('worst_natural_hz'),
+		worstLabel: text('worst_label'),
 		openFollowUps: integer('open_follow_ups').notNull().default(0),
 		/** the latest check's overall velocity and zone; zone_rank 0 D … 3 A, 4 none (worst first) */
 		overallVelocityMmS: real('overall_velocity_mm_s'),

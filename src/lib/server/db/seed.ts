@@ -300,6 +300,8 @@ function seedChecks(tx: Parameters<Parameters<Db['transaction']>[0]>[0], now: nu
 					worstMarginAtSpeedPct: sm.worstMarginAtSpeedPct,
 					worstMarginOverRangePct: sm.worstMarginOverRangePct,
 					worstPair: sm.worstPair,
+					worstNaturalHz: sm.worstNaturalHz,
+					worstLabel: sm.worstLabel,
 					result: {
 						pairs: c.result.pairs,
 						envelope: c.result.envelope,

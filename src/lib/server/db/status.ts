@@ -69,6 +69,8 @@ function write(tx: Tx, assetId: string, row: StatusRow, now: number): void {
 		worstMarginAtSpeedPct: s?.worstMarginAtSpeedPct ?? null,
 		worstMarginOverRangePct: s?.worstMarginOverRangePct ?? null,
 		worstPair: s?.worstPair ?? null,
+		worstNaturalHz: s?.worstNaturalHz ?? null,
+		worstLabel: s?.worstLabel ?? null,
 		openFollowUps,
 		overallVelocityMmS: severity?.v ?? null,
 		severityZone: severity?.zone ?? null,

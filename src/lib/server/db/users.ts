@@ -4,6 +4,7 @@ import { db } from './index.ts';
 import { sites, userSites, users, type User } from './schema.ts';
 import * as audit from './audit.ts';
 import type { Role } from '../../roles.ts';
+import type { FrequencyUnit } from '../../frequency.ts';
 import type { Tx } from './client.ts';
 
 export class LastAdminError extends Error {
@@ -54,6 +55,7 @@ const publicColumns = {
 	role: users.role,
 	disabled: users.disabled,
 	unitSystem: users.unitSystem,
+	frequencyUnit: users.frequencyUnit,
 	createdAt: users.createdAt,
 	updatedAt: users.updatedAt
 };
@@ -226,6 +228,12 @@ export function setDisabled(
 /** A user's own choice of units (metric or US customary). */
 export function setUnitSystem(id: string, unitSystem: 'metric' | 'us', now = Date.now()): void {
 	const r = db.update(users).set({ unitSystem, updatedAt: now }).where(eq(users.id, id)).run();
+	if (r.changes === 0) throw new UnknownUserError();
+}
+
+/** A user's own choice of frequency unit (Hz or CPM); stored frequencies stay in Hz. */
+export function setFrequencyUnit(id: string, frequencyUnit: FrequencyUnit, now = Date.now()): void {
+	const r = db.update(users).set({ frequencyUnit, updatedAt: now }).where(eq(users.id, id)).run();
 	if (r.changes === 0) throw new UnknownUserError();
 }
 

@@ -66,6 +66,25 @@ describe('PDF reports', () => {
 		for (const caution of CAUTIONS) expect(text).toContain(caution);
 	});
 
+	it('writes natural and forcing frequencies in CPM for a reader who chose CPM', async () => {
+		// 1 Hz = 60 CPM by definition; the same check, read by a user of each unit
+		const asset = db.select().from(assets).where(eq(assets.tag, 'KRW-RWP-103')).get()!;
+		const check = latestCheck(asset.id);
+		const inCpm = await textOf((await checkReport(check.id, 'CPM'))!.pdf);
+		const inHz = await textOf((await checkReport(check.id, 'Hz'))!.pdf);
+		expect(inCpm).toContain('Frequencies in CPM, cycles per minute (1 Hz = 60 CPM)');
+		expect(inHz).toContain('Frequencies in Hz');
+		const ms = checkQueries.modesOf(check.id);
+		expect(ms.length).toBeGreaterThan(0);
+		for (const m of ms) {
+			expect(inCpm).toContain(`${(m.frequencyHz * 60).toFixed(0)} CPM`);
+			expect(inCpm).not.toContain(`${m.frequencyHz.toFixed(2)} Hz`);
+			expect(inHz).toContain(`${m.frequencyHz.toFixed(2)} Hz`);
+		}
+		// the diagram's axis is named in the reader's unit
+		expect(inCpm).toMatch(/ CPM /);
+	});
+
 	it('an asset report holds the history and the cautions', async () => {
 		const asset = db.select().from(assets).where(eq(assets.tag, 'LBM-IDF-110')).get()!;
 		const text = await textOf((await assetReport(asset.id))!.pdf);

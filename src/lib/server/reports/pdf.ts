@@ -18,6 +18,7 @@ import { comparePairs } from '../../vibration/index.ts';
 import { VERDICT_MARKS, type MarkVerdict } from '../../checks/verdict-mark.ts';
 import { describeSource } from '../../schemas/excitation.ts';
 import { dayTimeUtc } from '../../format.ts';
+import { frequency, inUnit, pairLabel, type FrequencyUnit } from '../../frequency.ts';
 import * as followUpQueries from '../db/follow-ups.ts';
 
 export const CAUTIONS = [
@@ -164,9 +165,11 @@ function diagram(
 	minRpm: number,
 	maxRpm: number,
 	measured: number | null,
-	modes: number[]
+	modes: number[],
+	unit: FrequencyUnit
 ) {
 	if (doc.y > doc.page.height - doc.page.margins.bottom - DIAGRAM_HEIGHT) doc.addPage();
+	const perHz = inUnit(1, unit);
 	const X = doc.page.margins.left + 40;
 	const Y = doc.y + 10;
 	const W = 400;
@@ -178,8 +181,9 @@ function diagram(
 	);
 	const x0 = xt[0];
 	const x1 = xt[xt.length - 1];
-	const yt = niceTicks(0, Math.max(10, ...modes.map((f) => f * 1.5), (x1 / 60) * 1.2));
-	const yMax = yt[yt.length - 1];
+	// the frequency axis on round numbers of the reader's unit; drawn in Hz
+	const yt = niceTicks(0, Math.max(10, ...modes.map((f) => f * 1.5), (x1 / 60) * 1.2) * perHz);
+	const yMax = yt[yt.length - 1] / perHz;
 	const sx = (r: number) => X + ((r - x0) / (x1 - x0)) * W;
 	const sy = (f: number) => Y + H - (Math.min(f, yMax) / yMax) * H;
 	// lines run on past the top and are clipped there (clamped, they all met in the corner)
@@ -213,7 +217,7 @@ function diagram(
 		doc
 			.fontSize(7)
 			.fillColor(ink)
-			.text(`${fn.toFixed(1)} Hz`, X + W + 2, sy(fn) - 3);
+			.text(frequency(fn, unit, 1), X + W + 2, sy(fn) - 3);
 	});
 	doc.rect(X, Y, W, H).clip();
 	// each line named where it leaves the plot (the right edge, or the top)
@@ -252,7 +256,11 @@ function diagram(
 	for (const r of xt)
 		doc.text(tickText(r), sx(r) - 18, Y + H + 3, { width: 36, align: 'center', lineBreak: false });
 	for (const f of yt)
-		doc.text(tickText(f), X - 34, sy(f) - 3, { width: 30, align: 'right', lineBreak: false });
+		doc.text(tickText(f), X - 34, sy(f / perHz) - 3, {
+			width: 30,
+			align: 'right',
+			lineBreak: false
+		});
 	doc.fontSize(6.5).fillColor(accent);
 	let lastY = -Infinity;
 	for (const l of labels.sort((a, b) => a.y - b.y)) {
@@ -263,7 +271,7 @@ function diagram(
 	}
 	doc.fillColor(muted);
 	doc.text('shaft speed (rpm)', X, Y + H + 14, { width: W, align: 'center' });
-	doc.text('Hz', X - 32, Y - 10);
+	doc.text(unit, X - 32, Y - 10);
 	doc.fillColor(ink).fontSize(9.5);
 	doc.x = doc.page.margins.left;
 	doc.y = Y + H + 30;
@@ -345,8 +353,13 @@ function severitySection(
 	);
 }
 
-function checkSection(doc: PDFKit.PDFDocument, d: NonNullable<ReturnType<typeof loadCheck>>) {
+function checkSection(
+	doc: PDFKit.PDFDocument,
+	d: NonNullable<ReturnType<typeof loadCheck>>,
+	unit: FrequencyUnit
+) {
 	const { check, sheet, modes, c } = d;
+	const f = (hz: number) => frequency(hz, unit);
 	heading(doc, `Check of ${when(check.checkedAt)}`);
 	doc.text(
 		`Measured by ${d.by}; received ${when(check.receivedAt)}; measured speed ${check.measuredRpm ?? '-'} rpm.`
@@ -387,7 +400,7 @@ function checkSection(doc: PDFKit.PDFDocument, d: NonNullable<ReturnType<typeof 
 		doc,
 		['Frequency', 'Damping ratio', 'Direction', 'Location', 'From', 'Quality flags'],
 		modes.map((m) => [
-			`${m.frequencyHz.toFixed(2)} Hz`,
+			f(m.frequencyHz),
 			m.dampingRatio === null ? '-' : m.dampingRatio.toFixed(4),
 			m.direction ?? '-',
 			m.location ?? '-',
@@ -411,9 +424,9 @@ function checkSection(doc: PDFKit.PDFDocument, d: NonNullable<ReturnType<typeof 
 			'Verdict'
 		],
 		pairs.map((p) => [
-			`${p.naturalHz.toFixed(2)} Hz`,
+			f(p.naturalHz),
 			p.label,
-			p.excitationHz === null ? '-' : `${p.excitationHz.toFixed(2)} Hz`,
+			p.excitationHz === null ? '-' : f(p.excitationHz),
 			pct(p.marginAtSpeedPct),
 			pct(p.requiredAtSpeedPct),
 			pct(p.marginOverRangePct),
@@ -424,7 +437,7 @@ function checkSection(doc: PDFKit.PDFDocument, d: NonNullable<ReturnType<typeof 
 	);
 	// what a bare "clear" would hide (a line sweeping across a mode the rule lets pass)
 	for (const p of pairs.filter((q) => q.remark))
-		smallNote(doc, `${p.naturalHz.toFixed(2)} Hz × ${p.label}: ${p.remark}`);
+		smallNote(doc, `${pairLabel(p.naturalHz, p.label, unit)}: ${p.remark}`);
 	heading(doc, 'Avoidance bands');
 	if (c.bands.bands.length === 0) doc.text('No speed in the range is inside a required margin.');
 	// the drive's entry in the three ways drives take it: low/high, centre + width, start + width
@@ -446,21 +459,25 @@ function checkSection(doc: PDFKit.PDFDocument, d: NonNullable<ReturnType<typeof 
 		sheet.asset.minRpm,
 		sheet.asset.maxRpm,
 		check.measuredRpm,
-		modes.map((m) => m.frequencyHz)
+		modes.map((m) => m.frequencyHz),
+		unit
 	);
 }
 
 function assetHeader(
 	doc: PDFKit.PDFDocument,
 	sheet: NonNullable<ReturnType<typeof assetQueries.sheet>>,
-	title: string
+	title: string,
+	unit: FrequencyUnit
 ) {
 	doc.font('Bold').fontSize(18).fillColor(ink).text(`Detune - ${title}`);
 	doc
 		.font('Body')
 		.fontSize(9)
 		.fillColor(muted)
-		.text(`Generated ${when(Date.now())}`)
+		.text(
+			`Generated ${when(Date.now())}. Frequencies in ${unit === 'CPM' ? 'CPM, cycles per minute (1 Hz = 60 CPM)' : 'Hz'}; speeds in rpm.`
+		)
 		.fillColor(ink)
 		.fontSize(9.5);
 	heading(doc, `${sheet.asset.tag} - ${sheet.asset.name}`);
@@ -472,7 +489,7 @@ function assetHeader(
 		`Speed range: ${a.minRpm === a.maxRpm ? `${a.minRpm} rpm` : `${a.minRpm}-${a.maxRpm} rpm`}${a.nominalRpm ? `, nominal ${a.nominalRpm} rpm` : ''}. Motor poles ${a.motorPoles ?? '-'}, drive ratio ${a.driveRatio}, skip bands ${a.skipBands}.`
 	);
 	doc.text(sheet.sources.length ? 'Excitation sources:' : 'Excitation sources: none entered.');
-	for (const s of sheet.sources) doc.text(`- ${describeSource(s.kind, s.label, s.params)}`);
+	for (const s of sheet.sources) doc.text(`- ${describeSource(s.kind, s.label, s.params, unit)}`);
 }
 
 /** The follow-ups of a check (or of the whole asset), with their status. */
@@ -598,12 +615,16 @@ function pageNumbers(doc: PDFKit.PDFDocument, title: string) {
 	}
 }
 
-export async function checkReport(checkId: string): Promise<{ pdf: Buffer; tag: string } | null> {
+/** A check's report; natural and forcing frequencies in `unit` (the reader's choice). */
+export async function checkReport(
+	checkId: string,
+	unit: FrequencyUnit = 'Hz'
+): Promise<{ pdf: Buffer; tag: string } | null> {
 	const d = loadCheck(checkId);
 	if (!d) return null;
 	const doc = newReport(`Detune check ${d.sheet.asset.tag}`);
-	assetHeader(doc, d.sheet, 'resonance check report');
-	checkSection(doc, d);
+	assetHeader(doc, d.sheet, 'resonance check report', unit);
+	checkSection(doc, d, unit);
 	followUpSection(doc, d.sheet.asset.id, d.check.id);
 	signOff(doc);
 	cautions(doc);
@@ -611,7 +632,11 @@ export async function checkReport(checkId: string): Promise<{ pdf: Buffer; tag: 
 	return { pdf: await toBuffer(doc), tag: d.sheet.asset.tag };
 }
 
-export async function assetReport(assetId: string): Promise<{ pdf: Buffer; tag: string } | null> {
+/** An asset's report; natural and forcing frequencies in `unit` (the reader's choice). */
+export async function assetReport(
+	assetId: string,
+	unit: FrequencyUnit = 'Hz'
+): Promise<{ pdf: Buffer; tag: string } | null> {
 	const sheet = assetQueries.sheet(assetId);
 	if (!sheet) return null;
 	const history = db
@@ -621,7 +646,7 @@ export async function assetReport(assetId: string): Promise<{ pdf: Buffer; tag: 
 		.orderBy(desc(checks.checkedAt))
 		.all();
 	const doc = newReport(`Detune asset ${sheet.asset.tag}`);
-	assetHeader(doc, sheet, 'asset resonance report');
+	assetHeader(doc, sheet, 'asset resonance report', unit);
 	if (history.length >= 2) {
 		if (doc.y > doc.page.height - doc.page.margins.bottom - 200) doc.addPage();
 		heading(doc, 'Margin trend');
@@ -646,7 +671,7 @@ export async function assetReport(assetId: string): Promise<{ pdf: Buffer; tag: 
 			[110, 60, 80, 90, 80, 90]
 		);
 	const latest = history[0] ? loadCheck(history[0].id) : null;
-	if (latest) checkSection(doc, latest);
+	if (latest) checkSection(doc, latest, unit);
 	followUpSection(doc, sheet.asset.id, null);
 	signOff(doc);
 	cautions(doc);

@@ -216,6 +216,8 @@ function insertCheck(
 			worstMarginAtSpeedPct: s.worstMarginAtSpeedPct,
 			worstMarginOverRangePct: s.worstMarginOverRangePct,
 			worstPair: s.worstPair,
+			worstNaturalHz: s.worstNaturalHz,
+			worstLabel: s.worstLabel,
 			result: {
 				pairs: computed.result.pairs,
 				envelope: computed.result.envelope,

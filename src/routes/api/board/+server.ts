@@ -5,8 +5,10 @@ import { visibleSiteIds } from '$lib/server/db/assets';
 import * as board from '$lib/server/db/board';
 import { boardQuery, type BoardRow } from '$lib/schemas/board';
 import { toCsv } from '$lib/server/csv';
+import { frequencyNumber, pairLabel, type FrequencyUnit } from '$lib/frequency';
 
-const CSV_COLUMNS: [string, (r: BoardRow) => unknown][] = [
+/** The CSV's columns; the worst pair's frequency in the reader's unit, named in its heading. */
+const csvColumns = (unit: FrequencyUnit): [string, (r: BoardRow) => unknown][] => [
 	['tag', (r) => r.tag],
 	['name', (r) => r.name],
 	['site', (r) => r.site],
@@ -26,7 +28,17 @@ const CSV_COLUMNS: [string, (r: BoardRow) => unknown][] = [
 		'worst_margin_over_range_pct',
 		(r) => (r.worstMarginOverRangePct === null ? '' : r.worstMarginOverRangePct.toFixed(2))
 	],
-	['worst_pair', (r) => r.worstPair ?? ''],
+	[
+		'worst_pair',
+		(r) =>
+			r.worstNaturalHz === null || r.worstLabel === null
+				? ''
+				: pairLabel(r.worstNaturalHz, r.worstLabel, unit)
+	],
+	[
+		`worst_natural_frequency_${unit.toLowerCase()}`,
+		(r) => (r.worstNaturalHz === null ? '' : frequencyNumber(r.worstNaturalHz, unit))
+	],
 	['verdict', (r) => r.verdict],
 	['overall_velocity_mm_s', (r) => r.overallVelocityMmS ?? ''],
 	['severity_zone', (r) => r.severityZone ?? ''],
@@ -47,9 +59,10 @@ export const GET: RequestHandler = (event) => {
 	const scope = visibleSiteIds(user);
 	if (q.format === 'csv') {
 		const rows = board.all(q, scope);
+		const columns = csvColumns(user.frequencyUnit);
 		const text = toCsv(
-			CSV_COLUMNS.map((c) => c[0]),
-			rows.map((r) => CSV_COLUMNS.map(([, f]) => f(r)))
+			columns.map((c) => c[0]),
+			rows.map((r) => columns.map(([, f]) => f(r)))
 		);
 		return new Response(text, {
 			headers: {

@@ -9,7 +9,14 @@ import { requireUser } from '$lib/server/guard';
 export const GET: RequestHandler = (event) => {
 	const u = requireUser(event);
 	return json(
-		{ id: u.id, name: u.name, email: u.email, role: u.role, unitSystem: u.unitSystem },
+		{
+			id: u.id,
+			name: u.name,
+			email: u.email,
+			role: u.role,
+			unitSystem: u.unitSystem,
+			frequencyUnit: u.frequencyUnit
+		},
 		{ headers: { 'cache-control': 'no-store' } }
 	);
 };

@@ -13,7 +13,7 @@ export const load: PageServerLoad = (event) => {
 	if (!q.success) error(400, q.error.issues[0].message);
 	return {
 		query: q.data,
-		lines: inWords(audit.search(q.filter, 300)),
+		lines: inWords(audit.search(q.filter, 300), user.frequencyUnit),
 		users: users.list().map((u) => ({ id: u.id, name: u.name })),
 		assets: assetQueries.listVisible(user).map((a) => ({ id: a.id, tag: a.tag, name: a.name }))
 	};

@@ -15,13 +15,18 @@ import { assetForm, reviewForm, sourceFormMeta } from '$lib/schemas/asset';
 import { fieldErrors, formToObject } from '$lib/schemas/form';
 import { doneAction, failAction } from '$lib/server/forms';
 import { SOURCE_KINDS, type SourceKind } from '$lib/schemas/excitation';
+import type { SessionUser } from '$lib/server/auth';
 import { formFromParams, paramsFromForm } from '$lib/schemas/source-form';
 import { canEditAssets, canPlan, EDITORS } from '$lib/roles';
 
 /** A source form: its label (checked here) and the kind's own fields (`paramsFromForm`). */
-function sourceFields(kind: SourceKind, raw: Record<string, unknown>, units: 'metric' | 'us') {
+function sourceFields(
+	kind: SourceKind,
+	raw: Record<string, unknown>,
+	user: Pick<SessionUser, 'unitSystem' | 'frequencyUnit'>
+) {
 	const meta = sourceFormMeta.safeParse(raw);
-	const p = paramsFromForm(kind, raw, units);
+	const p = paramsFromForm(kind, raw, user.unitSystem, user.frequencyUnit);
 	if (meta.success && p.ok) return { ok: true as const, label: meta.data.label, params: p.params };
 	return {
 		ok: false as const,
@@ -89,11 +94,11 @@ export const load: PageServerLoad = (event) => {
 			kind: s.kind,
 			label: s.label,
 			values: SOURCE_KINDS.includes(s.kind as SourceKind)
-				? formFromParams(s.kind as SourceKind, s.params, user.unitSystem)
+				? formFromParams(s.kind as SourceKind, s.params, user.unitSystem, user.frequencyUnit)
 				: {}
 		})),
 		// the asset's own changes, its sources', its checks' (reviews) and its follow-ups', in words
-		audit: inWords(audit.search({ assetId: sheet.asset.id }, 100))
+		audit: inWords(audit.search({ assetId: sheet.asset.id }, 100), user.frequencyUnit)
 	};
 };
 
@@ -127,7 +132,7 @@ export const actions: Actions = {
 			return failAction(404, 'updateSource', String(raw.sourceId ?? ''), {
 				form: 'That excitation source is no longer on this asset.'
 			});
-		const f = sourceFields(source.kind as SourceKind, raw, actor.unitSystem);
+		const f = sourceFields(source.kind as SourceKind, raw, actor);
 		if (!f.ok) return failAction(400, 'updateSource', source.id, f.errors);
 		const changed = edits.updateSource(sheet.asset.id, source.id, f.label, f.params, actor.id);
 		return doneAction(
@@ -143,7 +148,7 @@ export const actions: Actions = {
 		const kind = String(raw.kind ?? '') as SourceKind;
 		if (!SOURCE_KINDS.includes(kind))
 			return failAction(400, 'addSource', 'new', { kind: 'Choose the kind of source.' });
-		const f = sourceFields(kind, raw, actor.unitSystem);
+		const f = sourceFields(kind, raw, actor);
 		if (!f.ok) return failAction(400, 'addSource', 'new', f.errors, raw);
 		edits.addSource(sheet.asset.id, kind, f.label, f.params, actor.id);
 		return doneAction('addSource', 'new', 'Source added; margins recomputed.');

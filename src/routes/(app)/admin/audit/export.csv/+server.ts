@@ -8,10 +8,10 @@ import { toCsv } from '$lib/server/csv';
 
 /** GET /admin/audit/export.csv?asset=…&user=…&from=…&to=…: the filtered log, one row per change. */
 export const GET: RequestHandler = (event) => {
-	requireUser(event);
+	const user = requireUser(event);
 	const q = parseAuditQuery(event.url.searchParams);
 	if (!q.success) error(400, q.error.issues[0].message);
-	const rows = inWords(audit.search(q.filter, 100_000)).flatMap((l) =>
+	const rows = inWords(audit.search(q.filter, 100_000), user.frequencyUnit).flatMap((l) =>
 		(l.changes.length ? l.changes : [{ field: '', before: '', after: '' }]).map((c) => ({
 			when_utc: new Date(l.at).toISOString(),
 			who: l.who,

@@ -8,7 +8,7 @@ export const GET: RequestHandler = async (event) => {
 	const user = requireUser(event);
 	const asset = readableAsset(user, event.params.assetId);
 	if (!asset) error(404, { message: 'No such asset.', code: 'not-found' });
-	const r = await assetReport(asset.id);
+	const r = await assetReport(asset.id, user.frequencyUnit);
 	if (!r) error(404, { message: 'No such asset.', code: 'not-found' });
 	return new Response(new Uint8Array(r.pdf), {
 		headers: {

@@ -8,7 +8,7 @@ export const GET: RequestHandler = async (event) => {
 	const user = requireUser(event);
 	const check = readableCheck(user, event.params.checkId);
 	if (!check) error(404, { message: 'No such check.', code: 'not-found' });
-	const r = await checkReport(check.id);
+	const r = await checkReport(check.id, user.frequencyUnit);
 	if (!r) error(404, { message: 'No such check.', code: 'not-found' });
 	return new Response(new Uint8Array(r.pdf), {
 		headers: {
