@@ -39,6 +39,15 @@ export function pastDueProblem(
 		: null;
 }
 
+/** What a planner sets on a follow-up, created or edited: the same rules both ways. */
+const planFields = {
+	assigneeId: z.preprocess((v) => (v === '' ? null : v), z.string().max(64).nullable()),
+	dueDate: z.preprocess((v) => (v === '' ? null : v), day.nullable()),
+	priority: z.enum(PRIORITY_LIST, { error: `Priority: ${PRIORITY_LIST.join(', ')}.` }),
+	notes: z.string().max(4000, 'Notes: at most 4000 characters.').default(''),
+	backdated: ticked
+};
+
 export const followUpCreate = z
 	.object({
 		assetId: z.string().min(1, 'Choose the asset.').max(64),
@@ -48,22 +57,14 @@ export const followUpCreate = z
 			.trim()
 			.min(3, 'Title: say what is to be done (at least 3 characters).')
 			.max(200, 'Title: at most 200 characters.'),
-		assigneeId: z.preprocess((v) => (v === '' ? null : v), z.string().max(64).nullable()),
-		dueDate: z.preprocess((v) => (v === '' ? null : v), day.nullable()),
-		priority: z.enum(PRIORITY_LIST, { error: `Priority: ${PRIORITY_LIST.join(', ')}.` }),
-		notes: z.string().max(4000, 'Notes: at most 4000 characters.').default(''),
-		backdated: ticked
+		...planFields
 	})
 	.strict();
 
 export const followUpUpdate = z
 	.object({
 		id: z.string().min(1).max(64),
-		assigneeId: z.preprocess((v) => (v === '' ? null : v), z.string().max(64).nullable()),
-		dueDate: z.preprocess((v) => (v === '' ? null : v), day.nullable()),
-		priority: z.enum(PRIORITY_LIST, { error: `Priority: ${PRIORITY_LIST.join(', ')}.` }),
-		notes: z.string().max(4000, 'Notes: at most 4000 characters.').default(''),
-		backdated: ticked
+		...planFields
 	})
 	.strict();
 
