@@ -1,5 +1,6 @@
 import { type Page } from '@playwright/test';
 import { readUff } from '../../src/lib/recordings/uff.ts';
+import { frfUff } from '../support/frf-uff.ts';
 import { expect, test } from './fixtures.ts';
 import { syncAll } from './floor.ts';
 import wavefile from 'wavefile';
@@ -35,6 +36,15 @@ async function openOnFloor(page: Page, tag: string) {
 		.getByTestId('asset-list')
 		.getByRole('button', { name: new RegExp(tag) })
 		.click();
+}
+
+/** Saves the check, syncs it and opens the asset's sheet, as the technician then the reader would. */
+async function saveSyncAndOpenSheet(page: Page, tag: string) {
+	await page.getByRole('button', { name: 'Save check' }).click();
+	await syncAll(page);
+	const pulled = await (await page.request.get('/api/sync/pull?since=0')).json();
+	const asset = pulled.assets.find((a: { tag: string }) => a.tag === tag);
+	await page.goto(`/assets/${asset.id}`);
 }
 
 function wavBuffer(): Buffer {
@@ -89,12 +99,7 @@ test('a technician loads a WAV and a CSV on Floor check, drops a peak, saves, sy
 	await page.getByRole('button', { name: /^Use 1 frequency$/ }).click();
 	await expect(page.getByTestId('modes-list')).toContainText(/3[01]\.\d\d Hz/);
 
-	await page.getByRole('button', { name: 'Save check' }).click();
-	await syncAll(page);
-
-	const pulled = await (await page.request.get('/api/sync/pull?since=0')).json();
-	const asset = pulled.assets.find((a: { tag: string }) => a.tag === 'KRW-RWP-102');
-	await page.goto(`/assets/${asset.id}`);
+	await saveSyncAndOpenSheet(page, 'KRW-RWP-102');
 	await expect(page.getByTestId('history-modes').first()).toContainText(
 		/2[23]\.\d\d Hz \(recording\)/
 	);
@@ -269,4 +274,44 @@ test('a calibrated background record gives the overall level, which the technici
 		'data-zone',
 		/[A-D]/
 	);
+});
+
+// an FRF from lab modal software (UFF dataset 58, complex accelerance of two modes from the
+// handbook formula, tests/support/frf-uff.ts) goes through the same analysis as a recorded hit
+test('a technician loads an FRF file from modal software on Floor check and takes its modes into the check', async ({
+	page
+}) => {
+	await openOnFloor(page, 'KRW-RWP-102');
+	await page.getByLabel(/^Measured running speed/).fill('1000');
+	await page.getByRole('tab', { name: 'Bump-test file' }).click();
+	const frf = Buffer.from(
+		frfUff(
+			[
+				{ fn: 37.5, zeta: 0.02, m: 1 },
+				{ fn: 52, zeta: 0.03, m: 1 }
+			],
+			'accelerance'
+		)
+	);
+	await page
+		.getByLabel(/CSV or WAV file/)
+		.setInputFiles({ name: 'housing-frf.unv', mimeType: 'application/octet-stream', buffer: frf });
+	await expect(page.getByTestId('recording-note')).toContainText(
+		'Frequency response functions, analysed as their impulse responses'
+	);
+	const peaks = page.getByTestId('peaks');
+	await expect(peaks).toContainText(/37\.[45]\d Hz/);
+	await expect(peaks).toContainText(/5[12]\.\d\d Hz/);
+	await page.getByRole('button', { name: /^Use 2 frequencies$/ }).click();
+	await expect(page.getByTestId('modes-list')).toContainText(/37\.[45]\d Hz/);
+	await saveSyncAndOpenSheet(page, 'KRW-RWP-102');
+	await expect(page.getByTestId('history-modes').first()).toContainText(
+		/37\.[45]\d Hz \(recording\)/
+	);
+	await expect(page.getByTestId('recordings')).toContainText('housing-frf.unv');
+	// the check's UFF export gives the FRFs back as FRFs (function type 4), not as what they became
+	const href = await page.getByTestId('uff-export').first().getAttribute('href');
+	const exported = readUff(new Uint8Array(await (await page.request.get(href!)).body()));
+	expect(exported.map((d) => d.functionType)).toEqual([4]);
+	expect(exported[0].count).toBe(2049);
 });

@@ -48,6 +48,7 @@ self.onmessage = async (e: MessageEvent<Request>) => {
 				sizeBytes: recording.sizeBytes,
 				sampleRateHz: recording.sampleRateHz,
 				durationS: recording.durationS,
+				note: recording.note ?? null,
 				channels: recording.channels.map((c) => ({
 					name: c.name,
 					unit: c.unit,

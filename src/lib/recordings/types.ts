@@ -12,6 +12,8 @@ export interface Recording {
 	sampleRateHz: number;
 	durationS: number;
 	channels: Channel[];
+	/** how the channels were made, when they are not the file's samples as recorded */
+	note?: string;
 }
 
 /** Files larger than this are refused before reading. */

@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { readUff, recordingFromUff, writeUff58, UffError } from './uff.ts';
+import { frfOf, readUff, recordingFromUff, writeUff58, UffError } from './uff.ts';
 import { parseRecordingBytes } from './parse.ts';
 import { analyzeRecording, defaultChoice } from './analyze.ts';
+import { FRF_DF, frfUff } from '../../../tests/support/frf-uff.ts';
 
 // Files built by hand from the public description of dataset 58 (the field layout is named beside
 // each line). Record 6: 2(I5,I10),2(1X,10A1,I10,I4); record 7: 3I10,3E13.5; records 8–11:
@@ -193,7 +194,7 @@ describe('UFF export and round trip', () => {
 		expect(modes.some((m) => Math.abs(m.frequencyHz - 37.5) < 0.2)).toBe(true);
 	});
 
-	it('tells a file of FRFs only from one of time records', () => {
+	it('refuses an FRF of magnitudes only, which has no phase to transform back', () => {
 		const frf = ascii58(sampled(12))
 			.replace('    1         1    0         0', '    4         1    0         0')
 			.replace(
@@ -201,7 +202,90 @@ describe('UFF export and round trip', () => {
 				'        18    0    0    0 Frequency            Hz'
 			);
 		expect(() => parseRecordingBytes(bytes(frf), 'frf.unv', '', null)).toThrow(
-			/frequency response function but no time record/
+			'frf.unv: the FRF holds magnitudes only (no phase); export it complex (real and imaginary) to analyse it.'
+		);
+	});
+});
+
+const DF = FRF_DF;
+
+describe('UFF dataset 58 FRFs', () => {
+	it('transforms an FRF back to the impulse response the handbook gives', () => {
+		// h(t) = e^(−ζωn t) sin(ωd t) / (m ωd), ωd = ωn √(1 − ζ²): the unit-impulse response
+		const mode = { fn: 37.5, zeta: 0.02, m: 1 };
+		const r = parseRecordingBytes(bytes(frfUff([mode], 'receptance')), 'frf.uff', '', null);
+		expect(r.sampleRateHz).toBe(1024); // 4096 points × 0.25 Hz
+		expect(r.channels).toHaveLength(1);
+		expect(r.channels[0].unit).toBe('m');
+		expect(r.note).toContain('impulse responses');
+		const wn = 2 * Math.PI * mode.fn;
+		const wd = wn * Math.sqrt(1 - mode.zeta ** 2);
+		const peak = 1 / (mode.m * wd);
+		for (let i = 1; i < 1024; i += 7) {
+			const t = i / r.sampleRateHz;
+			const h = (Math.exp(-mode.zeta * wn * t) * Math.sin(wd * t)) / (mode.m * wd);
+			expect(Math.abs(r.channels[0].samples[i] - h)).toBeLessThan(0.01 * peak);
+		}
+	});
+
+	it('finds two modes of an accelerance FRF in the bump-test analysis', () => {
+		const modes = [
+			{ fn: 37.5, zeta: 0.02, m: 1 },
+			// equal modal masses; the second mode decays twice as fast
+			{ fn: 52, zeta: 0.03, m: 1 }
+		];
+		const r = parseRecordingBytes(bytes(frfUff(modes, 'accelerance')), 'frf.unv', '', null);
+		const a = analyzeRecording(r, defaultChoice(r));
+		expect(a.kind).toBe('ringdown');
+		const found = a.kind === 'ringdown' ? a.result.modes : [];
+		for (const m of modes) {
+			const f = found.find((x) => Math.abs(x.frequencyHz - m.fn) < 0.005 * m.fn);
+			expect(f, `${m.fn} Hz among ${found.map((x) => x.frequencyHz.toFixed(2))}`).toBeTruthy();
+			expect(f!.dampingRatio).not.toBeNull();
+			expect(Math.abs(f!.dampingRatio! - m.zeta) / m.zeta).toBeLessThan(0.2);
+		}
+	});
+
+	it('writes FRFs back as complex dataset 58 that reads to the same values and modes', () => {
+		const file = frfUff([{ fn: 37.5, zeta: 0.02, m: 1 }], 'accelerance');
+		const [d] = readUff(bytes(file));
+		const text = writeUff58([], 'Detune check export', [
+			frfOf(d, 'KRW-RWP-102 housing', new Date(Date.UTC(2026, 11, 2, 10, 15)))
+		]);
+		expect(text.split('\n').every((l) => l.length <= 80)).toBe(true);
+		const [back] = readUff(bytes(text));
+		expect(back).toMatchObject({
+			functionType: 4,
+			ordinateType: 6,
+			count: d.count,
+			even: true,
+			responseNode: 101,
+			responseDirection: 3,
+			referenceNode: 1,
+			referenceDirection: 3
+		});
+		expect(back.abscissa).toMatchObject({ dataType: 18, unit: 'Hz' });
+		expect(back.ordinate).toMatchObject({ dataType: 12, unit: 'm/s^2' });
+		expect(back.denominator).toMatchObject({ dataType: 13, unit: 'N' });
+		expect(back.dx).toBeCloseTo(DF, 9);
+		for (let q = 0; q < d.count; q += 13) {
+			expect(back.re[q]).toBeCloseTo(d.re[q], 9);
+			expect(back.im![q]).toBeCloseTo(d.im![q], 9);
+		}
+		const r = parseRecordingBytes(bytes(text), 'back.uff', '', null);
+		const a = analyzeRecording(r, defaultChoice(r));
+		const modes = a.kind === 'ringdown' ? a.result.modes : [];
+		expect(modes.some((m) => Math.abs(m.frequencyHz - 37.5) < 0.005 * 37.5)).toBe(true);
+	});
+
+	it('refuses FRFs of different spacing in one file, and names the problem', () => {
+		const a = frfUff([{ fn: 37.5, zeta: 0.02, m: 1 }], 'accelerance');
+		const b = a.replace(
+			`${DF.toExponential(5).toUpperCase().padStart(13)}`,
+			`${(0.5).toExponential(5).toUpperCase().padStart(13)}`
+		);
+		expect(() => parseRecordingBytes(bytes(`${a}\n${b}`), 'two.uff', '', null)).toThrow(
+			'two.uff: the FRFs differ in frequency spacing or range; export them with one setting.'
 		);
 	});
 });

@@ -25,6 +25,7 @@
  * datasets and inside the data, Fortran `D` exponents, numbers that run together, other datasets
  * (units, nodes) skipped. Its errors name the line.
  */
+import FFT from 'fft.js';
 import { RecordingError, type Channel, type Recording } from './types.ts';
 
 /** Function types of record 6 (field 1), the ones a vibration analyst meets (from the format's description). */
@@ -342,13 +343,104 @@ function rateOf(dx: number): number {
 	return Math.abs(fs - whole) <= 1e-5 * fs ? whole : fs;
 }
 
-/** The time records of a UFF file as a recording for the bump-test analysis. */
+const isFrf = (d: UffDataset) => d.functionType === 4;
+
+/**
+ * An FRF (function type 4, complex, on an even frequency axis from 0 or above) as its impulse
+ * response: the inverse Fourier transform of H(f), h(t) = ∫ H(f) e^{i2πft} df, on fft.js. The
+ * impulse response is the structure's free decay after a unit impulse, so the ring-down analysis
+ * finds its modes and damping as it does for a hit. Bins below the first line are zero, and the
+ * transform is padded to a power of two (zeros above the last line); fs = N·Δf.
+ */
+export function impulseResponseOfFrf(
+	d: UffDataset,
+	fileName: string
+): { samples: Float64Array; sampleRateHz: number } {
+	if (!d.even)
+		throw new UffError(`${fileName}: an FRF with uneven frequency spacing cannot be analysed.`);
+	if (!d.im)
+		throw new UffError(
+			`${fileName}: the FRF holds magnitudes only (no phase); export it complex (real and imaginary) to analyse it.`
+		);
+	const k0 = Math.round(d.xMin / d.dx);
+	if (d.xMin < 0 || Math.abs(k0 * d.dx - d.xMin) > 1e-6 * d.dx)
+		throw new UffError(
+			`${fileName}: the FRF starts at ${d.xMin} Hz, not on a multiple of its ${d.dx} Hz spacing.`
+		);
+	const top = k0 + d.count - 1;
+	let n = 4;
+	while (n < 2 * top) n *= 2;
+	const fft = new FFT(n);
+	const spectrum = fft.createComplexArray() as number[];
+	for (let i = 0; i < d.count; i++) {
+		const k = k0 + i;
+		if (k > n / 2) break;
+		// one-sided H(f) and its conjugate mirror: a real impulse response
+		const re = d.re[i];
+		const im = k === 0 || k === n / 2 ? 0 : d.im[i];
+		spectrum[2 * k] = re;
+		spectrum[2 * k + 1] = im;
+		if (k > 0 && k < n / 2) {
+			spectrum[2 * (n - k)] = re;
+			spectrum[2 * (n - k) + 1] = -im;
+		}
+	}
+	const out = fft.createComplexArray() as number[];
+	fft.inverseTransform(out, spectrum); // divides by n
+	const fs = n * d.dx;
+	const samples = new Float64Array(n);
+	// h[m] = Δf · Σ_k H_k e^{i2πkm/n} = fs · (the inverse, which divided by n)
+	for (let m = 0; m < n; m++) samples[m] = out[2 * m] * fs;
+	return { samples, sampleRateHz: fs };
+}
+
+/** The FRFs of a UFF file (no time record) as impulse responses, one channel each. */
+function recordingFromFrfs(frfs: UffDataset[], fileName: string, sizeBytes: number): Recording {
+	const first = frfs[0];
+	for (const d of frfs)
+		if (
+			Math.abs(d.dx - first.dx) > 1e-9 * first.dx ||
+			d.count !== first.count ||
+			d.xMin !== first.xMin
+		)
+			throw new UffError(
+				`${fileName}: the FRFs differ in frequency spacing or range; export them with one setting.`
+			);
+	const responses = frfs.map((d) => impulseResponseOfFrf(d, fileName));
+	const fs = responses[0].sampleRateHz;
+	const channels: Channel[] = frfs.map((d, i) => ({
+		name: `impulse response from the FRF ${
+			d.idLines[0] && d.idLines[0].toUpperCase() !== 'NONE'
+				? d.idLines[0]
+				: `node ${d.responseNode} dir ${d.responseDirection}`
+		} (${i + 1})`,
+		// the numerator's unit (g, m/s, m) says what the FRF measures: accelerance, mobility, receptance
+		unit: d.ordinate.unit,
+		samples: responses[i].samples
+	}));
+	return {
+		format: 'uff',
+		fileName,
+		sizeBytes,
+		sampleRateHz: fs,
+		durationS: responses[0].samples.length / fs,
+		channels,
+		note: `Frequency response functions, analysed as their impulse responses (the inverse transform of each FRF, ${first.dx} Hz apart up to ${(first.xMin + (first.count - 1) * first.dx).toFixed(0)} Hz).`
+	};
+}
+
+/**
+ * The time records of a UFF file as a recording for the bump-test analysis; a file of FRFs only
+ * goes in as the FRFs' impulse responses.
+ */
 export function recordingFromUff(
 	datasets: UffDataset[],
 	fileName: string,
 	sizeBytes: number
 ): Recording {
 	const time = datasets.filter((d) => d.functionType === 1 || d.abscissa.dataType === 17);
+	if (time.length === 0 && datasets.some(isFrf))
+		return recordingFromFrfs(datasets.filter(isFrf), fileName, sizeBytes);
 	if (time.length === 0) {
 		const kinds = [
 			...new Set(
@@ -356,7 +448,7 @@ export function recordingFromUff(
 			)
 		];
 		throw new UffError(
-			`${fileName} holds ${kinds.join(', ')} but no time record; the bump-test analysis needs the time records of the hits.`
+			`${fileName} holds ${kinds.join(', ')} but no time record or FRF; the bump-test analysis needs the time records of the hits or their frequency response functions.`
 		);
 	}
 	const first = time[0];
@@ -415,58 +507,165 @@ const stamp = (d: Date) =>
 	`${String(d.getUTCDate()).padStart(2, '0')}-${MONTHS[d.getUTCMonth()]}-${String(d.getUTCFullYear() % 100).padStart(2, '0')} ${d.toISOString().slice(11, 19)}`;
 
 /** Time records as ASCII dataset 58 (real double precision, even spacing), one dataset each. */
-export function writeUff58(records: UffTimeRecord[], description: string): string {
+/** An FRF as dataset 58 writes it: complex values on an even frequency axis. */
+export interface UffFrf {
+	name: string;
+	/** the numerator (response) and denominator (force) data types and units, as read */
+	ordinate: UffAxis;
+	denominator: UffAxis;
+	xMinHz: number;
+	dfHz: number;
+	re: ArrayLike<number>;
+	im: ArrayLike<number>;
+	node: number;
+	direction: number;
+	referenceNode: number;
+	referenceDirection: number;
+	at: Date;
+}
+
+/** A dataset read from a file (an FRF) as the writer takes it, under a new name and date. */
+export const frfOf = (d: UffDataset, name: string, at: Date): UffFrf => {
+	if (!d.im) throw new UffError(`${name}: an FRF to write must be complex.`);
+	return {
+		name: name.slice(0, 80),
+		ordinate: d.ordinate,
+		denominator: d.denominator,
+		xMinHz: d.xMin,
+		dfHz: d.dx,
+		re: d.re,
+		im: d.im,
+		node: d.responseNode,
+		direction: d.responseDirection,
+		referenceNode: d.referenceNode,
+		referenceDirection: d.referenceDirection,
+		at
+	};
+};
+
+const axisLine = (dataType: number, label: string, unit: string) =>
+	i(dataType, 10) + i(0, 5) + i(0, 5) + i(0, 5) + ' ' + a(label, 20) + ' ' + a(unit, 20);
+
+/** Records 1–11 of one dataset. */
+function head(
+	name: string,
+	description: string,
+	at: Date,
+	functionType: number,
+	id: number,
+	node: number,
+	direction: number,
+	refNode: number,
+	refDirection: number,
+	ordinateType: number,
+	count: number,
+	xMin: number,
+	dx: number,
+	abscissa: string,
+	ordinate: string,
+	denominator: string
+): string[] {
+	return [
+		'    -1',
+		'    58',
+		a(name, 80),
+		a(description, 80),
+		a(stamp(at), 80),
+		a('Detune', 80),
+		a('NONE', 80),
+		i(functionType, 5) +
+			i(id, 10) +
+			i(0, 5) +
+			i(0, 10) +
+			' ' +
+			a('NONE', 10) +
+			i(node, 10) +
+			i(direction, 4) +
+			' ' +
+			a('NONE', 10) +
+			i(refNode, 10) +
+			i(refDirection, 4),
+		i(ordinateType, 10) + i(count, 10) + i(1, 10) + e(xMin, 13, 5) + e(dx, 13, 5) + e(0, 13, 5),
+		abscissa,
+		ordinate,
+		denominator,
+		axisLine(0, 'NONE', 'NONE')
+	];
+}
+
+/** Values in rows of four E20.12 fields (double precision). */
+function rows(values: ArrayLike<number>): string[] {
+	const out: string[] = [];
+	for (let j = 0; j < values.length; j += 4) {
+		let row = '';
+		for (let q = j; q < Math.min(j + 4, values.length); q++) row += e(values[q], 20, 12);
+		out.push(row);
+	}
+	return out;
+}
+
+/**
+ * Time records (real double precision, even spacing) and FRFs (complex double, function type 4)
+ * as ASCII dataset 58, one dataset each.
+ */
+export function writeUff58(
+	records: UffTimeRecord[],
+	description: string,
+	frfs: UffFrf[] = []
+): string {
 	const lines: string[] = [];
 	records.forEach((r, k) => {
-		lines.push('    -1', '    58');
 		lines.push(
-			a(r.name, 80),
-			a(description, 80),
-			a(stamp(r.at), 80),
-			a('Detune', 80),
-			a('NONE', 80)
+			...head(
+				r.name,
+				description,
+				r.at,
+				1,
+				k + 1,
+				r.node,
+				r.direction,
+				0,
+				0,
+				4,
+				r.samples.length,
+				0,
+				1 / r.sampleRateHz,
+				axisLine(17, 'Time', 's'),
+				axisLine(r.dataType, UFF_DATA_TYPES[r.dataType] ?? 'response', r.unit),
+				axisLine(0, 'NONE', 'NONE')
+			),
+			...rows(r.samples),
+			'    -1'
 		);
-		lines.push(
-			i(1, 5) +
-				i(k + 1, 10) +
-				i(0, 5) +
-				i(0, 10) +
-				' ' +
-				a('NONE', 10) +
-				i(r.node, 10) +
-				i(r.direction, 4) +
-				' ' +
-				a('NONE', 10) +
-				i(0, 10) +
-				i(0, 4)
-		);
-		lines.push(
-			i(4, 10) +
-				i(r.samples.length, 10) +
-				i(1, 10) +
-				e(0, 13, 5) +
-				e(1 / r.sampleRateHz, 13, 5) +
-				e(0, 13, 5)
-		);
-		lines.push(i(17, 10) + i(0, 5) + i(0, 5) + i(0, 5) + ' ' + a('Time', 20) + ' ' + a('s', 20));
-		lines.push(
-			i(r.dataType, 10) +
-				i(0, 5) +
-				i(0, 5) +
-				i(0, 5) +
-				' ' +
-				a(UFF_DATA_TYPES[r.dataType] ?? 'response', 20) +
-				' ' +
-				a(r.unit, 20)
-		);
-		lines.push(i(0, 10) + i(0, 5) + i(0, 5) + i(0, 5) + ' ' + a('NONE', 20) + ' ' + a('NONE', 20));
-		lines.push(i(0, 10) + i(0, 5) + i(0, 5) + i(0, 5) + ' ' + a('NONE', 20) + ' ' + a('NONE', 20));
-		for (let j = 0; j < r.samples.length; j += 4) {
-			let row = '';
-			for (let q = j; q < Math.min(j + 4, r.samples.length); q++) row += e(r.samples[q], 20, 12);
-			lines.push(row);
+	});
+	frfs.forEach((f, k) => {
+		const pairs = new Float64Array(2 * f.re.length);
+		for (let q = 0; q < f.re.length; q++) {
+			pairs[2 * q] = f.re[q];
+			pairs[2 * q + 1] = f.im[q];
 		}
-		lines.push('    -1');
+		lines.push(
+			...head(
+				f.name,
+				description,
+				f.at,
+				4,
+				records.length + k + 1,
+				f.node,
+				f.direction,
+				f.referenceNode,
+				f.referenceDirection,
+				6,
+				f.re.length,
+				f.xMinHz,
+				f.dfHz,
+				axisLine(18, 'Frequency', 'Hz'),
+				axisLine(f.ordinate.dataType, f.ordinate.label || 'response', f.ordinate.unit),
+				axisLine(f.denominator.dataType, f.denominator.label || 'force', f.denominator.unit)
+			),
+			...rows(pairs),
+			'    -1'
+		);
 	});
 	return lines.join('\n') + '\n';
 }

@@ -9,7 +9,13 @@ import { assets, recordings } from '../db/schema.ts';
 import { readStored } from '../recordings.ts';
 import { parseRecordingBytes } from '../../recordings/parse.ts';
 import { responseKindOf } from '../../recordings/analyze.ts';
-import { writeUff58, type UffTimeRecord } from '../../recordings/uff.ts';
+import {
+	frfOf,
+	readUff,
+	writeUff58,
+	type UffFrf,
+	type UffTimeRecord
+} from '../../recordings/uff.ts';
 
 /** The UFF data type of a channel unit: acceleration 12, velocity 11, displacement 8, force 13. */
 function dataTypeOf(unit: string): number {
@@ -35,13 +41,20 @@ export function checkUff(checkId: string): { text: string; tag: string; files: n
 		.all();
 	if (rows.length === 0) return null;
 	const records: UffTimeRecord[] = [];
+	const frfs: UffFrf[] = [];
 	for (const r of rows) {
-		const rec = parseRecordingBytes(
-			new Uint8Array(readStored(r.sha256)),
-			r.fileName,
-			r.mediaType,
-			r.sampleRateHz
-		);
+		const bytes = new Uint8Array(readStored(r.sha256));
+		// a file of FRFs goes out as those FRFs, not as the impulse responses it was analysed as
+		const datasets = /\.(uff|unv)$/i.test(r.fileName) ? readUff(bytes) : [];
+		const frfsHere = datasets.some((d) => d.functionType === 1)
+			? []
+			: datasets.filter((x) => x.functionType === 4 && x.im && x.even);
+		for (const d of frfsHere)
+			frfs.push(
+				frfOf(d, `${r.tag} ${r.fileName} ${d.idLines[0] ?? ''}`.trim(), new Date(r.createdAt))
+			);
+		if (frfsHere.length) continue;
+		const rec = parseRecordingBytes(bytes, r.fileName, r.mediaType, r.sampleRateHz);
 		rec.channels.forEach((c, i) =>
 			records.push({
 				name: `${r.tag} ${r.fileName} ${c.name}`.slice(0, 80),
@@ -56,7 +69,7 @@ export function checkUff(checkId: string): { text: string; tag: string; files: n
 		);
 	}
 	return {
-		text: writeUff58(records, `Detune check ${checkId}`),
+		text: writeUff58(records, `Detune check ${checkId}`, frfs),
 		tag: rows[0].tag,
 		files: rows.length
 	};
