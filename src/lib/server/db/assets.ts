@@ -71,8 +71,6 @@ export function byId(id: string) {
 	return db.select().from(assets).where(eq(assets.id, id)).get();
 }
 
-export { withSourcesAndRule };
-
 /** Everything the asset sheet shows about the asset itself. */
 export function sheet(id: string) {
 	const found = withSourcesAndRule(db, id);

@@ -244,8 +244,11 @@ export function validate(text: string): { rows: ValidRow[]; errors: RowError[]; 
 		if (get('fixed_hz') && get('fixed_cpm'))
 			fail('fixed_cpm', 'Give the fixed frequency once: in fixed_hz or in fixed_cpm, not both.');
 		else if (get('fixed_hz')) add('fixed', 'fixed_hz', { frequencyHz: n('fixed_hz') });
-		else if (get('fixed_cpm'))
-			add('fixed', 'fixed_cpm', { frequencyHz: toHz(n('fixed_cpm') ?? NaN, 'CPM') });
+		else if (get('fixed_cpm')) {
+			// a value that is no number goes on to the schema, which names it
+			const cpm = n('fixed_cpm') ?? NaN;
+			add('fixed', 'fixed_cpm', { frequencyHz: Number.isFinite(cpm) ? toHz(cpm, 'CPM') : cpm });
+		}
 		if (!ok || !site || !form.success) return;
 		rows.push({
 			row,

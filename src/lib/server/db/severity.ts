@@ -16,8 +16,6 @@ import type { SeverityLimitsInput } from '../../schemas/severity.ts';
 /** Every limit row, group 1 first, rigid before flexible. */
 export const allLimits = (tx: Read = db) => limitsIn(tx);
 
-export { severityOf, storedSeverity };
-
 /** The latest check of an asset zoned again with today's limits and group; then its board row. */
 export function rezoneAsset(tx: Tx, assetId: string, now = Date.now()): void {
 	const asset = tx.select().from(assets).where(eq(assets.id, assetId)).get();

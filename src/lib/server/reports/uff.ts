@@ -7,11 +7,12 @@ import { eq } from 'drizzle-orm';
 import { db } from '../db/index.ts';
 import { assets, recordings } from '../db/schema.ts';
 import { readStored } from '../recordings.ts';
-import { parseRecordingBytes } from '../../recordings/parse.ts';
+import { formatOf, parseRecordingBytes } from '../../recordings/parse.ts';
 import { responseKindOf } from '../../recordings/analyze.ts';
 import {
 	frfOf,
 	readUff,
+	recordingFromUff,
 	writeUff58,
 	type UffFrf,
 	type UffTimeRecord
@@ -45,7 +46,7 @@ export function checkUff(checkId: string): { text: string; tag: string; files: n
 	for (const r of rows) {
 		const bytes = new Uint8Array(readStored(r.sha256));
 		// a file of FRFs goes out as those FRFs, not as the impulse responses it was analysed as
-		const datasets = /\.(uff|unv)$/i.test(r.fileName) ? readUff(bytes) : [];
+		const datasets = formatOf(r.fileName, r.mediaType) === 'uff' ? readUff(bytes) : [];
 		const frfsHere = datasets.some((d) => d.functionType === 1)
 			? []
 			: datasets.filter((x) => x.functionType === 4 && x.im && x.even);
@@ -54,7 +55,10 @@ export function checkUff(checkId: string): { text: string; tag: string; files: n
 				frfOf(d, `${r.tag} ${r.fileName} ${d.idLines[0] ?? ''}`.trim(), new Date(r.createdAt))
 			);
 		if (frfsHere.length) continue;
-		const rec = parseRecordingBytes(bytes, r.fileName, r.mediaType, r.sampleRateHz);
+		// a UFF file read once: its datasets above are the recording's too
+		const rec = datasets.length
+			? recordingFromUff(datasets, r.fileName, bytes.length)
+			: parseRecordingBytes(bytes, r.fileName, r.mediaType, r.sampleRateHz);
 		rec.channels.forEach((c, i) =>
 			records.push({
 				name: `${r.tag} ${r.fileName} ${c.name}`.slice(0, 80),

@@ -17,7 +17,8 @@ import { checks, modes, recordings } from '../db/schema.ts';
 import { analysesDiffer, type StoredAnalysis } from '../recordings.ts';
 import { afterCheck } from '../db/status.ts';
 import { retestedBy } from '../db/follow-ups.ts';
-import { inScope, visibleSiteIds, withSourcesAndRule } from '../db/assets.ts';
+import { inScope, visibleSiteIds } from '../db/assets.ts';
+import { withSourcesAndRule } from '../db/asset-with-rule.ts';
 import { computeCheck, sameSummary, type ComputedCheck } from '../../checks/compute.ts';
 import {
 	checkPush,
@@ -28,7 +29,7 @@ import {
 import type { Role } from '../../roles.ts';
 import type { Db } from '../db/client.ts';
 import { pushProbe } from './probe.ts';
-import { severityOf, storedSeverity } from '../db/severity.ts';
+import { severityOf, storedSeverity } from '../db/severity-zone.ts';
 import type { SeverityOutcome } from '../../checks/severity.ts';
 import { readableAsset, readableCheck } from '../scope.ts';
 
