@@ -69,7 +69,8 @@ const headers: Handle = async ({ event, resolve }) => {
 	h.set('X-Content-Type-Options', 'nosniff');
 	h.set('Referrer-Policy', 'strict-origin-when-cross-origin');
 	h.set('X-Frame-Options', 'DENY');
-	h.set('Permissions-Policy', 'camera=(), microphone=(), geolocation=(), payment=()');
+	// the microphone (an audio input) for tap capture on this origin only; nothing else
+	h.set('Permissions-Policy', 'camera=(), microphone=(self), geolocation=(), payment=()');
 	h.set('Cross-Origin-Opener-Policy', 'same-origin');
 	if (event.locals.user && !h.has('Cache-Control')) h.set('Cache-Control', 'private, no-store');
 	return response;

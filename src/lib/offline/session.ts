@@ -7,6 +7,7 @@
 import { openDB, type DBSchema, type IDBPDatabase } from 'idb';
 import type { Role } from '../roles.ts';
 import type { FrequencyUnit } from '../frequency.ts';
+import { closeAllInputs } from '../capture/open-inputs.ts';
 
 export interface LocalUser {
 	id: string;
@@ -25,7 +26,7 @@ interface DeviceDB extends DBSchema {
 export const DEVICE_DB_NAME = 'detune-device';
 let device: Promise<IDBPDatabase<DeviceDB>> | null = null;
 
-function deviceDb() {
+export function deviceDb() {
 	device ??= openDB<DeviceDB>(DEVICE_DB_NAME, 1, {
 		upgrade(db) {
 			db.createObjectStore('meta');
@@ -87,6 +88,8 @@ async function forget(): Promise<void> {
  * service worker keeps for offline use.
  */
 export async function signOut(): Promise<void> {
+	// a tap capture's audio input closes first: the tablet stops listening before anyone else
+	closeAllInputs();
 	await forget();
 	await (await deviceDb()).put('meta', true, 'pendingSignOut');
 	await endPendingSignOut();

@@ -1,14 +1,20 @@
 /// <reference lib="webworker" />
 /**
  * Parses and analyses a recording off the main thread, so the screen never freezes: messages
- * { file, sampleRateHz, choice } in; { type: 'progress' | 'done' | 'error' } out.
+ * { file, sampleRateHz, choice } in; { type: 'progress' | 'done' | 'error' } out. A tap capture
+ * runs here too: the audio input's blocks arrive on a port from the capture worklet
+ * ('capture-open'), hits and live levels go out as 'capture-…' messages, and the finished capture
+ * becomes a WAV file that takes the very same path as a loaded one.
  */
 import { parseRecordingFile } from './parse.ts';
 import { analyzeRecording, defaultChoice, type AnalysisChoice } from './analyze.ts';
 import { checkSize } from './types.ts';
 import { overallLevel } from './level.ts';
+import { CaptureSession, type CaptureSettings } from '../capture/session.ts';
+import { readTone } from '../capture/calibration.ts';
 
-interface Request {
+interface FileRequest {
+	type?: 'file';
 	file: File;
 	sampleRateHz: number | null;
 	choice: AnalysisChoice | null;
@@ -18,10 +24,25 @@ interface Request {
 	rpm?: number | null;
 }
 
-const post = (m: unknown) => (self as unknown as Worker).postMessage(m);
+type CaptureRequest =
+	| { type: 'capture-open'; port: MessagePort; settings: CaptureSettings; rpm: number | null }
+	| { type: 'capture-keep'; index: number; kept: boolean }
+	| { type: 'capture-average' }
+	| { type: 'capture-close' }
+	| {
+			type: 'calibrate-open';
+			port: MessagePort;
+			sampleRateHz: number;
+			seconds: number;
+			referenceHz: number;
+	  };
 
-self.onmessage = async (e: MessageEvent<Request>) => {
-	const { file, sampleRateHz, choice, background, rpm } = e.data;
+const post = (m: unknown, transfer: Transferable[] = []) =>
+	(self as unknown as Worker).postMessage(m, transfer);
+const now = () => performance.timeOrigin + performance.now();
+
+async function analyseFile(req: FileRequest, extra: Record<string, unknown> = {}) {
+	const { file, sampleRateHz, choice, background, rpm } = req;
 	try {
 		checkSize(file.name, file.size);
 		post({ type: 'progress', stage: 'Reading the file', fraction: 0 });
@@ -42,6 +63,7 @@ self.onmessage = async (e: MessageEvent<Request>) => {
 		);
 		post({
 			type: 'done',
+			...extra,
 			recording: {
 				format: recording.format,
 				fileName: recording.fileName,
@@ -69,4 +91,69 @@ self.onmessage = async (e: MessageEvent<Request>) => {
 	} catch (err) {
 		post({ type: 'error', message: err instanceof Error ? err.message : String(err) });
 	}
+}
+
+let capture: { session: CaptureSession; port: MessagePort; rpm: number | null } | null = null;
+
+/** The kept hits as a WAV file, handed to the screen (it travels with the check) and analysed. */
+async function finishCapture() {
+	if (!capture) return;
+	try {
+		const { bytes, fileName } = capture.session.wav(new Date());
+		const file = new File([bytes as Uint8Array<ArrayBuffer>], fileName, { type: 'audio/wav' });
+		post({ type: 'capture-file', file });
+		await analyseFile(
+			{ file, sampleRateHz: null, choice: null, rpm: capture.rpm },
+			{ lastHitAt: capture.session.lastHitAt }
+		);
+	} catch (err) {
+		post({ type: 'error', message: err instanceof Error ? err.message : String(err) });
+	}
+}
+
+function handleCapture(m: CaptureRequest) {
+	if (m.type === 'capture-open') {
+		capture?.port.close();
+		const session = new CaptureSession(m.settings, (e) => {
+			post(e);
+			if (e.type === 'capture-complete') void finishCapture();
+		});
+		capture = { session, port: m.port, rpm: m.rpm };
+		m.port.onmessage = (e: MessageEvent<{ channels: Float32Array[] }>) =>
+			capture?.session.push(e.data.channels, now());
+	} else if (m.type === 'calibrate-open') {
+		// the calibrator's tone: `seconds` of the input, then its level in a band around the reference
+		const want = Math.round(m.seconds * m.sampleRateHz);
+		const samples = new Float32Array(want);
+		let fill = 0;
+		m.port.onmessage = (e: MessageEvent<{ channels: Float32Array[] }>) => {
+			if (fill >= want) return;
+			const x = e.data.channels[0];
+			const take = Math.min(x.length, want - fill);
+			samples.set(x.subarray(0, take), fill);
+			fill += take;
+			post({ type: 'calibration-progress', fraction: fill / want });
+			if (fill < want) return;
+			m.port.close();
+			try {
+				post({ type: 'calibration', reading: readTone(samples, m.sampleRateHz, m.referenceHz) });
+			} catch (err) {
+				post({ type: 'error', message: err instanceof Error ? err.message : String(err) });
+			}
+		};
+	} else if (m.type === 'capture-close') {
+		capture?.port.close();
+		capture = null;
+	} else if (capture && m.type === 'capture-keep') {
+		const was = capture.session.complete;
+		capture.session.setKept(m.index, m.kept);
+		// a change to a complete capture's hits: average again
+		if (capture.session.complete || was) void finishCapture();
+	} else if (capture && m.type === 'capture-average') void finishCapture();
+}
+
+self.onmessage = (e: MessageEvent<FileRequest | CaptureRequest>) => {
+	const m = e.data;
+	if (m.type === undefined || m.type === 'file') void analyseFile(m as FileRequest);
+	else handleCapture(m as CaptureRequest);
 };

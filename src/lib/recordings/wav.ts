@@ -1,11 +1,6 @@
 /** WAV recordings (PCM 16/24/32-bit, float 32/64; one or more channels) through wavefile. */
-import * as wavefile from 'wavefile';
-
-// wavefile ships a UMD bundle: node sees its exports only as the default, bundlers as names
-const WaveFile: typeof wavefile.WaveFile =
-	(wavefile as unknown as { WaveFile?: typeof wavefile.WaveFile }).WaveFile ??
-	(wavefile as unknown as { default: typeof wavefile }).default.WaveFile;
-type WaveFile = InstanceType<typeof WaveFile>;
+import { WaveFile } from './wavefile.ts';
+import { captureMetaOf, recordingFromCapture } from './capture.ts';
 import {
 	RecordingError,
 	checkChannels,
@@ -74,6 +69,16 @@ export function parseWav(bytes: Uint8Array, fileName: string): Recording {
 	const raw = wav.getSamples(false, Float64Array) as unknown as Float64Array | Float64Array[];
 	const chans = fmt.numChannels === 1 ? [raw as Float64Array] : (raw as Float64Array[]);
 	const scale = float ? 1 : 2 ** (fmt.bitsPerSample - 1);
+	// a bump test recorded on the tablet: its hits, averaged as the capture screen did
+	const capture = captureMetaOf(wav.getTag('ICMT'), fileName);
+	if (capture)
+		return recordingFromCapture(
+			chans.map((c) => (scale === 1 ? c : c.map((v) => v / scale))),
+			fmt.sampleRate,
+			capture,
+			fileName,
+			bytes.length
+		);
 	const channels = chans.map((c, i) => {
 		const s = new Float64Array(c.length);
 		for (let k = 0; k < c.length; k++) s[k] = c[k] / scale;
