@@ -1,0 +1,26 @@
+/** What the analysis worker says about a file it analyses (a loaded one or a tap capture's). */
+import type { Analysis, AnalysisChoice } from './analyze.ts';
+import type { LevelResult } from './level.ts';
+
+export interface RecordingSummary {
+	format: string;
+	fileName: string;
+	sizeBytes: number;
+	sampleRateHz: number;
+	durationS: number;
+	note: string | null;
+	channels: { name: string; unit: string; samples: number }[];
+}
+
+export type AnalysisMessage =
+	| { type: 'progress'; stage: string; fraction: number }
+	| { type: 'error'; message: string }
+	| {
+			type: 'done';
+			recording: RecordingSummary;
+			choice: AnalysisChoice;
+			analysis: Analysis;
+			level: LevelResult | null;
+			/** a tap capture's: when the block that closed its last hit reached the worker */
+			lastHitAt?: number;
+	  };
