@@ -12,9 +12,10 @@ import { scaleBench } from './scale.bench.ts';
 import { loadBench } from './load.bench.ts';
 import { floorBench } from './floor.bench.ts';
 import { uploadBench } from './upload.bench.ts';
+import { captureBench } from './capture.bench.ts';
 import { printTable, type Figure } from './harness.ts';
 
-// `npm run bench -- board` runs only the named parts (floor, sync, scale, load, upload, recordings, engine)
+// `npm run bench -- board` runs only the named parts (floor, capture, sync, scale, load, upload, recordings, engine)
 const only = process.argv.slice(2);
 const wanted = (part: string) => only.length === 0 || only.includes(part);
 const figures: Figure[] = [];
@@ -26,6 +27,10 @@ if (!existsSync('build/index.js')) {
 if (wanted('floor')) {
 	console.log('[bench] Floor check in chromium with the CPU slowed 4× …');
 	figures.push(...(await floorBench()));
+}
+if (wanted('capture')) {
+	console.log('[bench] tap capture in chromium with the CPU slowed 4× …');
+	figures.push(...(await captureBench()));
 }
 if (wanted('sync')) {
 	console.log('[bench] sync over loopback …');
