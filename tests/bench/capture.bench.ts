@@ -6,48 +6,38 @@
  * 'detune:tap-result': from the block that closed the hit reaching the worker to the result on
  * screen (WAV built, read back, averaged, analysed, drawn).
  */
-import { mkdtempSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import { chromium } from '@playwright/test';
 import { startBuiltServer } from '../support/built-server.ts';
-import { CHROMIUM, CHROMIUM_ARGS } from '../support/chromium.ts';
-import { tapRecord, wavOf } from '../support/tap-signal.ts';
+import { CHROMIUM, CHROMIUM_ARGS, fakeAudioInputArgs } from '../support/chromium.ts';
+import { writeTapWav } from '../support/tap-signal.ts';
 import { median, percentile, type Figure } from './harness.ts';
 
 const RUNS = 5;
 const FS = 44100;
 
 export async function captureBench(): Promise<Figure[]> {
-	const dir = mkdtempSync(join(tmpdir(), 'detune-tap-bench-'));
-	const wav = join(dir, 'strike.wav');
-	writeFileSync(
-		wav,
-		wavOf(
-			tapRecord({
-				fs: FS,
-				seconds: 3,
-				modes: [
-					{ f: 37, zeta: 0.02, gain: 1 },
-					{ f: 83, zeta: 0.015, gain: 1.5 }
-				],
-				hits: [{ at: 0.6, force: 1 }],
-				peak: 0.45,
-				noise: 0.003,
-				ringS: 2.4
-			}),
-			FS
-		)
+	const wav = writeTapWav(
+		{
+			fs: FS,
+			seconds: 3,
+			modes: [
+				{ f: 37, zeta: 0.02, gain: 1 },
+				{ f: 83, zeta: 0.015, gain: 1.5 }
+			],
+			hits: [{ at: 0.6, force: 1 }],
+			peak: 0.45,
+			noise: 0.003,
+			ringS: 2.4
+		},
+		'strike.wav'
 	);
 	const server = await startBuiltServer(4196);
 	const browser = await chromium.launch({
 		executablePath: CHROMIUM,
 		args: [
 			...CHROMIUM_ARGS,
-			'--use-fake-device-for-media-stream',
-			'--use-fake-ui-for-media-stream',
 			// played in a loop: a strike every 3 s
-			`--use-file-for-fake-audio-capture=${wav}`
+			...fakeAudioInputArgs(wav, true)
 		]
 	});
 	try {

@@ -6,14 +6,11 @@
  * Start), adds a sensor, records, sees the double hit left out and three hits averaged, takes the
  * modes found, saves and, back in coverage, syncs; the server keeps the WAV and re-analyses it.
  */
-import { mkdtempSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import { WaveFile } from '../../src/lib/recordings/wavefile.ts';
 import { test, expect } from './fixtures.ts';
 import { openFieldOnline, pickAsset, syncAll } from './floor.ts';
-import { CHROMIUM, CHROMIUM_ARGS } from '../support/chromium.ts';
-import { tapRecord, wavOf } from '../support/tap-signal.ts';
+import { CHROMIUM, CHROMIUM_ARGS, fakeAudioInputArgs } from '../support/chromium.ts';
+import { writeTapWav } from '../support/tap-signal.ts';
 
 // the fake device plays at 44.1 kHz: the file is written at that rate, so nothing is resampled
 const FS = 44100;
@@ -21,41 +18,28 @@ const TRUTH = [
 	{ f: 37, zeta: 0.02, gain: 1 },
 	{ f: 83, zeta: 0.015, gain: 1.5 }
 ];
-const dir = mkdtempSync(join(tmpdir(), 'detune-tap-'));
-const wavPath = join(dir, 'strikes.wav');
-writeFileSync(
-	wavPath,
-	wavOf(
-		tapRecord({
-			fs: FS,
-			seconds: 14,
-			modes: TRUTH,
-			// 1.5 s of background first (the noise floor is learnt), then a strike every 3 s; the
-			// second is struck twice, 150 ms apart
-			hits: [
-				{ at: 1.5, force: 1 },
-				{ at: 4.5, force: 0.8 },
-				{ at: 4.65, force: 0.7 },
-				{ at: 7.5, force: 1.1 },
-				{ at: 10.5, force: 0.9 }
-			],
-			peak: 0.45,
-			noise: 0.003,
-			ringS: 2.9
-		}),
-		FS
-	)
-);
+const wavPath = writeTapWav({
+	fs: FS,
+	seconds: 14,
+	modes: TRUTH,
+	// 1.5 s of background first (the noise floor is learnt), then a strike every 3 s; the
+	// second is struck twice, 150 ms apart
+	hits: [
+		{ at: 1.5, force: 1 },
+		{ at: 4.5, force: 0.8 },
+		{ at: 4.65, force: 0.7 },
+		{ at: 7.5, force: 1.1 },
+		{ at: 10.5, force: 0.9 }
+	],
+	peak: 0.45,
+	noise: 0.003,
+	ringS: 2.9
+});
 
 test.use({
 	launchOptions: {
 		executablePath: CHROMIUM,
-		args: [
-			...CHROMIUM_ARGS,
-			'--use-fake-device-for-media-stream',
-			'--use-fake-ui-for-media-stream',
-			`--use-file-for-fake-audio-capture=${wavPath}%noloop`
-		]
+		args: [...CHROMIUM_ARGS, ...fakeAudioInputArgs(wavPath, false)]
 	}
 });
 

@@ -13,3 +13,10 @@ export const CHROMIUM_ARGS = [
 	'--disable-component-update',
 	'--disable-sync'
 ];
+
+/** Chromium's fake audio input playing `wav` (looped, or once), its permission prompt answered yes. */
+export const fakeAudioInputArgs = (wav: string, loop: boolean) => [
+	'--use-fake-device-for-media-stream',
+	'--use-fake-ui-for-media-stream',
+	`--use-file-for-fake-audio-capture=${wav}${loop ? '' : '%noloop'}`
+];

@@ -9,6 +9,9 @@
  */
 import { createRequire } from 'node:module';
 import type * as Odex from 'odex';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { WaveFile } from '../../src/lib/recordings/wavefile.ts';
 
 export interface TapMode {
@@ -111,4 +114,11 @@ export function wavOf(samples: ArrayLike<number>, fs: number): Uint8Array {
 	const wav = new WaveFile();
 	wav.fromScratch(1, fs, '32f', Float32Array.from(samples));
 	return wav.toBuffer();
+}
+
+/** `tapRecord(spec)` as a WAV in a new temporary folder, for chromium's fake capture device. */
+export function writeTapWav(spec: TapRecordSpec, name = 'strikes.wav'): string {
+	const path = join(mkdtempSync(join(tmpdir(), 'detune-tap-')), name);
+	writeFileSync(path, wavOf(tapRecord(spec), spec.fs));
+	return path;
 }

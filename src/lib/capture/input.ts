@@ -55,8 +55,7 @@ export async function openInput(opts: {
 			noiseSuppression: false,
 			autoGainControl: false,
 			channelCount: { ideal: opts.channels }
-		},
-		video: false
+		}
 	});
 	const track = stream.getAudioTracks()[0];
 	const got = track.getSettings();
