@@ -16,3 +16,6 @@ export * from './bands.ts';
 export * from './signal/ringdown.ts';
 export * from './signal/frf.ts';
 export { realFft, magnitude, nextPow2 } from './signal/spectrum.ts';
+export * from './signal/tach.ts';
+export * from './signal/orders.ts';
+export * from './sweep.ts';

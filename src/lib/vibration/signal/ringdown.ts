@@ -25,7 +25,15 @@
  */
 import { finite, integerAtLeast, positive, VibrationInputError } from '../errors.ts';
 import { halfPowerExact, type ResponseKind } from '../damping.ts';
-import { analyticBand, bucketMax, magnitudeSpectrum, nextPow2, realFft } from './spectrum.ts';
+import {
+	analyticBand,
+	bucketMax,
+	hannWindow,
+	magnitudeSpectrum,
+	nextPow2,
+	realFft,
+	windowedAmplitude
+} from './spectrum.ts';
 import { findPeaks, halfPowerBins, interpolatePeak } from './peaks.ts';
 
 export type ModeFlag =
@@ -408,27 +416,6 @@ function medianLevel(xs: Float64Array, from: number, to: number): number {
 	return pick[take >> 1];
 }
 
-let segBuffer: Float64Array | null = null;
-
-/** Magnitude spectrum of x[from … from+len) under a Hann window, scaled to sine amplitude. */
-function hannSpectrum(
-	x: Float64Array,
-	from: number,
-	hann: Float64Array,
-	nfft: number
-): Float64Array {
-	const len = hann.length;
-	const seg = (segBuffer = segBuffer?.length === len ? segBuffer : new Float64Array(len));
-	let wsum = 0;
-	for (let i = 0; i < len; i++) {
-		seg[i] = x[from + i] * hann[i];
-		wsum += hann[i];
-	}
-	const mag = magnitudeSpectrum(seg, nfft);
-	for (let k = 0; k < mag.length; k++) mag[k] *= 2 / wsum;
-	return mag;
-}
-
 /**
  * |Σ x e^(−iωt)| over x under a Hann window: the projection a tone's frequency maximises. Both the
  * phasor and the window turn by recurrence (renormalised every 1,024 samples): a cosine per sample
@@ -591,14 +578,13 @@ function findTones(x: Float64Array, fs: number, fMax: number): number[] {
 	const T = x.length / fs;
 	// no zero padding: a tone's line spans a Hann main lobe, and the ±1 bin below catches it
 	const nfft = nextPow2(len);
-	const hann = new Float64Array(len);
-	for (let i = 0; i < len; i++) hann[i] = 0.5 - 0.5 * Math.cos((2 * Math.PI * i) / (len - 1));
+	const hann = hannWindow(len, 'symmetric');
 	const bins0 = nfft / 2 + 1;
 	const kMax0 = Math.min(bins0 - 2, Math.floor((fMax / fs) * nfft));
 	// a tone is in the first and the last eighth alike: when no line stands in both, there is
 	// none, and the six spectra between are not needed (the common case, a stopped machine)
-	const first = hannSpectrum(x, 0, hann, nfft);
-	const last = hannSpectrum(x, (TONE_SEGMENTS - 1) * len, hann, nfft);
+	const first = windowedAmplitude(x, 0, hann, nfft);
+	const last = windowedAmplitude(x, (TONE_SEGMENTS - 1) * len, hann, nfft);
 	const both = new Float64Array(bins0);
 	for (let k = 1; k <= kMax0; k++)
 		both[k] = Math.min(
@@ -607,7 +593,7 @@ function findTones(x: Float64Array, fs: number, fMax: number): number[] {
 		);
 	if (findPeaks(both, 4, kMax0, 8 * medianLevel(both, 4, kMax0), 2).length === 0) return [];
 	const spectra = Array.from({ length: TONE_SEGMENTS }, (_, s) =>
-		s === 0 ? first : s === TONE_SEGMENTS - 1 ? last : hannSpectrum(x, s * len, hann, nfft)
+		s === 0 ? first : s === TONE_SEGMENTS - 1 ? last : windowedAmplitude(x, s * len, hann, nfft)
 	);
 	// the segments the hit rings in (RMS well above the median segment's) leak its modes into
 	// every bin nearby: the steadiness test leaves them out

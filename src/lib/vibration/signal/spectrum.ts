@@ -86,6 +86,70 @@ export function magnitudeSpectrum(x: ArrayLike<number>, nfft: number): Float64Ar
 	return m;
 }
 
+const windows = new Map<string, Float64Array>();
+
+/**
+ * The Hann window of length n: periodic (0.5 − 0.5·cos(2πi/n), for spectra of a stretch of a
+ * longer signal) or symmetric (…/(n − 1), zero at both ends). Cached per length.
+ */
+export function hannWindow(n: number, form: 'periodic' | 'symmetric' = 'periodic'): Float64Array {
+	integerAtLeast('window length', n, 2);
+	const key = `${form}${n}`;
+	let w = windows.get(key);
+	if (!w) {
+		const d = form === 'periodic' ? n : n - 1;
+		w = new Float64Array(n);
+		for (let i = 0; i < n; i++) w[i] = 0.5 - 0.5 * Math.cos((2 * Math.PI * i) / d);
+		if (windows.size > 8) windows.clear();
+		windows.set(key, w);
+	}
+	return w;
+}
+
+let segment: Float64Array | null = null;
+
+/**
+ * The amplitude spectrum of x[from … from + window.length) under `window`, zero-padded to `nfft`
+ * (default the window's length) and scaled so a sine on a bin reads its amplitude (2|X|/Σw).
+ */
+export function windowedAmplitude(
+	x: ArrayLike<number>,
+	from: number,
+	window: Float64Array,
+	nfft = nextPow2(window.length)
+): Float64Array {
+	const len = window.length;
+	if (from < 0 || from + len > x.length)
+		throw new VibrationInputError('segment', `inside the signal of ${x.length}`, from + len);
+	const seg = (segment = segment?.length === len ? segment : new Float64Array(len));
+	let wsum = 0;
+	for (let i = 0; i < len; i++) {
+		seg[i] = x[from + i] * window[i];
+		wsum += window[i];
+	}
+	const mag = magnitudeSpectrum(seg, nfft);
+	for (let k = 0; k < mag.length; k++) mag[k] *= 2 / wsum;
+	return mag;
+}
+
+/** The largest of each run of `per` values of `values[from … to)`, for a display. */
+export function runMaxima(
+	values: ArrayLike<number>,
+	from: number,
+	to: number,
+	per: number
+): Float64Array {
+	const n = Math.max(0, Math.ceil((to - from) / per));
+	const out = new Float64Array(n);
+	for (let c = 0; c < n; c++) {
+		let m = 0;
+		for (let k = from + c * per; k < Math.min(to, from + (c + 1) * per); k++)
+			m = Math.max(m, values[k]);
+		out[c] = m;
+	}
+	return out;
+}
+
 /** |X_k| of a one-sided spectrum. */
 export function magnitude(s: OneSided): Float64Array {
 	const m = new Float64Array(s.re.length);
