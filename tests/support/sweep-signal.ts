@@ -145,9 +145,9 @@ export function sweepRecord(spec: SweepSpec): SweepRecord {
 	return { fs: spec.fs, tach: tachChannel(spec), displacementUm: x };
 }
 
-/** The record as a CSV a data collector writes: time, tachometer, vibration. */
+/** The record as a CSV a data collector writes: a header, a units row, then time, tachometer, vibration. */
 export function sweepCsv(r: SweepRecord): string {
-	const lines = ['time (s),Tach (V),Shaft displacement (µm)'];
+	const lines = ['time,Tach,Shaft displacement', 's,V,µm'];
 	for (let i = 0; i < r.tach.length; i++)
 		lines.push(
 			`${(i / r.fs).toFixed(6)},${r.tach[i].toFixed(3)},${r.displacementUm[i].toFixed(4)}`

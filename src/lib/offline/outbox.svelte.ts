@@ -283,6 +283,7 @@ export class SyncManager {
 					{
 						sampleRateHz: rec.sampleRateHz ? String(rec.sampleRateHz) : null,
 						role: rec.role ?? null,
+						sweep: rec.sweep ? JSON.stringify(rec.sweep) : null,
 						background: rec.backgroundId ?? null
 					}
 				);

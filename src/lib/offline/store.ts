@@ -6,6 +6,7 @@
  * - `detune-device`: who is signed in on this tablet (see session.ts).
  * Only outbox.svelte.ts writes to the outbox.
  */
+import type { SweepChoice } from '../recordings/sweep.ts';
 import { deleteDB, openDB, type DBSchema, type IDBPDatabase } from 'idb';
 import type {
 	CheckPush,
@@ -39,8 +40,10 @@ export interface PendingRecording {
 	mediaType: string;
 	sampleRateHz: number | null;
 	uploaded: boolean;
-	/** a record of the running machine, subtracted from recording `backgroundFor`'s spectrum */
-	role?: 'background';
+	/** a record of the running machine (subtracted from a bump test's spectrum), or a speed sweep */
+	role?: 'background' | 'sweep';
+	/** a sweep's channel roles and orders, which the server analyses it with again */
+	sweep?: SweepChoice;
 	/** the background recording this one was analysed with (uploaded before it) */
 	backgroundId?: string;
 }

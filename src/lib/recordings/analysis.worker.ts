@@ -12,6 +12,8 @@ import { checkSize } from './types.ts';
 import { overallLevel } from './level.ts';
 import { CaptureSession, type CaptureSettings } from '../capture/session.ts';
 import { readTone } from '../capture/calibration.ts';
+import { analyzeSweepRecording, defaultSweepChoice, sweepChoice } from './sweep.ts';
+import type { Recording } from './types.ts';
 
 interface FileRequest {
 	type?: 'file';
@@ -22,6 +24,17 @@ interface FileRequest {
 	background?: File | null;
 	/** the measured running speed, for the overall level's band (2 or 10 Hz up to 1000 Hz) */
 	rpm?: number | null;
+}
+
+/** A speed sweep: roles chosen by the technician, or null for the file's own suggestion. */
+interface SweepRequest {
+	type: 'sweep';
+	file: File;
+	sampleRateHz: number | null;
+	choice: unknown;
+	/** the asset's vane or blade counts (orders to track by default) and top speed */
+	passCounts: number[];
+	maxRpm: number | null;
 }
 
 type CaptureRequest =
@@ -40,6 +53,61 @@ type CaptureRequest =
 const post = (m: unknown, transfer: Transferable[] = []) =>
 	(self as unknown as Worker).postMessage(m, transfer);
 const now = () => performance.timeOrigin + performance.now();
+
+/** What the screen shows of a parsed file (never its samples). */
+function summaryOf(recording: Recording) {
+	return {
+		format: recording.format,
+		fileName: recording.fileName,
+		sizeBytes: recording.sizeBytes,
+		sampleRateHz: recording.sampleRateHz,
+		durationS: recording.durationS,
+		note: recording.note ?? null,
+		channels: recording.channels.map((c) => ({
+			name: c.name,
+			unit: c.unit,
+			samples: c.samples.length
+		}))
+	};
+}
+
+/** The last sweep file read: a change of roles analyses it again without reading it again. */
+let lastSweep: { file: File; sampleRateHz: number | null; recording: Recording } | null = null;
+
+async function analyseSweep(req: SweepRequest) {
+	try {
+		checkSize(req.file.name, req.file.size);
+		let recording: Recording;
+		if (lastSweep && lastSweep.file === req.file && lastSweep.sampleRateHz === req.sampleRateHz)
+			recording = lastSweep.recording;
+		else {
+			post({ type: 'progress', stage: 'Reading the file', fraction: 0 });
+			recording = await parseRecordingFile(req.file, req.sampleRateHz, (f) =>
+				post({ type: 'progress', stage: 'Reading the file', fraction: f * 0.6 })
+			);
+			lastSweep = { file: req.file, sampleRateHz: req.sampleRateHz, recording };
+		}
+		const parsed =
+			req.choice === null
+				? {
+						success: true as const,
+						data: defaultSweepChoice(recording, req.passCounts, req.maxRpm)
+					}
+				: sweepChoice.safeParse(req.choice);
+		if (!parsed.success) {
+			post({
+				type: 'error',
+				message: parsed.error.issues[0]?.message ?? 'Those roles cannot be used.'
+			});
+			return;
+		}
+		post({ type: 'progress', stage: 'Tracking the orders', fraction: 0.7 });
+		const analysis = analyzeSweepRecording(recording, parsed.data);
+		post({ type: 'sweep-done', recording: summaryOf(recording), choice: parsed.data, analysis });
+	} catch (err) {
+		post({ type: 'error', message: err instanceof Error ? err.message : String(err) });
+	}
+}
 
 async function analyseFile(req: FileRequest, extra: Record<string, unknown> = {}) {
 	const { file, sampleRateHz, choice, background, rpm } = req;
@@ -64,19 +132,7 @@ async function analyseFile(req: FileRequest, extra: Record<string, unknown> = {}
 		post({
 			type: 'done',
 			...extra,
-			recording: {
-				format: recording.format,
-				fileName: recording.fileName,
-				sizeBytes: recording.sizeBytes,
-				sampleRateHz: recording.sampleRateHz,
-				durationS: recording.durationS,
-				note: recording.note ?? null,
-				channels: recording.channels.map((c) => ({
-					name: c.name,
-					unit: c.unit,
-					samples: c.samples.length
-				}))
-			},
+			recording: summaryOf(recording),
 			choice: pick,
 			analysis,
 			// the running machine's overall vibration, from the background record's response channel
@@ -182,8 +238,9 @@ function handleCapture(m: CaptureRequest) {
 	} else if (capture && m.type === 'capture-average') void finishCapture();
 }
 
-self.onmessage = (e: MessageEvent<FileRequest | CaptureRequest>) => {
+self.onmessage = (e: MessageEvent<FileRequest | CaptureRequest | SweepRequest>) => {
 	const m = e.data;
 	if (m.type === undefined || m.type === 'file') void analyseFile(m as FileRequest);
+	else if (m.type === 'sweep') void analyseSweep(m);
 	else handleCapture(m as CaptureRequest);
 };

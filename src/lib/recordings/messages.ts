@@ -1,6 +1,7 @@
 /** What the analysis worker says about a file it analyses (a loaded one or a tap capture's). */
 import type { Analysis, AnalysisChoice } from './analyze.ts';
 import type { LevelResult } from './level.ts';
+import type { SweepAnalysis, SweepChoice } from './sweep.ts';
 
 export interface RecordingSummary {
 	format: string;
@@ -23,4 +24,15 @@ export type AnalysisMessage =
 			level: LevelResult | null;
 			/** a tap capture's: when the block that closed its last hit reached the worker */
 			lastHitAt?: number;
+	  };
+
+/** What the worker says about a speed-sweep file. */
+export type SweepMessage =
+	| { type: 'progress'; stage: string; fraction: number }
+	| { type: 'error'; message: string }
+	| {
+			type: 'sweep-done';
+			recording: RecordingSummary;
+			choice: SweepChoice;
+			analysis: SweepAnalysis;
 	  };

@@ -1,6 +1,7 @@
 /** The upload of a bump-test file: its query string (the file itself is the body). */
 import { z } from 'zod';
 import { SAMPLE_RATE_LIMITS } from '../recordings/types.ts';
+import { sweepChoice } from '../recordings/sweep.ts';
 
 export const recordingUploadQuery = z
 	.object({
@@ -18,9 +19,28 @@ export const recordingUploadQuery = z
 				.max(SAMPLE_RATE_LIMITS.maxHz, 'sampleRateHz must be 1 Hz to 1 MHz.')
 				.nullable()
 		),
-		/** this file is a record of the running machine without hits */
-		role: z.literal('background', { error: 'role: background, or leave it out.' }).optional(),
+		/** a record of the running machine without hits, or a run-up / coast-down */
+		role: z
+			.enum(['background', 'sweep'], { error: 'role: background or sweep, or leave it out.' })
+			.optional(),
+		/** a sweep's channel roles and orders, as JSON */
+		sweep: z
+			.string()
+			.max(2000)
+			.transform((s, ctx) => {
+				try {
+					return JSON.parse(s) as unknown;
+				} catch {
+					ctx.addIssue({ code: 'custom', message: 'sweep must be the channel roles as JSON.' });
+					return z.NEVER;
+				}
+			})
+			.pipe(sweepChoice)
+			.optional(),
 		/** the background recording (uploaded before) this bump test was analysed with */
 		background: z.uuid({ error: 'background must be a recording id.' }).optional()
 	})
-	.strict();
+	.strict()
+	.refine((q) => (q.role === 'sweep') === (q.sweep !== undefined), {
+		message: 'A sweep upload names its channel roles (sweep=…), and only a sweep does.'
+	});

@@ -14,6 +14,7 @@ import { RecordingError } from '../recordings/types.ts';
 import { analyseUpload } from './analysis/pool.ts';
 import { preflight } from '../recordings/parse.ts';
 import type { StoredAnalysis } from './analysis/task.ts';
+import type { SweepChoice } from '../recordings/sweep.ts';
 
 export function dataDir(): string {
 	return resolve(setting('DATA_DIR') ?? 'data/files');
@@ -32,7 +33,9 @@ export interface IngestInput {
 	mediaType: string;
 	bytes: Buffer;
 	sampleRateHz: number | null;
-	role?: 'background';
+	role?: 'background' | 'sweep';
+	/** a sweep's channel roles */
+	sweep?: SweepChoice | null;
 	/** a background recording of the same asset, already stored */
 	backgroundId?: string;
 }
@@ -87,6 +90,7 @@ export async function ingest(input: IngestInput): Promise<{
 		mediaType: input.mediaType,
 		sampleRateHz: input.sampleRateHz,
 		role: input.role,
+		sweep: input.sweep ?? null,
 		background
 	});
 	if (!outcome.ok)

@@ -44,6 +44,21 @@ export const MIN_PHASE_CHANGE_DEG = 45;
 /** Peaks under this share of the order's largest amplitude in the segment are not candidates. */
 const MIN_SHARE = 0.1;
 const HALF_POWER = Math.SQRT1_2;
+/** A peak must stand this many times the revolution-to-revolution scatter above zero. */
+const SIGNIFICANCE = 8;
+
+/**
+ * The revolution-to-revolution scatter of an amplitude series: the robust spread (1.4826 × median
+ * absolute value) of each value less the mean of its neighbours, ÷ √1.5 for that difference's own
+ * variance. A smooth curve has next to none; an order with no content is all scatter.
+ */
+function scatter(a: ArrayLike<number>): number {
+	const d: number[] = [];
+	for (let i = 1; i + 1 < a.length; i++) d.push(Math.abs(a[i] - (a[i - 1] + a[i + 1]) / 2));
+	if (d.length === 0) return 0;
+	d.sort((x, y) => x - y);
+	return (1.4826 * d[d.length >> 1]) / Math.sqrt(1.5);
+}
 
 export interface Resonance {
 	order: number;
@@ -225,10 +240,11 @@ export function resonancesOf(
 	const phase = unwrapDeg(track.phaseDeg.subarray(fromRev, toRev + 1));
 	let top = 0;
 	for (const v of a) top = Math.max(top, v);
+	const floor = SIGNIFICANCE * scatter(raw);
 	const found: Resonance[] = [];
 	const seen = new Set<string>();
 	for (let p = 1; p + 1 < a.length; p++) {
-		if (a[p] < MIN_SHARE * top) continue;
+		if (a[p] < MIN_SHARE * top || a[p] < floor) continue;
 		let isMax = true;
 		for (let j = Math.max(0, p - 3); j <= Math.min(a.length - 1, p + 3); j++)
 			if (a[j] > a[p] || (a[j] === a[p] && j < p)) isMax = false;

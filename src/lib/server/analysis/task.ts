@@ -7,10 +7,14 @@
 import { parseRecordingBytes } from '../../recordings/parse.ts';
 import { analyzeRecording, defaultChoice } from '../../recordings/analyze.ts';
 import { RecordingError } from '../../recordings/types.ts';
+import { analyzeSweepRecording, type SweepChoice } from '../../recordings/sweep.ts';
 
 export interface StoredAnalysis {
-	/** background: a record of the running machine, kept for the bump tests analysed with it */
-	kind: 'ringdown' | 'impact' | 'background';
+	/**
+	 * background: a record of the running machine, kept for the bump tests analysed with it;
+	 * sweep: a run-up or coast-down, its modes the resonances found (qFactor is their API 684 AF)
+	 */
+	kind: 'ringdown' | 'impact' | 'background' | 'sweep';
 	modes: {
 		frequencyHz: number;
 		dampingRatio: number | null;
@@ -24,8 +28,10 @@ export interface AnalysisTask {
 	fileName: string;
 	mediaType: string;
 	sampleRateHz: number | null;
-	/** parse only: a background record is stored, not searched for modes */
-	role?: 'background';
+	/** parse only: a background record is stored, not searched for modes; a sweep is order-tracked */
+	role?: 'background' | 'sweep';
+	/** a sweep's channel roles and orders, as the technician chose them on the tablet */
+	sweep?: SweepChoice | null;
 	/** the background this bump test is analysed with (its spectrum subtracted) */
 	background?: { bytes: Uint8Array; fileName: string; mediaType: string } | null;
 }
@@ -54,6 +60,19 @@ export function runAnalysis(task: AnalysisTask): AnalysisOutcome {
 		};
 		if (task.role === 'background')
 			return { ok: true, shape, analysis: { kind: 'background', modes: [] } };
+		if (task.role === 'sweep') {
+			if (!task.sweep) throw new RecordingError('A speed sweep needs its channel roles.');
+			const sweep = analyzeSweepRecording(rec, task.sweep);
+			const modes = sweep.result.pieces.flatMap((p) =>
+				p.resonances.map((r) => ({
+					frequencyHz: r.frequencyHz,
+					dampingRatio: r.dampingRatio,
+					qFactor: r.amplificationFactor,
+					flags: [r.direction, `order-${r.order}`, ...r.flags]
+				}))
+			);
+			return { ok: true, shape, analysis: { kind: 'sweep', modes } };
+		}
 		const bg = task.background
 			? parseRecordingBytes(
 					task.background.bytes,

@@ -10,7 +10,8 @@ import { firstProblem } from '$lib/schemas/sync';
 import { declaredLength } from '$lib/server/body';
 
 /**
- * POST /api/recordings?id=<uuid>&assetId=…&name=…[&sampleRateHz=…] with the file as the body.
+ * POST /api/recordings?id=<uuid>&assetId=…&name=…[&sampleRateHz=…][&role=background|sweep]
+ * [&sweep=<roles JSON>] with the file as the body.
  * Idempotent on id. The file is parsed and analysed (in the analysis thread) before anything is
  * stored; with the thread busy and uploads already waiting, 503 with Retry-After.
  */
@@ -18,7 +19,7 @@ export const POST: RequestHandler = async (event) => {
 	const user = requireUser(event);
 	const query = recordingUploadQuery.safeParse(Object.fromEntries(event.url.searchParams));
 	if (!query.success) error(400, { message: firstProblem(query.error), code: 'bad-query' });
-	const { id, assetId, name, sampleRateHz, role, background } = query.data;
+	const { id, assetId, name, sampleRateHz, role, sweep, background } = query.data;
 	const declared = declaredLength(event.request);
 	if (declared !== null && declared > MAX_RECORDING_BYTES)
 		error(413, {
@@ -45,6 +46,7 @@ export const POST: RequestHandler = async (event) => {
 			bytes,
 			sampleRateHz,
 			role,
+			sweep,
 			backgroundId: background
 		});
 		return json(
