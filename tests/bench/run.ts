@@ -13,9 +13,10 @@ import { loadBench } from './load.bench.ts';
 import { floorBench } from './floor.bench.ts';
 import { uploadBench } from './upload.bench.ts';
 import { captureBench } from './capture.bench.ts';
+import { sweepBench } from './sweep.bench.ts';
 import { printTable, type Figure } from './harness.ts';
 
-// `npm run bench -- board` runs only the named parts (floor, capture, sync, scale, load, upload, recordings, engine)
+// `npm run bench -- board` runs only the named parts (floor, capture, sync, scale, load, upload, recordings, sweep, engine)
 const only = process.argv.slice(2);
 const wanted = (part: string) => only.length === 0 || only.includes(part);
 const figures: Figure[] = [];
@@ -56,6 +57,11 @@ if (wanted('upload')) {
 if (wanted('recordings')) {
 	console.log('[bench] bump-test analysis and parsing …');
 	figures.push(...(await recordingsBench()));
+	globalThis.gc?.();
+}
+if (wanted('sweep')) {
+	console.log('[bench] speed-sweep analysis …');
+	figures.push(...sweepBench());
 	globalThis.gc?.();
 }
 if (wanted('engine')) {

@@ -392,6 +392,33 @@ export function waterfall(
 	};
 }
 
+/** A peak this many times taller on another order at the same speed is where a small one leaks from. */
+const LEAK_RATIO = 20;
+/** Peaks under this share of the piece's tallest order (−34 dB) are not worth a margin (common practice). */
+const MIN_SHARE_OF_ALL = 0.02;
+
+/**
+ * Drops the echoes of a strong resonance on the other tracked orders. On a ramp the speed changes
+ * within a turn, so the orders are not quite orthogonal over it and a tall 1× peak shows, about
+ * 1 % as tall, on 2× or a blade pass at the very same speed. A candidate within the half-power
+ * band of a peak on another order at least 20 times taller is taken as that leak. After a fast
+ * pass the structure rings at its own frequency, which is no order: its small echoes on the other
+ * orders are dropped by the share of the piece's tallest amplitude.
+ */
+function withoutLeaks(found: Resonance[], tallest: number): Resonance[] {
+	return found.filter(
+		(r) =>
+			r.peakAmplitude >= MIN_SHARE_OF_ALL * tallest &&
+			!found.some(
+				(o) =>
+					o.order !== r.order &&
+					o.peakAmplitude >= LEAK_RATIO * r.peakAmplitude &&
+					r.criticalRpm >= o.n1Rpm &&
+					r.criticalRpm <= o.n2Rpm
+			)
+	);
+}
+
 export interface SweepResult {
 	pieces: SweepSegment[];
 	waterfall: Waterfall;
@@ -428,9 +455,10 @@ export function analyzeSweep(
 			toRpm: revs.rpm[piece.toRev],
 			durationS: revs.endS[piece.toRev] - revs.startS[piece.fromRev],
 			tracks: sub,
-			resonances: tracks
-				.flatMap((t) => resonancesOf(t, piece, revs))
-				.sort((p, q) => p.criticalRpm - q.criticalRpm)
+			resonances: withoutLeaks(
+				tracks.flatMap((t) => resonancesOf(t, piece, revs)),
+				Math.max(...sub.map((t) => Math.max(...t.amplitude)))
+			).sort((p, q) => p.criticalRpm - q.criticalRpm)
 		};
 	});
 	let lo = Infinity;
