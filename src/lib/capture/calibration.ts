@@ -4,7 +4,7 @@
  * own frequency (a calibrator is seldom exactly on 159.2 Hz). A Hann window and Parseval's theorem
  * over the band's bins: exact for a tone anywhere in the band, whatever the bin spacing.
  */
-import FFT from 'fft.js';
+import { hannWindow, windowedAmplitude } from '../vibration/signal/spectrum.ts';
 
 export interface ToneReading {
 	/** r.m.s. in the band, in the samples' unit (full scale) */
@@ -27,27 +27,29 @@ export function readTone(
 	if (samples.length < n)
 		throw new RangeError('Record the calibrator for at least a tenth of a second.');
 	const start = samples.length - n;
-	const fft = new FFT(n);
-	const input = fft.createComplexArray();
 	let mean = 0;
 	for (let i = 0; i < n; i++) mean += samples[start + i] / n;
-	let w2 = 0;
+	const x = new Float64Array(n);
 	let total = 0;
 	for (let i = 0; i < n; i++) {
-		const w = 0.5 - 0.5 * Math.cos((2 * Math.PI * i) / n);
-		const v = samples[start + i] - mean;
-		input[2 * i] = v * w;
-		w2 += w * w;
-		total += v * v;
+		x[i] = samples[start + i] - mean;
+		total += x[i] * x[i];
 	}
-	const out = fft.createComplexArray();
-	fft.transform(out, input);
+	const w = hannWindow(n);
+	let wsum = 0;
+	let w2 = 0;
+	for (const v of w) {
+		wsum += v;
+		w2 += v * v;
+	}
+	// |X_k| back from the amplitude spectrum (2|X_k|/Σw)
+	const amplitude = windowedAmplitude(x, 0, w, n);
 	const df = sampleRateHz / n;
 	const lo = Math.max(1, Math.floor((referenceHz * (1 - relativeBand)) / df));
 	const hi = Math.min(n / 2 - 1, Math.ceil((referenceHz * (1 + relativeBand)) / df));
 	let power = 0;
 	let best = lo;
-	const p = (k: number) => out[2 * k] ** 2 + out[2 * k + 1] ** 2;
+	const p = (k: number) => (amplitude[k] * wsum * 0.5) ** 2;
 	for (let k = lo; k <= hi; k++) {
 		power += p(k);
 		if (p(k) > p(best)) best = k;

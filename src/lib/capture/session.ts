@@ -4,7 +4,7 @@
  * (kept, or left out with the reason); once the wanted number of hits is kept the capture is
  * complete and its WAV is built (recordings/capture.ts) for the same analysis as a loaded file.
  */
-import FFT from 'fft.js';
+import { hannWindow, runMaxima, windowedAmplitude } from '../vibration/signal/spectrum.ts';
 import { HitCatcher, TRIGGER_DEFAULTS, type CaughtHit, type RejectReason } from './trigger.ts';
 import type { Sensor } from './sensors.ts';
 import { writeCaptureWav, type CaptureMeta } from '../recordings/capture.ts';
@@ -64,7 +64,8 @@ export class CaptureSession {
 	/** the response channel's latest samples, for the live spectrum */
 	#tail = new Float32Array(SPECTRUM_N);
 	#tailAt = 0;
-	#fft = new FFT(SPECTRUM_N);
+	/** the tail in time order, for the spectrum */
+	#ordered = new Float64Array(SPECTRUM_N);
 	/** when the block that closed the latest hit arrived (ms since 1970, high resolution) */
 	lastHitAt = 0;
 
@@ -211,26 +212,17 @@ export class CaptureSession {
 	/** dB re full scale of the latest 4096 samples (Hann), the loudest bin of each display step */
 	#spectrum(): { frequencyHz: number[]; db: number[] } {
 		const n = SPECTRUM_N;
-		const input = this.#fft.createComplexArray();
-		let wsum = 0;
-		for (let i = 0; i < n; i++) {
-			const w = 0.5 - 0.5 * Math.cos((2 * Math.PI * i) / n);
-			input[2 * i] = this.#tail[(this.#tailAt + i) % n] * w;
-			wsum += w;
-		}
-		const out = this.#fft.createComplexArray();
-		this.#fft.transform(out, input);
+		for (let i = 0; i < n; i++) this.#ordered[i] = this.#tail[(this.#tailAt + i) % n];
+		const amplitude = windowedAmplitude(this.#ordered, 0, hannWindow(n), n);
 		const df = this.settings.sampleRateHz / n;
 		const step = Math.ceil(n / 2 / SPECTRUM_POINTS);
+		const loudest = runMaxima(amplitude, 1, n / 2, step);
 		const frequencyHz: number[] = [];
 		const db: number[] = [];
-		for (let k = 1; k < n / 2; k += step) {
-			let m = 0;
-			for (let j = k; j < Math.min(n / 2, k + step); j++)
-				m = Math.max(m, Math.hypot(out[2 * j], out[2 * j + 1]));
-			frequencyHz.push((k + step / 2) * df);
-			db.push(20 * Math.log10(Math.max(1e-9, (2 * m) / wsum)));
-		}
+		loudest.forEach((m, c) => {
+			frequencyHz.push((1 + c * step + step / 2) * df);
+			db.push(20 * Math.log10(Math.max(1e-9, m)));
+		});
 		return { frequencyHz, db };
 	}
 }
