@@ -13,9 +13,12 @@ export interface RecordingSummary {
 	channels: { name: string; unit: string; samples: number }[];
 }
 
+/** What the worker says while it works, or when it cannot go on. */
+export type WorkerStatus =
+	{ type: 'progress'; stage: string; fraction: number } | { type: 'error'; message: string };
+
 export type AnalysisMessage =
-	| { type: 'progress'; stage: string; fraction: number }
-	| { type: 'error'; message: string }
+	| WorkerStatus
 	| {
 			type: 'done';
 			recording: RecordingSummary;
@@ -28,8 +31,7 @@ export type AnalysisMessage =
 
 /** What the worker says about a speed-sweep file. */
 export type SweepMessage =
-	| { type: 'progress'; stage: string; fraction: number }
-	| { type: 'error'; message: string }
+	| WorkerStatus
 	| {
 			type: 'sweep-done';
 			recording: RecordingSummary;
