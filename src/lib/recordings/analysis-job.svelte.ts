@@ -27,6 +27,7 @@ export class AnalysisJob<Done extends { type: string }> {
 		this.fraction = 0;
 		if (!this.#keep) this.stop();
 		if (!this.#worker) {
+			// eslint-disable-next-line svelte/prefer-svelte-reactivity -- the worker's address, never changed
 			const worker = new Worker(new URL('./analysis.worker.ts', import.meta.url), {
 				type: 'module'
 			});
