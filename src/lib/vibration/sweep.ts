@@ -201,7 +201,8 @@ function at(x: ArrayLike<number>, pos: number): number {
 	return i + 1 < x.length ? x[i] + f * (x[i + 1] - x[i]) : x[i];
 }
 
-function unwrapDeg(p: ArrayLike<number>): Float64Array {
+/** A phase series (°) unwrapped so no step from one point to the next exceeds 180°. */
+export function unwrapDeg(p: ArrayLike<number>): Float64Array {
 	const out = new Float64Array(p.length);
 	let offset = 0;
 	for (let i = 0; i < p.length; i++) {

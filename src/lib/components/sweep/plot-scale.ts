@@ -1,4 +1,5 @@
 /** Axis arithmetic for the speed-sweep plots: nice tick steps and a linear map. */
+import { unwrapDeg } from '$lib/vibration/sweep';
 
 /** Ticks at 1, 2 or 5 × 10ⁿ covering [lo, hi], about `count` of them. */
 export function ticks(lo: number, hi: number, count = 5): number[] {
@@ -33,16 +34,7 @@ export function pathOf(xs: ArrayLike<number>, ys: ArrayLike<number>, max = 1500)
 
 /** A phase series (°) unwrapped so no step exceeds 180°, then shifted into 0–360° at its start. */
 export function unwrap(p: ArrayLike<number>): number[] {
-	const out: number[] = [];
-	let offset = 0;
-	for (let i = 0; i < p.length; i++) {
-		if (i > 0) {
-			const d = p[i] + offset - out[i - 1];
-			if (d > 180) offset -= 360;
-			else if (d < -180) offset += 360;
-		}
-		out.push(p[i] + offset);
-	}
+	const out = Array.from(unwrapDeg(p));
 	const shift = out.length ? Math.floor(out[0] / 360) * 360 : 0;
 	return out.map((v) => v - shift);
 }
