@@ -7,12 +7,8 @@
  * (modal superposition). The tachometer sees a mark at θ = 0 of every turn, the rising edge a
  * straight ramp centred on θ = 0 (so its middle-level crossing is the mark itself).
  */
-import { createRequire } from 'node:module';
-import type * as Odex from 'odex';
+import { sampled } from './odex.ts';
 import { noise } from './tap-signal.ts';
-
-// odex by require: the test runners map the name 'odex' to its type declaration (tsconfig paths)
-const { Solver } = createRequire(import.meta.url)('odex/src/odex.js') as typeof Odex;
 
 export interface RotorMode {
 	/** natural frequency (Hz) */
@@ -74,14 +70,6 @@ export function shaft(spec: SweepSpec, t: number): { theta: number; omega: numbe
  */
 export function modeDisplacement(spec: SweepSpec, m: RotorMode): Float64Array {
 	const w = 2 * Math.PI * m.f;
-	const n = Math.round(durationOf(spec) * spec.fs);
-	const out = new Float64Array(n);
-	const solver = new Solver(2);
-	solver.absoluteTolerance = 1e-9;
-	solver.relativeTolerance = 1e-9;
-	solver.maxSteps = 1e8;
-	solver.denseOutput = true;
-	let i = 0;
 	const rhs = (t: number, y: number[]) => {
 		const { theta, omega, alpha } = shaft(spec, t);
 		const force = m.unbalanceUm * (omega * omega * Math.cos(theta) + alpha * Math.sin(theta));
@@ -93,16 +81,12 @@ export function modeDisplacement(spec: SweepSpec, m: RotorMode): Float64Array {
 	const d = (1 - r * r) ** 2 + (2 * m.zeta * r) ** 2;
 	const xr = (m.unbalanceUm * r * r * (1 - r * r)) / d;
 	const xi = (-m.unbalanceUm * r * r * 2 * m.zeta * r) / d;
-	solver.solve(
-		rhs,
-		0,
-		[xr, -start.omega * xi],
-		(n - 1) / spec.fs,
-		solver.grid(1 / spec.fs, (_t, y) => {
-			if (i < n) out[i++] = y[0];
-		})
-	);
-	return out;
+	const n = Math.round(durationOf(spec) * spec.fs);
+	return sampled(rhs, [xr, -start.omega * xi], spec.fs, n, (_t, y) => y[0], {
+		absolute: 1e-9,
+		relative: 1e-9,
+		maxSteps: 1e8
+	});
 }
 
 /** The tachometer channel (V): high over the mark, with a straight rising edge centred on θ = 0. */

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 // Independent references from the registry: Hairer's ODEX integrator and a Weierstrass
 // (Durand–Kerner) polynomial root finder. Neither shares code with the engine.
-import { Solver } from 'odex';
+import { stateAt } from '../../../tests/support/odex.ts';
 import findRoots from 'durand-kerner';
 import {
 	freeResponse,
@@ -140,17 +140,13 @@ function integrate(
 	T: number,
 	forcing?: { fm: number; Omega: number }
 ) {
-	const s = new Solver(2);
-	s.absoluteTolerance = 1e-12;
-	s.relativeTolerance = 1e-12;
-	s.maxSteps = 1e6;
 	const f = (t: number, y: number[]) => [
 		y[1],
 		-2 * zeta * omega * y[1] -
 			omega * omega * y[0] +
 			(forcing ? forcing.fm * Math.sin(forcing.Omega * t) : 0)
 	];
-	return s.solve(f, 0, [x0, v0], T).y;
+	return stateAt(f, [x0, v0], T, { relative: 1e-12 });
 }
 
 describe('free response in closed form, against the ODEX integrator', () => {

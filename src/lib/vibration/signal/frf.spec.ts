@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { Solver } from 'odex';
+import { stepwise } from '../../../../tests/support/odex.ts';
 import { analyzeImpact, detectHits } from './frf.ts';
 import { magnification } from '../oscillator.ts';
 import { EigenvalueDecomposition, Matrix, solve } from 'ml-matrix';
@@ -26,21 +26,15 @@ function impactRecord(
 		});
 		return v;
 	};
-	const solver = new Solver(2);
-	solver.absoluteTolerance = 1e-12;
-	solver.relativeTolerance = 1e-10;
-	solver.maxSteps = 1e6;
 	const n = Math.round(fs * seconds);
 	const force = new Float64Array(n);
 	const x = new Float64Array(n);
-	let y = [0, 0];
-	for (let i = 1; i < n; i++) {
-		const t0 = (i - 1) / fs;
-		// step across each pulse finely enough that the integrator sees it
-		y = solver.solve((t, s) => [s[1], -2 * zeta * w * s[1] - w * w * s[0] + F(t)], t0, y, i / fs).y;
+	// step across each pulse finely enough that the integrator sees it
+	const rhs = (t: number, s: number[]) => [s[1], -2 * zeta * w * s[1] - w * w * s[0] + F(t)];
+	stepwise(rhs, [0, 0], fs, n, (i, y) => {
 		x[i] = y[0];
 		force[i] = F(i / fs);
-	}
+	});
 	return { force, x };
 }
 
@@ -189,33 +183,27 @@ describe('two-channel impact analysis', () => {
 		const n = fs * 12;
 		const force = new Float64Array(n);
 		const x1 = new Float64Array(n);
-		const solver = new Solver(4);
-		solver.absoluteTolerance = 1e-13;
-		solver.relativeTolerance = 1e-10;
-		solver.maxSteps = 1e6;
-		let y = [0, 0, 0, 0];
-		for (let i = 1; i < n; i++) {
-			y = solver.solve(
-				(t, s) => {
-					const f1 = F(t) * Minv.get(0, 0);
-					return [
-						s[2],
-						s[3],
-						f1 -
-							MK.get(0, 0) * s[0] -
-							MK.get(0, 1) * s[1] -
-							MC.get(0, 0) * s[2] -
-							MC.get(0, 1) * s[3],
-						-MK.get(1, 0) * s[0] - MK.get(1, 1) * s[1] - MC.get(1, 0) * s[2] - MC.get(1, 1) * s[3]
-					];
-				},
-				(i - 1) / fs,
-				y,
-				i / fs
-			).y;
-			x1[i] = y[0];
-			force[i] = F(i / fs);
-		}
+		const rhs = (t: number, s: number[]) => [
+			s[2],
+			s[3],
+			F(t) * Minv.get(0, 0) -
+				MK.get(0, 0) * s[0] -
+				MK.get(0, 1) * s[1] -
+				MC.get(0, 0) * s[2] -
+				MC.get(0, 1) * s[3],
+			-MK.get(1, 0) * s[0] - MK.get(1, 1) * s[1] - MC.get(1, 0) * s[2] - MC.get(1, 1) * s[3]
+		];
+		stepwise(
+			rhs,
+			[0, 0, 0, 0],
+			fs,
+			n,
+			(i, y) => {
+				x1[i] = y[0];
+				force[i] = F(i / fs);
+			},
+			{ absolute: 1e-13 }
+		);
 
 		it('finds both modes at the eigenfrequencies, |H1| at each peak as the exact |H11|', () => {
 			const r = analyzeImpact(force, x1, fs, { responseKind: 'displacement' });

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { Solver } from 'odex';
+import { stepwise } from '../../../../tests/support/odex.ts';
 import { analyzeRingdown, detrend, hasSecondHit, isClipped } from './ringdown.ts';
 import { magnitude, realFft } from './spectrum.ts';
 
@@ -369,21 +369,9 @@ describe('bump tests on a running machine (closed-form modes plus steady tones)'
  */
 function odexResponse(fs: number, n: number, f: number, zeta: number, F: (t: number) => number) {
 	const w = 2 * Math.PI * f;
-	const solver = new Solver(2);
-	solver.absoluteTolerance = 1e-12;
-	solver.relativeTolerance = 1e-10;
-	solver.maxSteps = 1e6;
 	const x = new Float64Array(n);
-	let y = [0, 0];
-	for (let i = 1; i < n; i++) {
-		y = solver.solve(
-			(t, s) => [s[1], -2 * zeta * w * s[1] - w * w * s[0] + F(t)],
-			(i - 1) / fs,
-			y,
-			i / fs
-		).y;
-		x[i] = y[0];
-	}
+	const rhs = (t: number, s: number[]) => [s[1], -2 * zeta * w * s[1] - w * w * s[0] + F(t)];
+	stepwise(rhs, [0, 0], fs, n, (i, y) => (x[i] = y[0]));
 	return x;
 }
 
