@@ -145,70 +145,46 @@ const line = (hz = 60, poles?: number, ratio = 1): DemoSource => ({
 	params: { lineFrequencyHz: hz, drive: poles ? { poles, motorRpmPerShaftRpm: ratio } : null }
 });
 
-function pump(
-	tag: string,
-	name: string,
-	site: string,
-	area: string,
-	vfd: boolean,
-	min: number,
-	max: number,
-	vanes: number,
-	poles: number,
-	modes: DemoAsset['modes'],
-	ruleSet = 'pumps'
-): DemoAsset {
-	const sources = [
-		shaft([1, 2]),
-		{ kind: 'vane' as const, params: { count: vanes } },
-		...(tag.endsWith('1') ? [bearing('DE', 9, 0.0254, 0.115)] : []),
-		line(60, vfd ? poles : undefined)
-	];
-	return machine({
-		tag,
-		name,
-		site,
-		area,
-		kind: 'pump',
-		speed: vfd ? [min, max] : max,
-		poles,
-		ruleSet,
-		sources,
-		modes
-	});
+/**
+ * A pump or a fan straight on its motor: 1× and 2×, vane or blade pass, a drive-end bearing on the
+ * first of a row (tags ending in 1), twice line frequency (and the drive's when it has one).
+ */
+function impeller(kind: 'pump' | 'fan', defaultRules: string) {
+	return (
+		tag: string,
+		name: string,
+		site: string,
+		area: string,
+		vfd: boolean,
+		min: number,
+		max: number,
+		count: number,
+		poles: number,
+		modes: DemoAsset['modes'],
+		ruleSet = defaultRules
+	): DemoAsset => {
+		const sources = [
+			shaft([1, 2]),
+			{ kind: kind === 'pump' ? ('vane' as const) : ('blade' as const), params: { count } },
+			...(kind === 'pump' && tag.endsWith('1') ? [bearing('DE', 9, 0.0254, 0.115)] : []),
+			line(60, vfd ? poles : undefined)
+		];
+		return machine({
+			tag,
+			name,
+			site,
+			area,
+			kind,
+			speed: vfd ? [min, max] : max,
+			poles,
+			ruleSet,
+			sources,
+			modes
+		});
+	};
 }
-
-function fan(
-	tag: string,
-	name: string,
-	site: string,
-	area: string,
-	vfd: boolean,
-	min: number,
-	max: number,
-	blades: number,
-	poles: number,
-	modes: DemoAsset['modes'],
-	ruleSet = 'fixed10'
-): DemoAsset {
-	const sources = [
-		shaft([1, 2]),
-		{ kind: 'blade' as const, params: { count: blades } },
-		line(60, vfd ? poles : undefined)
-	];
-	return machine({
-		tag,
-		name,
-		site,
-		area,
-		kind: 'fan',
-		speed: vfd ? [min, max] : max,
-		poles,
-		ruleSet,
-		sources,
-		modes
-	});
-}
+const pump = impeller('pump', 'pumps');
+const fan = impeller('fan', 'fixed10');
 
 type MachineSpec = Pick<DemoAsset, 'tag' | 'name' | 'site' | 'area' | 'sources' | 'modes'> & {
 	kind: DemoAsset['machineKind'];
