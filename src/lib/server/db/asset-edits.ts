@@ -62,29 +62,44 @@ export function updateAsset(
 			.set({ ...form, version: nextVersion(tx), updatedAt: now })
 			.where(eq(assets.id, id))
 			.run();
-		audit.record(
-			tx,
-			{
-				userId: actorId,
-				entity: 'asset',
-				entityId: id,
-				action: 'update',
-				before: diff.before,
-				after: diff.after
-			},
-			now
-		);
+		audit.by(tx, actorId, now)('asset', id, 'update', { before: diff.before, after: diff.after });
 		// a new machine group (or speed range) can change the latest check's zone
 		rezoneAsset(tx, id, now);
 		return true;
 	});
 }
 
-function touchAsset(tx: Tx, assetId: string, now: number) {
+/** An excitation source of this asset, or an error. */
+function sourceOfAsset(tx: Tx, assetId: string, sourceId: string) {
+	const s = tx
+		.select()
+		.from(excitationSources)
+		.where(and(eq(excitationSources.id, sourceId), eq(excitationSources.assetId, assetId)))
+		.get();
+	if (!s) throw new Error('No such excitation source on this asset.');
+	return s;
+}
+
+/**
+ * What follows every edit of a source: the asset takes a new version (the tablets fetch it
+ * again), the edit is audited (with the asset in it, so the asset's log finds it), and the
+ * asset's board row is evaluated again.
+ */
+function sourceEdited(
+	tx: Tx,
+	assetId: string,
+	sourceId: string,
+	action: string,
+	change: { before?: Record<string, unknown>; after?: Record<string, unknown> },
+	actorId: string,
+	now: number
+) {
 	tx.update(assets)
 		.set({ version: nextVersion(tx), updatedAt: now })
 		.where(eq(assets.id, assetId))
 		.run();
+	audit.by(tx, actorId, now)('excitation_source', sourceId, action, change);
+	refreshAsset(tx, assetId, now);
 }
 
 export function updateSource(
@@ -96,12 +111,7 @@ export function updateSource(
 	now = Date.now()
 ): boolean {
 	return db.transaction((tx) => {
-		const before = tx
-			.select()
-			.from(excitationSources)
-			.where(and(eq(excitationSources.id, sourceId), eq(excitationSources.assetId, assetId)))
-			.get();
-		if (!before) throw new Error('No such excitation source on this asset.');
+		const before = sourceOfAsset(tx, assetId, sourceId);
 		const diff = changed(
 			{ label: before.label, params: before.params } as Record<string, unknown>,
 			{ label, params }
@@ -111,20 +121,8 @@ export function updateSource(
 			.set({ label, params, version: nextVersion(tx), updatedAt: now })
 			.where(eq(excitationSources.id, sourceId))
 			.run();
-		touchAsset(tx, assetId, now);
-		audit.record(
-			tx,
-			{
-				userId: actorId,
-				entity: 'excitation_source',
-				entityId: sourceId,
-				action: `update ${before.kind} on asset`,
-				before: { asset: assetId, ...diff.before },
-				after: diff.after
-			},
-			now
-		);
-		refreshAsset(tx, assetId, now);
+		const change = { before: { asset: assetId, ...diff.before }, after: diff.after };
+		sourceEdited(tx, assetId, sourceId, `update ${before.kind} on asset`, change, actorId, now);
 		return true;
 	});
 }
@@ -157,19 +155,8 @@ export function addSource(
 				updatedAt: now
 			})
 			.run();
-		touchAsset(tx, assetId, now);
-		audit.record(
-			tx,
-			{
-				userId: actorId,
-				entity: 'excitation_source',
-				entityId: id,
-				action: `add ${kind}`,
-				after: { asset: assetId, label, params }
-			},
-			now
-		);
-		refreshAsset(tx, assetId, now);
+		const change = { after: { asset: assetId, label, params } };
+		sourceEdited(tx, assetId, id, `add ${kind}`, change, actorId, now);
 	});
 	return id;
 }
@@ -181,26 +168,10 @@ export function deleteSource(
 	now = Date.now()
 ): void {
 	db.transaction((tx) => {
-		const before = tx
-			.select()
-			.from(excitationSources)
-			.where(and(eq(excitationSources.id, sourceId), eq(excitationSources.assetId, assetId)))
-			.get();
-		if (!before) throw new Error('No such excitation source on this asset.');
+		const before = sourceOfAsset(tx, assetId, sourceId);
 		tx.delete(excitationSources).where(eq(excitationSources.id, sourceId)).run();
-		touchAsset(tx, assetId, now);
-		audit.record(
-			tx,
-			{
-				userId: actorId,
-				entity: 'excitation_source',
-				entityId: sourceId,
-				action: `remove ${before.kind}`,
-				before: { asset: assetId, label: before.label, params: before.params }
-			},
-			now
-		);
-		refreshAsset(tx, assetId, now);
+		const change = { before: { asset: assetId, label: before.label, params: before.params } };
+		sourceEdited(tx, assetId, sourceId, `remove ${before.kind}`, change, actorId, now);
 	});
 }
 
@@ -230,17 +201,7 @@ export function markReviewed(
 			.set({ reviewedBy: actorId, reviewedAt: now, reviewComment: comment, reviewOutcome: outcome })
 			.where(eq(checks.id, checkId))
 			.run();
-		audit.record(
-			tx,
-			{
-				userId: actorId,
-				entity: 'check',
-				entityId: checkId,
-				action: 'review',
-				after: { outcome, comment }
-			},
-			now
-		);
+		audit.by(tx, actorId, now)('check', checkId, 'review', { after: { outcome, comment } });
 	});
 }
 
@@ -273,16 +234,8 @@ export function withdrawReview(
 			.set({ reviewedBy: null, reviewedAt: null, reviewComment: null, reviewOutcome: null })
 			.where(eq(checks.id, checkId))
 			.run();
-		audit.record(
-			tx,
-			{
-				userId: actorId,
-				entity: 'check',
-				entityId: checkId,
-				action: 'review-withdrawn',
-				before: { outcome: c.reviewOutcome, comment: c.reviewComment, by: c.reviewedBy }
-			},
-			now
-		);
+		audit.by(tx, actorId, now)('check', checkId, 'review-withdrawn', {
+			before: { outcome: c.reviewOutcome, comment: c.reviewComment, by: c.reviewedBy }
+		});
 	});
 }

@@ -1,5 +1,5 @@
 /** The audit log: who changed which record, when, from what to what. */
-import { and, desc, eq, sql } from 'drizzle-orm';
+import { and, desc, eq, sql, type SQL } from 'drizzle-orm';
 import { db, type Db } from './index.ts';
 import { auditLog, users } from './schema.ts';
 
@@ -37,11 +37,28 @@ export function record(tx: Tx, entry: AuditEntry, at = Date.now()): void {
 		.run();
 }
 
-export function forEntity(entity: AuditEntry['entity'], entityId: string, limit = 100) {
+/**
+ * A writer of entries by one person (`null`: Detune itself, as for a retest closed by a clear
+ * check) at one time, inside the caller's transaction:
+ * `audit.by(tx, actorId, now)('site', id, 'update', { before, after })`.
+ */
+export function by(tx: Tx, userId: string | null, at = Date.now()) {
+	return (
+		entity: AuditEntry['entity'],
+		entityId: string,
+		action: string,
+		change: Pick<AuditEntry, 'before' | 'after'> = {}
+	) => record(tx, { userId, entity, entityId, action, ...change }, at);
+}
+
+/** Entries with the name of who made them, newest first. */
+function entries(where: SQL | undefined, limit: number) {
 	return db
 		.select({
 			id: auditLog.id,
 			at: auditLog.at,
+			entity: auditLog.entity,
+			entityId: auditLog.entityId,
 			action: auditLog.action,
 			before: auditLog.before,
 			after: auditLog.after,
@@ -49,10 +66,14 @@ export function forEntity(entity: AuditEntry['entity'], entityId: string, limit 
 		})
 		.from(auditLog)
 		.leftJoin(users, eq(users.id, auditLog.userId))
-		.where(and(eq(auditLog.entity, entity), eq(auditLog.entityId, entityId)))
+		.where(where)
 		.orderBy(desc(auditLog.at), desc(auditLog.id))
 		.limit(limit)
 		.all();
+}
+
+export function forEntity(entity: AuditEntry['entity'], entityId: string, limit = 100) {
+	return entries(and(eq(auditLog.entity, entity), eq(auditLog.entityId, entityId)), limit);
 }
 
 export interface AuditFilter {
@@ -81,21 +102,5 @@ export function search(filter: AuditFilter, limit = 500) {
 				or (audit_log.entity = 'follow_up' and audit_log.entity_id in (select f.id from follow_ups f where f.asset_id = ${a})))`
 		);
 	}
-	return db
-		.select({
-			id: auditLog.id,
-			at: auditLog.at,
-			entity: auditLog.entity,
-			entityId: auditLog.entityId,
-			action: auditLog.action,
-			before: auditLog.before,
-			after: auditLog.after,
-			userName: users.name
-		})
-		.from(auditLog)
-		.leftJoin(users, eq(users.id, auditLog.userId))
-		.where(c.length ? and(...c) : undefined)
-		.orderBy(desc(auditLog.at), desc(auditLog.id))
-		.limit(limit)
-		.all();
+	return entries(c.length ? and(...c) : undefined, limit);
 }

@@ -199,11 +199,7 @@ export function create(
 				updatedAt: now
 			})
 			.run();
-		audit.record(
-			tx,
-			{ userId: actorId, entity: 'follow_up', entityId: id, action: 'create', after: { ...input } },
-			now
-		);
+		audit.by(tx, actorId, now)('follow_up', id, 'create', { after: { ...input } });
 		refreshAsset(tx, input.assetId, now);
 	});
 	return id;
@@ -232,28 +228,20 @@ export function update(
 			})
 			.where(eq(followUps.id, input.id))
 			.run();
-		audit.record(
-			tx,
-			{
-				userId: actorId,
-				entity: 'follow_up',
-				entityId: input.id,
-				action: 'update',
-				before: {
-					assigneeId: before.assigneeId,
-					dueDate: before.dueDate,
-					priority: before.priority,
-					status: before.status
-				},
-				after: {
-					assigneeId: input.assigneeId,
-					dueDate: input.dueDate,
-					priority: input.priority,
-					status
-				}
+		audit.by(tx, actorId, now)('follow_up', input.id, 'update', {
+			before: {
+				assigneeId: before.assigneeId,
+				dueDate: before.dueDate,
+				priority: before.priority,
+				status: before.status
 			},
-			now
-		);
+			after: {
+				assigneeId: input.assigneeId,
+				dueDate: input.dueDate,
+				priority: input.priority,
+				status
+			}
+		});
 		return { assigneeChanged: before.assigneeId !== input.assigneeId && input.assigneeId !== null };
 	});
 }
@@ -270,18 +258,10 @@ export function move(
 		if (before.status === 'retested')
 			throw new FollowUpError('This follow-up is closed by a clear retest.', 409);
 		tx.update(followUps).set({ status, updatedAt: now }).where(eq(followUps.id, id)).run();
-		audit.record(
-			tx,
-			{
-				userId: actorId,
-				entity: 'follow_up',
-				entityId: id,
-				action: `status ${before.status} → ${status}`,
-				before: { status: before.status },
-				after: { status }
-			},
-			now
-		);
+		audit.by(tx, actorId, now)('follow_up', id, `status ${before.status} → ${status}`, {
+			before: { status: before.status },
+			after: { status }
+		});
 		refreshAsset(tx, before.assetId, now);
 	});
 }
@@ -361,34 +341,16 @@ export function retestedBy(
 				.set({ notes: f.notes ? `${f.notes}\n${note}` : note, updatedAt: now })
 				.where(eq(followUps.id, f.id))
 				.run();
-			audit.record(
-				tx,
-				{
-					userId: null,
-					entity: 'follow_up',
-					entityId: f.id,
-					action: 'retest incomplete',
-					after: { checkId, missing }
-				},
-				now
-			);
+			audit.by(tx, null, now)('follow_up', f.id, 'retest incomplete', {
+				after: { checkId, missing }
+			});
 			continue;
 		}
 		tx.update(followUps)
 			.set({ status: 'retested', retestCheckId: checkId, updatedAt: now })
 			.where(eq(followUps.id, f.id))
 			.run();
-		audit.record(
-			tx,
-			{
-				userId: null,
-				entity: 'follow_up',
-				entityId: f.id,
-				action: 'retested by a clear check',
-				after: { checkId }
-			},
-			now
-		);
+		audit.by(tx, null, now)('follow_up', f.id, 'retested by a clear check', { after: { checkId } });
 		closed.push(f.id);
 	}
 	return closed;

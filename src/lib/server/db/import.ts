@@ -337,20 +337,12 @@ export function run(
 						.run()
 				);
 			}
-			audit.record(
-				tx,
-				{
-					userId: actorId,
-					entity: 'asset',
-					entityId: id,
-					action: existing ? 'import (update)' : 'import (new)',
-					before: existing
-						? { name: existing.name, minRpm: existing.minRpm, maxRpm: existing.maxRpm }
-						: null,
-					after: { ...r.asset, sources: r.sources.length }
-				},
-				now
-			);
+			audit.by(tx, actorId, now)('asset', id, existing ? 'import (update)' : 'import (new)', {
+				before: existing
+					? { name: existing.name, minRpm: existing.minRpm, maxRpm: existing.maxRpm }
+					: null,
+				after: { ...r.asset, sources: r.sources.length }
+			});
 			refreshAsset(tx, id, now);
 		}
 	});

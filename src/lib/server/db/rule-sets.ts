@@ -62,11 +62,7 @@ export function save(
 			tx.insert(ruleSets)
 				.values({ id: newId, ...values, version, createdAt: now, updatedAt: now })
 				.run();
-			audit.record(
-				tx,
-				{ userId: actorId, entity: 'rule_set', entityId: newId, action: 'create', after: values },
-				now
-			);
+			audit.by(tx, actorId, now)('rule_set', newId, 'create', { after: values });
 			return { id: newId, recomputed: 0 };
 		}
 		const before = tx.select().from(ruleSets).where(eq(ruleSets.id, id)).get();
@@ -75,25 +71,17 @@ export function save(
 			.set({ ...values, version, updatedAt: now })
 			.where(eq(ruleSets.id, id))
 			.run();
-		audit.record(
-			tx,
-			{
-				userId: actorId,
-				entity: 'rule_set',
-				entityId: id,
-				action: 'update',
-				before: {
-					name: before.name,
-					kind: before.kind,
-					percent: before.percent,
-					perKind: before.perKind,
-					source: before.source,
-					edition: before.edition
-				},
-				after: values
+		audit.by(tx, actorId, now)('rule_set', id, 'update', {
+			before: {
+				name: before.name,
+				kind: before.kind,
+				percent: before.percent,
+				perKind: before.perKind,
+				source: before.source,
+				edition: before.edition
 			},
-			now
-		);
+			after: values
+		});
 		return { id, recomputed: refreshRuleSet(tx, id, now) };
 	});
 }

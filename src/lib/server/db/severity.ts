@@ -59,13 +59,11 @@ export function updateLimits(
 			})
 			.where(where)
 			.run();
-		audit.record(
-			tx,
+		audit.by(tx, actorId, now)(
+			'severity_limits',
+			`${input.machineGroup}/${input.support}`,
+			'update',
 			{
-				userId: actorId,
-				entity: 'severity_limits',
-				entityId: `${input.machineGroup}/${input.support}`,
-				action: 'update',
 				before: {
 					abMmS: before.abMmS,
 					bcMmS: before.bcMmS,
@@ -73,8 +71,7 @@ export function updateLimits(
 					source: before.source
 				},
 				after: { abMmS: input.abMmS, bcMmS: input.bcMmS, cdMmS: input.cdMmS, source: input.source }
-			},
-			now
+			}
 		);
 		const zoned = tx
 			.selectDistinct({ id: checks.assetId })

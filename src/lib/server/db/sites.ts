@@ -65,11 +65,7 @@ export function createSite(form: SiteForm, actorId: string, now = Date.now()): s
 				updatedAt: now
 			})
 			.run();
-		audit.record(
-			tx,
-			{ userId: actorId, entity: 'site', entityId: id, action: 'create', after: form },
-			now
-		);
+		audit.by(tx, actorId, now)('site', id, 'create', { after: form });
 	});
 	return id;
 }
@@ -112,18 +108,10 @@ export function updateSite(
 				.where(and(eq(assetStatus.siteId, id), sql`${assetStatus.checkedAt} is not null`))
 				.run().changes;
 		}
-		audit.record(
-			tx,
-			{
-				userId: actorId,
-				entity: 'site',
-				entityId: id,
-				action: 'update',
-				before: { name: before.name, recheckDays: before.recheckDays },
-				after: { name: form.name, recheckDays: form.recheckDays }
-			},
-			now
-		);
+		audit.by(tx, actorId, now)('site', id, 'update', {
+			before: { name: before.name, recheckDays: before.recheckDays },
+			after: { name: form.name, recheckDays: form.recheckDays }
+		});
 		return { changed: true, restaled };
 	});
 }
@@ -158,17 +146,7 @@ export function createArea(
 		tx.insert(areas)
 			.values({ id, siteId, name, version: nextVersion(tx), createdAt: now, updatedAt: now })
 			.run();
-		audit.record(
-			tx,
-			{
-				userId: actorId,
-				entity: 'site',
-				entityId: siteId,
-				action: 'add area',
-				after: { area: id, name }
-			},
-			now
-		);
+		audit.by(tx, actorId, now)('site', siteId, 'add area', { after: { area: id, name } });
 	});
 	return id;
 }
@@ -185,18 +163,10 @@ export function renameArea(id: string, name: string, actorId: string, now = Date
 			.set({ name, version: nextVersion(tx), updatedAt: now })
 			.where(eq(areas.id, id))
 			.run();
-		audit.record(
-			tx,
-			{
-				userId: actorId,
-				entity: 'site',
-				entityId: before.siteId,
-				action: 'rename area',
-				before: { area: id, name: before.name },
-				after: { area: id, name }
-			},
-			now
-		);
+		audit.by(tx, actorId, now)('site', before.siteId, 'rename area', {
+			before: { area: id, name: before.name },
+			after: { area: id, name }
+		});
 		return true;
 	});
 }

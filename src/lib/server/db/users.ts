@@ -28,6 +28,13 @@ export class UnknownSiteError extends Error {
 	}
 }
 
+/** The user with this id, or UnknownUserError. */
+function userOf(tx: Tx, id: string): User {
+	const u = tx.select().from(users).where(eq(users.id, id)).get();
+	if (!u) throw new UnknownUserError();
+	return u;
+}
+
 function checkSites(tx: Tx, siteIds: string[]): void {
 	if (siteIds.length === 0) return;
 	const found = tx
@@ -131,17 +138,9 @@ export function create(input: NewUser, actorId: string | null, now = Date.now())
 			})
 			.run();
 		for (const siteId of input.siteIds) tx.insert(userSites).values({ userId: id, siteId }).run();
-		audit.record(
-			tx,
-			{
-				userId: actorId,
-				entity: 'user',
-				entityId: id,
-				action: 'create',
-				after: { email, name: input.name, role: input.role, siteIds: input.siteIds }
-			},
-			now
-		);
+		audit.by(tx, actorId, now)('user', id, 'create', {
+			after: { email, name: input.name, role: input.role, siteIds: input.siteIds }
+		});
 	});
 	return id;
 }
@@ -153,8 +152,7 @@ export function update(
 	now = Date.now()
 ): void {
 	db.transaction((tx) => {
-		const before = tx.select().from(users).where(eq(users.id, id)).get();
-		if (!before) throw new UnknownUserError();
+		const before = userOf(tx, id);
 		if (changes.siteIds) checkSites(tx, changes.siteIds);
 		if (
 			changes.role &&
@@ -179,22 +177,14 @@ export function update(
 			for (const siteId of changes.siteIds)
 				tx.insert(userSites).values({ userId: id, siteId }).run();
 		}
-		audit.record(
-			tx,
-			{
-				userId: actorId,
-				entity: 'user',
-				entityId: id,
-				action: 'update',
-				before: { role: before.role, name: before.name, siteIds: beforeSites },
-				after: {
-					role: changes.role ?? before.role,
-					name: changes.name ?? before.name,
-					siteIds: changes.siteIds ?? beforeSites
-				}
-			},
-			now
-		);
+		audit.by(tx, actorId, now)('user', id, 'update', {
+			before: { role: before.role, name: before.name, siteIds: beforeSites },
+			after: {
+				role: changes.role ?? before.role,
+				name: changes.name ?? before.name,
+				siteIds: changes.siteIds ?? beforeSites
+			}
+		});
 	});
 }
 
@@ -205,23 +195,14 @@ export function setDisabled(
 	now = Date.now()
 ): void {
 	db.transaction((tx) => {
-		const before = tx.select().from(users).where(eq(users.id, id)).get();
-		if (!before) throw new UnknownUserError();
+		const before = userOf(tx, id);
 		if (disabled && before.role === 'admin' && !before.disabled && activeAdminsOtherThan(id) === 0)
 			throw new LastAdminError();
 		tx.update(users).set({ disabled, updatedAt: now }).where(eq(users.id, id)).run();
-		audit.record(
-			tx,
-			{
-				userId: actorId,
-				entity: 'user',
-				entityId: id,
-				action: disabled ? 'disable' : 'enable',
-				before: { disabled: before.disabled },
-				after: { disabled }
-			},
-			now
-		);
+		audit.by(tx, actorId, now)('user', id, disabled ? 'disable' : 'enable', {
+			before: { disabled: before.disabled },
+			after: { disabled }
+		});
 	});
 }
 
@@ -250,11 +231,7 @@ export function setPasswordHash(
 			.where(eq(users.id, id))
 			.run();
 		if (result.changes === 0) throw new UnknownUserError();
-		audit.record(
-			tx,
-			{ userId: actorId, entity: 'user', entityId: id, action: 'reset-password' },
-			now
-		);
+		audit.by(tx, actorId, now)('user', id, 'reset-password');
 	});
 }
 
