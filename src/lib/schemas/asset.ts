@@ -122,6 +122,9 @@ export const sourceFormMeta = z.object({
  * A review: "fine" (a comment optional) or "with remarks" (the comment says what). Before, an
  * empty comment marked a check reviewed in one tap.
  */
+/** The check a review is withdrawn from. */
+export const withdrawReviewForm = z.object({ checkId: z.string().min(1, 'Which check?').max(64) });
+
 export const reviewForm = z
 	.object({
 		checkId: z.string().min(1, 'Which check?').max(64),

@@ -195,10 +195,10 @@ export function freeResponse(osc: Oscillator, initial: { x0: number; v0: number 
 }
 
 /**
- * Dynamic magnification (force excitation), DMF(r) = 1/√((1 − r²)² + (2ζr)²), r = ω/ω₀ (F8).
- * Unbounded for ζ = 0 at r = 1: that input is refused rather than returning Infinity.
+ * √((1 − r²)² + (2ζr)²), the denominator of the forced response, with the checked inputs; zero
+ * (ζ = 0 at r = 1, an unbounded response) is refused.
  */
-export function magnification(frequencyRatio: number, dampingRatio: number): number {
+function resonanceDenominator(frequencyRatio: number, dampingRatio: number) {
 	const r = nonNegative('frequencyRatio', frequencyRatio);
 	const z = nonNegative('dampingRatio', dampingRatio);
 	const d = Math.hypot(1 - r * r, 2 * z * r);
@@ -208,7 +208,15 @@ export function magnification(frequencyRatio: number, dampingRatio: number): num
 			'other than 1 when dampingRatio is 0 (the response is unbounded)',
 			r
 		);
-	return 1 / d;
+	return { r, z, d };
+}
+
+/**
+ * Dynamic magnification (force excitation), DMF(r) = 1/√((1 − r²)² + (2ζr)²), r = ω/ω₀ (F8).
+ * Unbounded for ζ = 0 at r = 1: that input is refused rather than returning Infinity.
+ */
+export function magnification(frequencyRatio: number, dampingRatio: number): number {
+	return 1 / resonanceDenominator(frequencyRatio, dampingRatio).d;
 }
 
 /** Phase lag of displacement behind force, φ = atan2(2ζr, 1 − r²), radians in [0, π] (F8). */
@@ -220,15 +228,7 @@ export function phaseLag(frequencyRatio: number, dampingRatio: number): number {
 
 /** Force (or base-motion) transmissibility T(r) = √((1 + (2ζr)²)/((1 − r²)² + (2ζr)²)) (F9). */
 export function transmissibility(frequencyRatio: number, dampingRatio: number): number {
-	const r = nonNegative('frequencyRatio', frequencyRatio);
-	const z = nonNegative('dampingRatio', dampingRatio);
-	const d = Math.hypot(1 - r * r, 2 * z * r);
-	if (d === 0)
-		throw new VibrationInputError(
-			'frequencyRatio',
-			'other than 1 when dampingRatio is 0 (the response is unbounded)',
-			r
-		);
+	const { r, z, d } = resonanceDenominator(frequencyRatio, dampingRatio);
 	return Math.hypot(1, 2 * z * r) / d;
 }
 

@@ -11,7 +11,7 @@ import * as audit from '$lib/server/db/audit';
 import { inWords } from '$lib/server/audit-words';
 import * as rules from '$lib/server/db/rule-sets';
 import { computeCheck } from '$lib/checks/compute';
-import { assetForm, reviewForm, sourceFormMeta } from '$lib/schemas/asset';
+import { assetForm, reviewForm, sourceFormMeta, withdrawReviewForm } from '$lib/schemas/asset';
 import { fieldErrors, formToObject } from '$lib/schemas/form';
 import { doneAction, failAction } from '$lib/server/forms';
 import { SOURCE_KINDS, type SourceKind } from '$lib/schemas/excitation';
@@ -102,6 +102,26 @@ export const load: PageServerLoad = (event) => {
 	};
 };
 
+/** The answer to a form whose excitation source is no longer on the asset. */
+const sourceGone = (raw: Record<string, unknown>, action: string) =>
+	failAction(404, action, String(raw.sourceId ?? ''), {
+		form: 'That excitation source is no longer on this asset.'
+	});
+
+/** A review edit; its refusals become the review form's errors (a check gone is a 404). */
+function reviewEdit(checkId: string, edit: () => void, done: string) {
+	try {
+		edit();
+	} catch (e) {
+		if (e instanceof edits.UnknownCheckError)
+			return failAction(404, 'review', checkId, { form: e.message });
+		if (e instanceof edits.ReviewError)
+			return failAction(e.status, 'review', checkId, { form: e.message });
+		throw e;
+	}
+	return doneAction('review', checkId, done);
+}
+
 export const actions: Actions = {
 	updateAsset: async (event) => {
 		const actor = requireRole(event, EDITORS);
@@ -128,10 +148,7 @@ export const actions: Actions = {
 		const { sheet } = loadSheet(event);
 		const raw = formToObject(await event.request.formData());
 		const source = sheet.sources.find((s) => s.id === raw.sourceId);
-		if (!source)
-			return failAction(404, 'updateSource', String(raw.sourceId ?? ''), {
-				form: 'That excitation source is no longer on this asset.'
-			});
+		if (!source) return sourceGone(raw, 'updateSource');
 		const f = sourceFields(source.kind as SourceKind, raw, actor);
 		if (!f.ok) return failAction(400, 'updateSource', source.id, f.errors);
 		const changed = edits.updateSource(sheet.asset.id, source.id, f.label, f.params, actor.id);
@@ -158,10 +175,7 @@ export const actions: Actions = {
 		const { sheet } = loadSheet(event);
 		const raw = formToObject(await event.request.formData());
 		const source = sheet.sources.find((s) => s.id === raw.sourceId);
-		if (!source)
-			return failAction(404, 'deleteSource', String(raw.sourceId ?? ''), {
-				form: 'That excitation source is no longer on this asset.'
-			});
+		if (!source) return sourceGone(raw, 'deleteSource');
 		edits.deleteSource(sheet.asset.id, source.id, actor.id);
 		return doneAction('deleteSource', source.id, 'Source removed.');
 	},
@@ -173,34 +187,24 @@ export const actions: Actions = {
 		if (!parsed.success)
 			return failAction(400, 'review', String(raw.checkId ?? ''), fieldErrors(parsed.error));
 		const { checkId, comment, outcome } = parsed.data;
-		try {
-			edits.markReviewed(sheet.asset.id, checkId, outcome, comment, actor.id);
-		} catch (e) {
-			if (e instanceof edits.UnknownCheckError)
-				return failAction(404, 'review', checkId, { form: e.message });
-			if (e instanceof edits.ReviewError)
-				return failAction(e.status, 'review', checkId, { form: e.message });
-			throw e;
-		}
-		return doneAction(
-			'review',
+		return reviewEdit(
 			checkId,
+			() => edits.markReviewed(sheet.asset.id, checkId, outcome, comment, actor.id),
 			outcome === 'fine' ? 'Marked reviewed, fine.' : 'Marked reviewed with remarks.'
 		);
 	},
 	withdrawReview: async (event) => {
 		const actor = requireRole(event, EDITORS);
 		const { sheet } = loadSheet(event);
-		const checkId = String((await event.request.formData()).get('checkId') ?? '');
-		try {
-			edits.withdrawReview(sheet.asset.id, checkId, actor.id);
-		} catch (e) {
-			if (e instanceof edits.UnknownCheckError)
-				return failAction(404, 'review', checkId, { form: e.message });
-			if (e instanceof edits.ReviewError)
-				return failAction(e.status, 'review', checkId, { form: e.message });
-			throw e;
-		}
-		return doneAction('review', checkId, 'Review withdrawn; the check awaits a review again.');
+		const raw = formToObject(await event.request.formData());
+		const parsed = withdrawReviewForm.safeParse(raw);
+		if (!parsed.success)
+			return failAction(400, 'review', String(raw.checkId ?? ''), fieldErrors(parsed.error));
+		const { checkId } = parsed.data;
+		return reviewEdit(
+			checkId,
+			() => edits.withdrawReview(sheet.asset.id, checkId, actor.id),
+			'Review withdrawn; the check awaits a review again.'
+		);
 	}
 };
