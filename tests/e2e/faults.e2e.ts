@@ -4,6 +4,7 @@
  * it again — every check arrives exactly once.
  */
 import { expect, test } from './fixtures.ts';
+import type { BrowserContext, Page } from '@playwright/test';
 import { cleanDir, startBuiltServer, withDatabase } from '../support/built-server.ts';
 import { openFieldOnline, outboxCount, saveChecks, syncAll } from './floor.ts';
 
@@ -37,6 +38,14 @@ function inspect(file: string, ids: string[]) {
 	);
 }
 
+/** Floor check opened online once, then three checks saved with the network off, in the outbox. */
+async function queueThreeOffline(context: BrowserContext, page: Page) {
+	await openFieldOnline(page);
+	await context.setOffline(true);
+	await saveChecks(page, ['KRW-HLP-202', 'KRW-HLP-203', 'KRW-BWP-301']);
+	await expect.poll(() => outboxCount(page)).toBe(3);
+}
+
 test('SIGKILL mid-batch: the database is intact, no half batch is stored, the tablet retries and nothing is lost or doubled', async ({
 	browser
 }) => {
@@ -46,10 +55,7 @@ test('SIGKILL mid-batch: the database is intact, no half batch is stored, the ta
 	const context = await browser.newContext({ baseURL: server.origin });
 	const page = await context.newPage();
 	try {
-		await openFieldOnline(page);
-		await context.setOffline(true);
-		await saveChecks(page, ['KRW-HLP-202', 'KRW-HLP-203', 'KRW-BWP-301']);
-		await expect.poll(() => outboxCount(page)).toBe(3);
+		await queueThreeOffline(context, page);
 		const before = inspect(server.dbFile, []);
 
 		const ids: string[] = [];
@@ -96,10 +102,7 @@ test('a server fault on the second item: the first is acknowledged and gone, the
 	const context = await browser.newContext({ baseURL: server.origin });
 	const page = await context.newPage();
 	try {
-		await openFieldOnline(page);
-		await context.setOffline(true);
-		await saveChecks(page, ['KRW-HLP-202', 'KRW-HLP-203', 'KRW-BWP-301']);
-		await expect.poll(() => outboxCount(page)).toBe(3);
+		await queueThreeOffline(context, page);
 		// reconnecting pushes at once; the armed fault fails the batch at its second item
 		await context.setOffline(false);
 		await expect.poll(() => outboxCount(page)).toBe(2);

@@ -25,37 +25,36 @@ describe('rolling-bearing defect frequencies (Harris & Kotzalas; domain.md §4)'
 		expect(2 * f.bsf).toBeCloseTo(4.7135, 3);
 	});
 
-	it('the same bearing at 1797 rpm: BPFO 107.36, BPFI 162.19, FTF 11.93, BSF 70.58 Hz (domain.md B2 [C])', () => {
+	// worked examples: [case, geometry (n, d, D, φ°), shaft Hz, expected Hz, decimal places]
+	it.each([
+		[
+			'the same bearing at 1797 rpm: BPFO 107.36, BPFI 162.19, FTF 11.93, BSF 70.58 Hz (domain.md B2 [C])',
+			[9, 0.3126, 1.537, 0],
+			1797 / 60,
+			{ bpfo: 107.36, bpfi: 162.19, ftf: 11.93, bsf: 70.58 },
+			2
+		],
+		[
+			'1800 rpm, n = 8, d = 10, D = 50, φ = 0: FTF 12, BPFO 96, BPFI 144, BSF 72 Hz (domain.md B3 [C])',
+			[8, 10, 50, 0],
+			30,
+			{ ftf: 12, bpfo: 96, bpfi: 144, bsf: 72 },
+			10
+		],
+		[
+			'n = 12, d = 10, D = 50, φ = 40°, 25 Hz: FTF 10.585, BPFO 127.019, BPFI 172.981, BSF 61.033 Hz (domain.md B4 [C])',
+			[12, 10, 50, 40],
+			25,
+			{ ftf: 10.585, bpfo: 127.019, bpfi: 172.981, bsf: 61.033 },
+			3
+		]
+	] as const)('%s', (_case, [n, d, D, angle], shaftHz, expected, places) => {
 		const f = bearingDefectFrequencies(
-			{ rollingElements: 9, elementDiameter: 0.3126, pitchDiameter: 1.537, contactAngleDeg: 0 },
-			1797 / 60
+			{ rollingElements: n, elementDiameter: d, pitchDiameter: D, contactAngleDeg: angle },
+			shaftHz
 		);
-		expect(f.bpfo).toBeCloseTo(107.36, 2);
-		expect(f.bpfi).toBeCloseTo(162.19, 2);
-		expect(f.ftf).toBeCloseTo(11.93, 2);
-		expect(f.bsf).toBeCloseTo(70.58, 2);
-	});
-
-	it('1800 rpm, n = 8, d = 10, D = 50, φ = 0: FTF 12, BPFO 96, BPFI 144, BSF 72 Hz (domain.md B3 [C])', () => {
-		const f = bearingDefectFrequencies(
-			{ rollingElements: 8, elementDiameter: 10, pitchDiameter: 50, contactAngleDeg: 0 },
-			30
-		);
-		expect(f.ftf).toBeCloseTo(12, 10);
-		expect(f.bpfo).toBeCloseTo(96, 10);
-		expect(f.bpfi).toBeCloseTo(144, 10);
-		expect(f.bsf).toBeCloseTo(72, 10);
-	});
-
-	it('n = 12, d = 10, D = 50, φ = 40°, 25 Hz: FTF 10.585, BPFO 127.019, BPFI 172.981, BSF 61.033 Hz (domain.md B4 [C])', () => {
-		const f = bearingDefectFrequencies(
-			{ rollingElements: 12, elementDiameter: 10, pitchDiameter: 50, contactAngleDeg: 40 },
-			25
-		);
-		expect(f.ftf).toBeCloseTo(10.585, 3);
-		expect(f.bpfo).toBeCloseTo(127.019, 3);
-		expect(f.bpfi).toBeCloseTo(172.981, 3);
-		expect(f.bsf).toBeCloseTo(61.033, 3);
+		for (const [k, v] of Object.entries(expected))
+			expect(f[k as keyof typeof expected], k).toBeCloseTo(v, places);
 	});
 
 	it('refuses impossible geometry', () => {
