@@ -4,7 +4,19 @@
  * and the speed sweep both use it; `keep` says whether the worker (and the file it has parsed)
  * stays for the next request, as the sweep's re-analysis with other channel roles needs.
  */
+import type { ModeInput } from '../schemas/sync.ts';
 import type { WorkerStatus } from './messages.ts';
+
+/**
+ * What a file's screen hands Floor check when the technician takes its modes: the modes, the file
+ * (it waits in the outbox), the typed sample rate, and what the server needs to analyse it again.
+ */
+export type TakeModes<Extra> = (
+	modes: ModeInput[],
+	file: File,
+	sampleRateHz: number | null,
+	extra: Extra
+) => void;
 
 export class AnalysisJob<Done extends { type: string }> {
 	busy = $state(false);
