@@ -417,42 +417,47 @@ function medianLevel(xs: Float64Array, from: number, to: number): number {
 }
 
 /**
+ * cos(wk) + i sin(wk) for k = 0, 1, 2 … by rotation, renormalised every 1,024 steps against drift:
+ * a cosine per sample cost four times the rest of the loops it serves.
+ */
+class Phasor {
+	c = 1;
+	s = 0;
+	k = 0;
+	readonly cw: number;
+	readonly sw: number;
+	constructor(w: number) {
+		this.cw = Math.cos(w);
+		this.sw = Math.sin(w);
+	}
+	step() {
+		const c = this.c * this.cw - this.s * this.sw;
+		this.s = this.s * this.cw + this.c * this.sw;
+		this.c = c;
+		if ((++this.k & 1023) === 0) {
+			const r = Math.sqrt(this.c * this.c + this.s * this.s);
+			this.c /= r;
+			this.s /= r;
+		}
+	}
+}
+
+/**
  * |Σ x e^(−iωt)| over x under a Hann window: the projection a tone's frequency maximises. Both the
- * phasor and the window turn by recurrence (renormalised every 1,024 samples): a cosine per sample
- * cost four times the rest of the loop.
+ * phasor and the window turn by recurrence (Phasor).
  */
 function projection(x: Float64Array, fs: number, f: number): number {
 	const n = x.length;
-	const w = (2 * Math.PI * f) / fs;
-	const cw = Math.cos(w);
-	const sw = Math.sin(w);
-	const v = (2 * Math.PI) / (n - 1);
-	const cv = Math.cos(v);
-	const sv = Math.sin(v);
-	let c = 1;
-	let s = 0;
-	let hc = 1; // cos(v·i), for the window 0.5 − 0.5 cos(v·i)
-	let hs = 0;
+	const p = new Phasor((2 * Math.PI * f) / fs);
+	const h = new Phasor((2 * Math.PI) / (n - 1)); // for the window 0.5 − 0.5 cos(v·i)
 	let re = 0;
 	let im = 0;
 	for (let i = 0; i < n; i++) {
-		const hx = (0.5 - 0.5 * hc) * x[i];
-		re += hx * c;
-		im -= hx * s;
-		const c2 = c * cw - s * sw;
-		s = s * cw + c * sw;
-		c = c2;
-		const h2 = hc * cv - hs * sv;
-		hs = hs * cv + hc * sv;
-		hc = h2;
-		if ((i & 1023) === 1023) {
-			const r = Math.sqrt(c * c + s * s);
-			c /= r;
-			s /= r;
-			const q = Math.sqrt(hc * hc + hs * hs);
-			hc /= q;
-			hs /= q;
-		}
+		const hx = (0.5 - 0.5 * h.c) * x[i];
+		re += hx * p.c;
+		im -= hx * p.s;
+		p.step();
+		h.step();
 	}
 	return Math.sqrt(re * re + im * im);
 }
@@ -695,23 +700,12 @@ function withoutTones(
 	const rest = Float64Array.from(x);
 	const fit = frequencies.map((f) => ({ f, a: 0, b: 0 }));
 	const add = (t: { f: number; a: number; b: number }, sign: number) => {
-		const w = (2 * Math.PI * t.f) / fs;
-		const cw = Math.cos(w);
-		const sw = Math.sin(w);
+		const p = new Phasor((2 * Math.PI * t.f) / fs);
 		const a = sign * t.a;
 		const b = sign * t.b;
-		let c = 1;
-		let s = 0;
 		for (let i = 0; i < rest.length; i++) {
-			rest[i] += a * c + b * s;
-			const c2 = c * cw - s * sw;
-			s = s * cw + c * sw;
-			c = c2;
-			if ((i & 1023) === 1023) {
-				const r = Math.sqrt(c * c + s * s);
-				c /= r;
-				s /= r;
-			}
+			rest[i] += a * p.c + b * p.s;
+			p.step();
 		}
 	};
 	for (let round = 0; round < (fit.length > 1 ? 3 : 1); round++)
