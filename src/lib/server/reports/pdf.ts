@@ -55,6 +55,14 @@ function smallNote(doc: PDFKit.PDFDocument, text: string) {
 	doc.fontSize(8).fillColor(muted).text(text).fillColor(ink).fontSize(9.5);
 }
 
+/** A chart's note, back at the left margin at `y` below the drawing. */
+function noteBelow(doc: PDFKit.PDFDocument, y: number, text: string) {
+	doc.fillColor(ink).fontSize(9.5);
+	doc.x = doc.page.margins.left;
+	doc.y = y;
+	smallNote(doc, text);
+}
+
 function heading(doc: PDFKit.PDFDocument, text: string) {
 	if (doc.y > 720) doc.addPage();
 	doc
@@ -272,11 +280,9 @@ function diagram(
 	doc.fillColor(muted);
 	doc.text('shaft speed (rpm)', X, Y + H + 14, { width: W, align: 'center' });
 	doc.text(unit, X - 32, Y - 10);
-	doc.fillColor(ink).fontSize(9.5);
-	doc.x = doc.page.margins.left;
-	doc.y = Y + H + 30;
-	smallNote(
+	noteBelow(
 		doc,
+		Y + H + 30,
 		'Lines: excitation orders (solid) and fixed frequencies (dashed). Bands: each natural frequency with its required margin. Grey: the speed range; red: avoidance bands; black: the measured speed.'
 	);
 }
@@ -581,11 +587,9 @@ function marginTrend(
 			.fill(
 				MARK_COLOURS[(p.v as MarkVerdict) in MARK_COLOURS ? (p.v as MarkVerdict) : 'unchecked']
 			);
-	doc.fillColor(ink).fontSize(9.5);
-	doc.x = doc.page.margins.left;
-	doc.y = Y + H + 16;
-	smallNote(
+	noteBelow(
 		doc,
+		Y + H + 16,
 		'Worst separation margin over the speed range at each check (0 % where a mode sits inside it).'
 	);
 }
