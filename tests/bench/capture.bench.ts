@@ -11,6 +11,7 @@ import { startBuiltServer } from '../support/built-server.ts';
 import { CHROMIUM, CHROMIUM_ARGS, fakeAudioInputArgs } from '../support/chromium.ts';
 import { writeTapWav } from '../support/tap-signal.ts';
 import { median, percentile, type Figure } from './harness.ts';
+import { signInTechnician } from './server.ts';
 
 const RUNS = 5;
 const FS = 44100;
@@ -43,11 +44,7 @@ export async function captureBench(): Promise<Figure[]> {
 	try {
 		const context = await browser.newContext({ baseURL: server.origin, serviceWorkers: 'allow' });
 		const page = await context.newPage();
-		await page.goto('/login');
-		await page.getByLabel('E-mail').fill('tech@example.com');
-		await page.getByLabel('Password').fill('tech-demo-2026');
-		await page.getByRole('button', { name: 'Sign in' }).click();
-		await page.waitForURL(/\/field/);
+		await signInTechnician(page);
 		await page.getByLabel('Search by tag or name').fill('KRW-RWP-102');
 		await page
 			.getByTestId('asset-list')

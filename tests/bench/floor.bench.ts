@@ -9,15 +9,17 @@ import { join } from 'node:path';
 import { gzipSync } from 'node:zlib';
 import { chromium } from '@playwright/test';
 import { startBuiltServer } from '../support/built-server.ts';
+import { CHROMIUM, CHROMIUM_ARGS } from '../support/chromium.ts';
 import { median, percentile, type Figure } from './harness.ts';
+import { signInTechnician } from './server.ts';
 
 const RUNS = 7;
 
 export async function floorBench(): Promise<Figure[]> {
 	const server = await startBuiltServer(4195);
 	const browser = await chromium.launch({
-		executablePath: '/usr/bin/chromium',
-		args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking']
+		executablePath: CHROMIUM,
+		args: CHROMIUM_ARGS
 	});
 	try {
 		const context = await browser.newContext({
@@ -31,11 +33,7 @@ export async function floorBench(): Promise<Figure[]> {
 			if (r.request().resourceType() === 'script' || r.url().endsWith('.js'))
 				scripts.add(new URL(r.url()).pathname);
 		});
-		await page.goto('/login');
-		await page.getByLabel('E-mail').fill('tech@example.com');
-		await page.getByLabel('Password').fill('tech-demo-2026');
-		await page.getByRole('button', { name: 'Sign in' }).click();
-		await page.waitForURL(/\/field/);
+		await signInTechnician(page);
 		await page
 			.locator('[data-testid="ready-offline"][data-ready="true"]')
 			.waitFor({ timeout: 30_000 });

@@ -1,6 +1,8 @@
 /** The built app for the benchmarks: a throw-away database, and quiet about the made-up checks. */
 import { startBuiltServer, type BuiltServer } from '../support/built-server.ts';
 import { checkItem } from '../support/check-item.ts';
+import { DEMO_PASSWORDS } from '../../src/lib/server/db/demo-data.ts';
+import type { Page } from '@playwright/test';
 
 export { signInCookie, withDatabase } from '../support/built-server.ts';
 
@@ -70,4 +72,13 @@ export async function pushAll(
 	if (applied !== items.length)
 		throw new Error(`only ${applied} of ${items.length} checks applied`);
 	return { seconds, perSecond: items.length / seconds };
+}
+
+/** The demo technician signs in through the form, as on a tablet, and lands on Floor check. */
+export async function signInTechnician(page: Page) {
+	await page.goto('/login');
+	await page.getByLabel('E-mail').fill('tech@example.com');
+	await page.getByLabel('Password').fill(DEMO_PASSWORDS.technician);
+	await page.getByRole('button', { name: 'Sign in' }).click();
+	await page.waitForURL(/\/field/);
 }
