@@ -80,6 +80,11 @@ export const sourceParams = {
 export type SourceKind = keyof typeof sourceParams;
 export const SOURCE_KINDS = Object.keys(sourceParams) as SourceKind[];
 
+/** The kind a new source is added as (the add form's choice). */
+export const sourceKind = z.enum(SOURCE_KINDS as [SourceKind, ...SourceKind[]], {
+	error: 'Choose the kind of source.'
+});
+
 export const SOURCE_KIND_LABELS: Record<SourceKind, string> = {
 	shaft: 'Shaft orders',
 	vane: 'Vane pass (pump)',

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { ruleSetForm } from './rule-set.ts';
+import { parseRuleSetSave, ruleSetForm, ruleSetsQuery } from './rule-set.ts';
 
 const base = {
 	name: 'Pump structures',
@@ -23,5 +23,33 @@ describe('rule-set form', () => {
 		expect(bad.success).toBe(false);
 		expect(bad.error?.issues[0].message).toMatch(/at most 100 %/);
 		expect(ruleSetForm.safeParse({ ...base, perKind: { nonsense: '10' } }).success).toBe(false);
+	});
+});
+
+describe('the rule-set save form as posted', () => {
+	it('gathers the perKind.<kind> fields, leaves empty ones out, and reads an empty id as new', () => {
+		const r = parseRuleSetSave({
+			...base,
+			id: '',
+			'perKind.vane': '20',
+			'perKind.blade': ' ',
+			'perKind.gear': ''
+		});
+		expect(r.id.data).toBeNull();
+		expect(r.form.data?.perKind).toEqual({ vane: 20 });
+		expect(parseRuleSetSave({ ...base, id: 'rs-1' }).id.data).toBe('rs-1');
+	});
+
+	it('refuses a margin for a kind that does not exist and an overlong id', () => {
+		expect(parseRuleSetSave({ ...base, 'perKind.nonsense': '10' }).form.success).toBe(false);
+		expect(parseRuleSetSave({ ...base, id: 'x'.repeat(65) }).id.success).toBe(false);
+	});
+});
+
+describe('the rule-sets page address', () => {
+	it('names a published template, or none for a key that is not one', () => {
+		expect(ruleSetsQuery.parse({ from: 'api684-af' }).from).toBe('api684-af');
+		expect(ruleSetsQuery.parse({ from: 'no-such-rule' }).from).toBeNull();
+		expect(ruleSetsQuery.parse({}).from).toBeNull();
 	});
 });

@@ -1,6 +1,7 @@
 /** The rule-set form: a fixed margin (with optional per-kind margins) or the amplification rule. */
 import { z } from 'zod';
 import { SOURCE_KINDS } from './excitation.ts';
+import { RULE_TEMPLATES } from '../rules/templates.ts';
 
 const pct = (what: string) =>
 	z.preprocess(
@@ -38,3 +39,37 @@ export const ruleSetForm = z
 	});
 
 export type RuleSetForm = z.infer<typeof ruleSetForm>;
+
+/** A rule set's id as the save form posts it: empty for a new one. */
+export const ruleSetId = z
+	.string()
+	.max(64, 'Which rule set?')
+	.default('')
+	.transform((v) => v || null);
+
+/**
+ * The save form as posted (`formToObject`): the id, the rule set's fields, and one `perKind.<kind>`
+ * field per kind, an empty one meaning that kind takes the rule's own margin.
+ */
+export function parseRuleSetSave(raw: Record<string, unknown>) {
+	const { id, ...rest } = raw;
+	const fields: Record<string, unknown> = { perKind: {} };
+	const perKind = fields.perKind as Record<string, unknown>;
+	for (const [k, v] of Object.entries(rest)) {
+		if (!k.startsWith('perKind.')) fields[k] = v;
+		else if (typeof v !== 'string' || v.trim() !== '') perKind[k.slice('perKind.'.length)] = v;
+	}
+	return { id: ruleSetId.safeParse(id), form: ruleSetForm.safeParse(fields) };
+}
+
+/**
+ * The rule-sets page's address: `?from=<template>` starts the new rule set's form from a
+ * published rule. A key that names no template starts an empty form, as a stale link should.
+ */
+export const ruleSetsQuery = z.object({
+	from: z
+		.enum(RULE_TEMPLATES.map((t) => t.key) as [string, ...string[]])
+		.nullable()
+		.catch(null)
+		.default(null)
+});

@@ -205,6 +205,26 @@ export const pushBatch = z
 	})
 	.strict();
 
+/** The pull's address: the cursor of the last pull (0 for the first) and its scope key. */
+export const pullQuery = z
+	.object({
+		since: z
+			.string()
+			.regex(/^\d{1,15}$/, 'since must be a whole number (the cursor of the last pull, or 0).')
+			.transform(Number)
+			.default(0),
+		scope: z
+			.string()
+			.regex(/^[0-9a-f]{16}$/, 'scope must be the key of the last pull.')
+			.nullable()
+			.default(null)
+	})
+	.strict();
+
+/** The pull's query parsed; an empty parameter counts as absent. */
+export const parsePullQuery = (params: URLSearchParams) =>
+	pullQuery.safeParse(Object.fromEntries([...params].filter(([, v]) => v !== '')));
+
 export type ItemStatus = 'applied' | 'duplicate' | 'rejected';
 
 export interface ItemResult {

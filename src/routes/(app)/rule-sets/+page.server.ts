@@ -2,10 +2,9 @@ import type { Actions, PageServerLoad } from './$types';
 import { requireRole, requireUser } from '$lib/server/guard';
 import * as rules from '$lib/server/db/rule-sets';
 import { inTurn } from '$lib/server/turns';
-import { ruleSetForm } from '$lib/schemas/rule-set';
-import { fieldErrors } from '$lib/schemas/form';
+import { parseRuleSetSave, ruleSetsQuery } from '$lib/schemas/rule-set';
+import { fieldErrors, formToObject } from '$lib/schemas/form';
 import { doneAction, failAction } from '$lib/server/forms';
-import { SOURCE_KINDS } from '$lib/schemas/excitation';
 import { EDITORS } from '$lib/roles';
 import { RULE_TEMPLATES, ruleTemplate } from '$lib/rules/templates';
 
@@ -15,32 +14,17 @@ export const load: PageServerLoad = (event) => {
 	return {
 		ruleSets: rules.list(),
 		templates: RULE_TEMPLATES.map((t) => ({ key: t.key, label: t.label })),
-		template: ruleTemplate(event.url.searchParams.get('from'))
+		template: ruleTemplate(ruleSetsQuery.parse(Object.fromEntries(event.url.searchParams)).from)
 	};
 };
-
-function parse(form: FormData) {
-	const perKind: Record<string, string> = {};
-	for (const k of SOURCE_KINDS) {
-		const v = String(form.get(`perKind.${k}`) ?? '').trim();
-		if (v !== '') perKind[k] = v;
-	}
-	return ruleSetForm.safeParse({
-		name: String(form.get('name') ?? ''),
-		kind: String(form.get('kind') ?? ''),
-		percent: String(form.get('percent') ?? ''),
-		perKind,
-		source: String(form.get('source') ?? ''),
-		edition: String(form.get('edition') ?? '')
-	});
-}
 
 export const actions: Actions = {
 	save: async (event) => {
 		const actor = requireRole(event, EDITORS);
-		const form = await event.request.formData();
-		const id = String(form.get('id') ?? '') || null;
-		const parsed = parse(form);
+		const posted = parseRuleSetSave(formToObject(await event.request.formData()));
+		if (!posted.id.success) return failAction(400, 'save', 'new', fieldErrors(posted.id.error));
+		const id = posted.id.data;
+		const parsed = posted.form;
 		if (!parsed.success) return failAction(400, 'save', id ?? 'new', fieldErrors(parsed.error));
 		try {
 			const r = await inTurn(() => rules.save(id, parsed.data, actor.id));

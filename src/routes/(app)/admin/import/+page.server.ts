@@ -5,8 +5,7 @@ import * as importer from '$lib/server/db/import';
 import { inTurn } from '$lib/server/turns';
 import { declaredLength } from '$lib/server/body';
 import { isZip, sheetToCsv, WorkbookError } from '$lib/server/xlsx';
-
-const MAX = 2 * 1024 * 1024;
+import { MAX_ASSET_LIST_BYTES, parseAssetListUpload } from '$lib/schemas/import';
 
 export const load: PageServerLoad = (event) => {
 	requireUser(event);
@@ -18,7 +17,7 @@ async function textOf(
 ): Promise<{ text: string } | { error: string; status?: number }> {
 	// refuse from the declared length, before reading a body that cannot be an asset list
 	const declared = declaredLength(request);
-	if (declared !== null && declared > MAX + 64 * 1024)
+	if (declared !== null && declared > MAX_ASSET_LIST_BYTES + 64 * 1024)
 		return {
 			error: `The upload is ${(declared / 1048576).toFixed(1)} MB; an asset list may be at most 2 MB.`,
 			status: 413
@@ -32,13 +31,10 @@ async function textOf(
 			status: 415
 		};
 	}
-	const file = form.get('file');
-	const kept = form.get('text');
-	if (file instanceof File && file.size > 0) {
-		if (file.size > MAX)
-			return {
-				error: `The file is ${(file.size / 1048576).toFixed(1)} MB; an asset list may be at most 2 MB.`
-			};
+	const upload = parseAssetListUpload(form);
+	if (!upload.success) return { error: upload.error.issues[0].message };
+	const { file, text: kept } = upload.data;
+	if (file) {
 		const bytes = new Uint8Array(await file.arrayBuffer());
 		// a workbook (.xlsx) is read into the same CSV text, so the same rules apply to both
 		if (/\.xlsx$/i.test(file.name) || isZip(bytes)) {
@@ -51,7 +47,7 @@ async function textOf(
 		}
 		return { text: new TextDecoder().decode(bytes) };
 	}
-	if (typeof kept === 'string' && kept.length > 0 && kept.length <= MAX) return { text: kept };
+	if (kept) return { text: kept };
 	return { error: 'Choose a CSV or .xlsx file.' };
 }
 

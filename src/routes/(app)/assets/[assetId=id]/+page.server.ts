@@ -14,7 +14,7 @@ import { computeCheck } from '$lib/checks/compute';
 import { assetForm, reviewForm, sourceFormMeta, withdrawReviewForm } from '$lib/schemas/asset';
 import { fieldErrors, formToObject } from '$lib/schemas/form';
 import { doneAction, failAction } from '$lib/server/forms';
-import { SOURCE_KINDS, type SourceKind } from '$lib/schemas/excitation';
+import { SOURCE_KINDS, sourceKind, type SourceKind } from '$lib/schemas/excitation';
 import type { SessionUser } from '$lib/server/auth';
 import { formFromParams, paramsFromForm } from '$lib/schemas/source-form';
 import { canEditAssets, canPlan, EDITORS } from '$lib/roles';
@@ -162,9 +162,10 @@ export const actions: Actions = {
 		const actor = requireRole(event, EDITORS);
 		const { sheet } = loadSheet(event);
 		const raw = formToObject(await event.request.formData());
-		const kind = String(raw.kind ?? '') as SourceKind;
-		if (!SOURCE_KINDS.includes(kind))
-			return failAction(400, 'addSource', 'new', { kind: 'Choose the kind of source.' });
+		const chosen = sourceKind.safeParse(raw.kind);
+		if (!chosen.success)
+			return failAction(400, 'addSource', 'new', { kind: chosen.error.issues[0].message });
+		const kind = chosen.data;
 		const f = sourceFields(kind, raw, actor);
 		if (!f.ok) return failAction(400, 'addSource', 'new', f.errors, raw);
 		edits.addSource(sheet.asset.id, kind, f.label, f.params, actor.id);
