@@ -11,7 +11,7 @@
 import { and, asc, eq, gt, inArray, ne, notInArray, or } from 'drizzle-orm';
 import { sha256 } from '@oslojs/crypto/sha2';
 import { encodeHexLowerCase } from '@oslojs/encoding';
-import { db } from '../db/index.ts';
+import { db, type Db } from '../db/index.ts';
 import {
 	areas,
 	assetStatus,
@@ -28,25 +28,24 @@ import { allLimits } from '../db/severity.ts';
 import type { PullResponse, PulledAsset } from '../../schemas/sync.ts';
 import type { Role } from '../../roles.ts';
 
+/** A read inside the pull's one transaction. */
+type Tx = Pick<Db, 'select' | 'selectDistinct'>;
+
 /** A short digest of what the user may read: it changes when their role or sites change. */
 export function scopeKey(role: Role, scope: string[] | 'all'): string {
 	const text = `${role}:${scope === 'all' ? '*' : [...scope].sort().join(',')}`;
 	return encodeHexLowerCase(sha256(new TextEncoder().encode(text))).slice(0, 16);
 }
 
-export function pull(
-	user: { id: string; role: Role },
-	since: number,
-	clientScope: string | null = null
-): PullResponse {
-	return db.transaction((tx) => {
-		const cursor = currentVersion(tx);
-		const scope = visibleSiteIds(user);
-		const key = scopeKey(user.role, scope);
-		const full = since <= 0 || since > cursor || clientScope !== key;
-		const siteFilter =
-			scope === 'all' ? undefined : inArray(assets.siteId, scope.length ? scope : ['-']);
-		const changedSourceAssets = full
+/** What changed since the cursor, or everything (`since` null: a full sync). */
+type Since = number | null;
+
+/** The assets in scope changed since the cursor, with their site, area and board row. */
+function changedAssets(tx: Tx, since: Since, scope: string[] | 'all') {
+	const siteFilter =
+		scope === 'all' ? undefined : inArray(assets.siteId, scope.length ? scope : ['-']);
+	const changedSourceAssets =
+		since === null
 			? []
 			: tx
 					.selectDistinct({ id: excitationSources.assetId })
@@ -54,7 +53,8 @@ export function pull(
 					.where(gt(excitationSources.version, since))
 					.all()
 					.map((r) => r.id);
-		const rows = tx
+	return (
+		tx
 			.select({
 				id: assets.id,
 				tag: assets.tag,
@@ -88,7 +88,7 @@ export function pull(
 			.where(
 				and(
 					siteFilter,
-					full
+					since === null
 						? undefined
 						: or(
 								gt(assets.version, since),
@@ -100,95 +100,124 @@ export function pull(
 				)
 			)
 			.orderBy(asc(assets.tag))
-			.all();
-		const ids = rows.map((r) => r.id);
-		const sources = ids.length
+			.all()
+	);
+}
+
+/** The excitation sources of these assets, in their order, by asset. */
+function sourcesByAsset(tx: Tx, ids: string[]) {
+	const rows = ids.length
+		? tx
+				.select({
+					id: excitationSources.id,
+					assetId: excitationSources.assetId,
+					kind: excitationSources.kind,
+					label: excitationSources.label,
+					params: excitationSources.params,
+					sortOrder: excitationSources.sortOrder
+				})
+				.from(excitationSources)
+				.where(inArray(excitationSources.assetId, ids))
+				.orderBy(asc(excitationSources.sortOrder))
+				.all()
+		: [];
+	const byAsset = new Map<string, PulledAsset['sources']>();
+	for (const { assetId, params, ...source } of rows) {
+		const list = byAsset.get(assetId) ?? [];
+		list.push({ ...source, params: params as Record<string, unknown> });
+		byAsset.set(assetId, list);
+	}
+	return byAsset;
+}
+
+/** Every rule set changed since the cursor (rule sets are shared by all sites). */
+function changedRuleSets(tx: Tx, since: Since) {
+	return tx
+		.select()
+		.from(ruleSets)
+		.where(since === null ? undefined : gt(ruleSets.version, since))
+		.all()
+		.map((r) => ({
+			id: r.id,
+			name: r.name,
+			kind: r.kind,
+			percent: r.percent,
+			perKind: r.perKind ?? null,
+			source: r.source,
+			edition: r.edition,
+			version: r.version
+		}));
+}
+
+/** The assets that moved out of the user's sites since the cursor: the tablet forgets them. */
+function leftScope(tx: Tx, since: Since, scope: string[] | 'all') {
+	if (since === null || scope === 'all') return [];
+	return tx
+		.select({ id: assets.id })
+		.from(assets)
+		.where(and(gt(assets.version, since), notInArray(assets.siteId, scope)))
+		.all()
+		.map((r) => ({ entity: 'asset' as const, id: r.id }));
+}
+
+/** The modes of these checks (each asset's latest), by check. */
+function modesByCheck(tx: Tx, checkIds: string[]) {
+	return groupBy(
+		tx
+			.select({
+				checkId: modes.checkId,
+				frequencyHz: modes.frequencyHz,
+				dampingRatio: modes.dampingRatio,
+				direction: modes.direction,
+				location: modes.location
+			})
+			.from(modes)
+			.where(inArray(modes.checkId, checkIds))
+			.all(),
+		(m) => m.checkId
+	);
+}
+
+/** The follow-ups of these assets not yet closed by a retest, soonest due first, by asset. */
+function openFollowUpsByAsset(tx: Tx, ids: string[]) {
+	return groupBy(
+		ids.length
 			? tx
 					.select({
-						id: excitationSources.id,
-						assetId: excitationSources.assetId,
-						kind: excitationSources.kind,
-						label: excitationSources.label,
-						params: excitationSources.params,
-						sortOrder: excitationSources.sortOrder
+						id: followUps.id,
+						assetId: followUps.assetId,
+						title: followUps.title,
+						status: followUps.status,
+						dueDate: followUps.dueDate
 					})
-					.from(excitationSources)
-					.where(inArray(excitationSources.assetId, ids))
-					.orderBy(asc(excitationSources.sortOrder))
+					.from(followUps)
+					.where(and(inArray(followUps.assetId, ids), ne(followUps.status, 'retested')))
+					.orderBy(asc(followUps.dueDate))
 					.all()
-			: [];
-		const byAsset = new Map<string, PulledAsset['sources']>();
-		for (const s of sources) {
-			const list = byAsset.get(s.assetId) ?? [];
-			list.push({
-				id: s.id,
-				kind: s.kind,
-				label: s.label,
-				params: s.params as Record<string, unknown>,
-				sortOrder: s.sortOrder
-			});
-			byAsset.set(s.assetId, list);
-		}
-		const rules = tx
-			.select()
-			.from(ruleSets)
-			.where(full ? undefined : gt(ruleSets.version, since))
-			.all()
-			.map((r) => ({
-				id: r.id,
-				name: r.name,
-				kind: r.kind,
-				percent: r.percent,
-				perKind: r.perKind ?? null,
-				source: r.source,
-				edition: r.edition,
-				version: r.version
-			}));
-		const deleted =
-			full || scope === 'all'
-				? []
-				: tx
-						.select({ id: assets.id })
-						.from(assets)
-						.where(and(gt(assets.version, since), notInArray(assets.siteId, scope)))
-						.all()
-						.map((r) => ({ entity: 'asset' as const, id: r.id }));
-		const lastModes = groupBy(
-			tx
-				.select({
-					checkId: modes.checkId,
-					frequencyHz: modes.frequencyHz,
-					dampingRatio: modes.dampingRatio,
-					direction: modes.direction,
-					location: modes.location
-				})
-				.from(modes)
-				.where(
-					inArray(
-						modes.checkId,
-						rows.flatMap((r) => (r.latestCheckId ? [r.latestCheckId] : []))
-					)
-				)
-				.all(),
-			(m) => m.checkId
+			: [],
+		(f) => f.assetId
+	);
+}
+
+export function pull(
+	user: { id: string; role: Role },
+	since: number,
+	clientScope: string | null = null
+): PullResponse {
+	return db.transaction((tx) => {
+		const cursor = currentVersion(tx);
+		const scope = visibleSiteIds(user);
+		const key = scopeKey(user.role, scope);
+		const full = since <= 0 || since > cursor || clientScope !== key;
+		const from = full ? null : since;
+		const rows = changedAssets(tx, from, scope);
+		const ids = rows.map((r) => r.id);
+		const sources = sourcesByAsset(tx, ids);
+		const lastModes = modesByCheck(
+			tx,
+			rows.flatMap((r) => (r.latestCheckId ? [r.latestCheckId] : []))
 		);
-		const open = groupBy(
-			ids.length
-				? tx
-						.select({
-							id: followUps.id,
-							assetId: followUps.assetId,
-							title: followUps.title,
-							status: followUps.status,
-							dueDate: followUps.dueDate
-						})
-						.from(followUps)
-						.where(and(inArray(followUps.assetId, ids), ne(followUps.status, 'retested')))
-						.orderBy(asc(followUps.dueDate))
-						.all()
-				: [],
-			(f) => f.assetId
-		);
+		const open = openFollowUpsByAsset(tx, ids);
 		return {
 			cursor,
 			full,
@@ -196,7 +225,7 @@ export function pull(
 			assets: rows.map(
 				({ latestCheckId, checkedAt, checkedBy, checkedRpm, verdict, ...r }): PulledAsset => ({
 					...r,
-					sources: byAsset.get(r.id) ?? [],
+					sources: sources.get(r.id) ?? [],
 					lastCheck:
 						latestCheckId && checkedAt !== null
 							? {
@@ -211,9 +240,9 @@ export function pull(
 					openFollowUps: (open.get(r.id) ?? []).map(({ assetId: _a, ...f }) => f)
 				})
 			),
-			ruleSets: rules,
+			ruleSets: changedRuleSets(tx, from),
 			severityLimits: allLimits(tx).map(({ updatedAt: _u, ...l }) => l),
-			deleted,
+			deleted: leftScope(tx, from, scope),
 			serverTime: Date.now()
 		};
 	});
