@@ -94,13 +94,8 @@ export function detectHits(force: ArrayLike<number>, trigger: number, doubleWind
 	return hits;
 }
 
-export function analyzeImpact(
-	force: ArrayLike<number>,
-	response: ArrayLike<number>,
-	sampleRateHz: number,
-	options: ImpactOptions = {}
-): ImpactResult {
-	const fs = positive('sampleRateHz', sampleRateHz);
+/** Both channels as long as each other, with at least 64 finite samples. */
+function checkChannels(force: ArrayLike<number>, response: ArrayLike<number>) {
 	integerAtLeast('number of samples', force.length, 64);
 	if (response.length !== force.length)
 		throw new VibrationInputError(
@@ -114,9 +109,13 @@ export function analyzeImpact(
 		if (!Number.isFinite(response[i]))
 			throw new VibrationInputError(`response[${i}]`, 'a finite number', response[i]);
 	}
-	const progress = options.onProgress ?? (() => {});
-	const trigger = positive('trigger', options.trigger ?? 0.1);
-	const tauW = options.exponentialWindowS ?? null;
+}
+
+/**
+ * The hits, double hits told apart, and the segment each accepted hit is analysed over: a power of
+ * two no longer than the spacing of hits nor the time until the next one.
+ */
+function hitsAndSegment(force: ArrayLike<number>, trigger: number) {
 	// provisional hits to size the segments: each hit gets the time until the next one
 	const provisional = detectHits(force, trigger, 1);
 	if (provisional.length === 0)
@@ -137,8 +136,8 @@ export function analyzeImpact(
 		? gaps.sort((a, b) => a - b)[Math.floor(gaps.length / 2)]
 		: force.length;
 	const hits = detectHits(force, trigger, Math.max(20 * widest, Math.floor(typical / 10)));
-	const acceptedHits = hits.filter((h) => h.accepted);
-	if (acceptedHits.length === 0)
+	const accepted = hits.filter((h) => h.accepted);
+	if (accepted.length === 0)
 		throw new VibrationInputError(
 			'force channel',
 			'at least one clean hit (every hit was a double hit)',
@@ -146,11 +145,28 @@ export function analyzeImpact(
 		);
 	const usable =
 		hits.length > 1
-			? Math.max(64, Math.min(...acceptedHits.map((h) => nextHitGap(h, hits, force.length))))
-			: force.length - acceptedHits[0].index;
+			? Math.max(64, Math.min(...accepted.map((h) => nextHitGap(h, hits, force.length))))
+			: force.length - accepted[0].index;
 	let seg = 1;
 	while (seg * 2 <= Math.max(64, Math.min(spacing, usable))) seg *= 2;
-	const pre = Math.floor((options.preTrigger ?? 0.05) * seg);
+	return { hits, accepted, seg };
+}
+
+/**
+ * The auto- and cross-spectra summed over the accepted hits: force window on the force, an
+ * exponential window from the trigger on both channels when asked. A hit too near the end for a
+ * full segment is set aside, with the reason.
+ */
+function averagedSpectra(
+	force: ArrayLike<number>,
+	response: ArrayLike<number>,
+	fs: number,
+	accepted: Hit[],
+	seg: number,
+	pre: number,
+	tauW: number | null,
+	progress: (fraction: number) => void
+) {
 	const nfft = seg * 2;
 	const half = nfft / 2;
 	const gff = new Float64Array(half + 1);
@@ -158,7 +174,7 @@ export function analyzeImpact(
 	const gre = new Float64Array(half + 1);
 	const gim = new Float64Array(half + 1);
 	let averages = 0;
-	for (const h of acceptedHits) {
+	for (const h of accepted) {
 		const s0 = Math.max(0, h.index - pre);
 		if (s0 + seg > force.length) {
 			h.accepted = false;
@@ -185,24 +201,39 @@ export function analyzeImpact(
 			gim[k] += F.re[k] * X.im[k] - F.im[k] * X.re[k];
 		}
 		averages++;
-		progress(averages / acceptedHits.length / 2);
+		progress(averages / accepted.length / 2);
 	}
 	if (averages === 0)
 		throw new VibrationInputError('force channel', 'a hit with a full segment after it', 0);
-	const mag = new Float64Array(half + 1);
-	const mag2 = new Float64Array(half + 1);
-	const coh = new Float64Array(half + 1);
-	for (let k = 0; k <= half; k++) {
-		mag[k] = gff[k] > 0 ? Math.hypot(gre[k], gim[k]) / gff[k] : 0;
+	return { gff, gxx, gre, gim, averages, nfft };
+}
+
+/** |H1| = |G_fx|/G_ff, |H2| = G_xx/|G_fx| and the coherence γ² = |G_fx|²/(G_ff·G_xx), per bin. */
+function frfOf({ gff, gxx, gre, gim }: ReturnType<typeof averagedSpectra>) {
+	const n = gff.length;
+	const h1 = new Float64Array(n);
+	const h2 = new Float64Array(n);
+	const coherence = new Float64Array(n);
+	for (let k = 0; k < n; k++) {
+		h1[k] = gff[k] > 0 ? Math.hypot(gre[k], gim[k]) / gff[k] : 0;
 		const gfx = Math.hypot(gre[k], gim[k]);
-		mag2[k] = gfx > 0 ? gxx[k] / gfx : 0;
-		coh[k] = gff[k] > 0 && gxx[k] > 0 ? (gre[k] ** 2 + gim[k] ** 2) / (gff[k] * gxx[k]) : 0;
+		h2[k] = gfx > 0 ? gxx[k] / gfx : 0;
+		coherence[k] = gff[k] > 0 && gxx[k] > 0 ? (gre[k] ** 2 + gim[k] ** 2) / (gff[k] * gxx[k]) : 0;
 	}
-	const df = fs / nfft;
-	const resolution = fs / seg;
-	const kBand = usableBandEnd(gff, positive('forceDropDb', options.forceDropDb ?? 10));
-	const fMax = Math.min(options.maxFrequencyHz ?? Infinity, 0.45 * fs, kBand * df);
-	const kMax = Math.floor(fMax / df);
+	return { h1, h2, coherence };
+}
+
+/** The FRF's modes up to bin kMax, tallest first: half-power frequency and damping, and flags. */
+function frfModes(
+	frf: ReturnType<typeof frfOf>,
+	kMax: number,
+	df: number,
+	resolution: number,
+	averages: number,
+	tauW: number | null,
+	options: ImpactOptions
+): FrfMode[] {
+	const mag = frf.h1;
 	let tallest = 0;
 	for (let k = 2; k <= kMax; k++) tallest = Math.max(tallest, mag[k]);
 	const minProm = options.minProminence ?? 0.02;
@@ -222,7 +253,7 @@ export function analyzeImpact(
 		const windowDamping = tauW ? 1 / (2 * Math.PI * f * tauW) : 0;
 		const zeta = exact ? Math.max(0, exact.dampingRatio - windowDamping) : null;
 		const flags: FrfMode['flags'] = [];
-		const coherence = averages >= MIN_COHERENCE_AVERAGES ? coh[p.bin] : null;
+		const coherence = averages >= MIN_COHERENCE_AVERAGES ? frf.coherence[p.bin] : null;
 		if (coherence !== null && coherence < 0.9) flags.push('low-coherence');
 
 		if (hp && (hp[1] - hp[0]) * df < 5 * resolution) flags.push('coarse-resolution');
@@ -231,20 +262,44 @@ export function analyzeImpact(
 			dampingRatio: zeta && zeta > 0 ? zeta : null,
 			qFactor: zeta && zeta > 0 ? 1 / (2 * zeta) : null,
 			amplitude: ip.height,
-			h2Amplitude: interpolatePeak(mag2, p.bin).height,
+			h2Amplitude: interpolatePeak(frf.h2, p.bin).height,
 			coherence,
 			flags
 		};
 	});
-	modes.sort((a, b) => b.amplitude - a.amplitude);
+	return modes.sort((a, b) => b.amplitude - a.amplitude);
+}
+
+export function analyzeImpact(
+	force: ArrayLike<number>,
+	response: ArrayLike<number>,
+	sampleRateHz: number,
+	options: ImpactOptions = {}
+): ImpactResult {
+	const fs = positive('sampleRateHz', sampleRateHz);
+	checkChannels(force, response);
+	const progress = options.onProgress ?? (() => {});
+	const trigger = positive('trigger', options.trigger ?? 0.1);
+	const tauW = options.exponentialWindowS ?? null;
+	const { hits, accepted, seg } = hitsAndSegment(force, trigger);
+	const pre = Math.floor((options.preTrigger ?? 0.05) * seg);
+	const spectra = averagedSpectra(force, response, fs, accepted, seg, pre, tauW, progress);
+	const { averages, nfft } = spectra;
+	const frf = frfOf(spectra);
+	const df = fs / nfft;
+	const resolution = fs / seg;
+	const kBand = usableBandEnd(spectra.gff, positive('forceDropDb', options.forceDropDb ?? 10));
+	const fMax = Math.min(options.maxFrequencyHz ?? Infinity, 0.45 * fs, kBand * df);
+	const kMax = Math.floor(fMax / df);
+	const modes = frfModes(frf, kMax, df, resolution, averages, tauW, options);
 	const dec = bucketMax(
 		kMax + 1,
 		2048,
-		(k) => mag[k],
+		(k) => frf.h1[k],
 		(k) => k * df
 	);
 	const cohDec =
-		averages >= MIN_COHERENCE_AVERAGES ? dec.x.map((fx) => coh[Math.round(fx / df)]) : [];
+		averages >= MIN_COHERENCE_AVERAGES ? dec.x.map((fx) => frf.coherence[Math.round(fx / df)]) : [];
 	progress(1);
 	return {
 		hits,
