@@ -129,15 +129,8 @@ function unknownColumns(headers: string[]): RowError | null {
 	};
 }
 
-export function validate(text: string): { rows: ValidRow[]; errors: RowError[]; total: number } {
-	text = text.replace(/^\uFEFF/, '');
-	const refused = refuseText(text);
-	if (refused) return { rows: [], errors: [{ row: 1, column: '', message: refused }], total: 0 };
-	const parsed = Papa.parse<Record<string, string>>(text, {
-		header: true,
-		skipEmptyLines: 'greedy',
-		transformHeader: (h) => h.trim().toLowerCase()
-	});
+/** The header's problems: unknown columns, missing ones, and what the CSV parser refused. */
+function headerErrors(parsed: Papa.ParseResult<Record<string, string>>): RowError[] {
 	const errors: RowError[] = [];
 	const headers = parsed.meta.fields ?? [];
 	const unknown = unknownColumns(headers);
@@ -147,6 +140,112 @@ export function validate(text: string): { rows: ValidRow[]; errors: RowError[]; 
 			errors.push({ row: 1, column: need, message: `The column “${need}” is missing.` });
 	for (const e of parsed.errors)
 		errors.push({ row: (e.row ?? 0) + 2, column: '', message: e.message });
+	return errors;
+}
+
+/** One data row: its cells (trimmed) and the problems found in it, each with its column and value. */
+function rowCells(raw: Record<string, string>, row: number, errors: RowError[]) {
+	const get = (k: string) => (raw[k] ?? '').trim();
+	const cells = {
+		ok: true,
+		has: (k: string) => k in raw,
+		get,
+		/** a number cell (decimal comma allowed), undefined when empty */
+		n: (k: string) => (get(k) === '' ? undefined : Number(get(k).replace(',', '.'))),
+		fail(column: string, message: string) {
+			cells.ok = false;
+			const value = column && column in raw ? get(column) : undefined;
+			errors.push({ row, column, message, ...(value !== undefined ? { value } : {}) });
+		}
+	};
+	return cells;
+}
+type RowCells = ReturnType<typeof rowCells>;
+
+/** The row's asset fields through the asset form's schema, with the import's defaults. */
+function rowAsset(c: RowCells, ruleSetId: string | null) {
+	const form = assetForm.safeParse({
+		name: c.get('name'),
+		machineKind: c.get('machine_kind') || 'other',
+		driveType: c.get('drive_type') || (c.get('min_rpm') === c.get('max_rpm') ? 'fixed' : 'vfd'),
+		minRpm: c.get('min_rpm'),
+		maxRpm: c.get('max_rpm'),
+		nominalRpm: c.get('nominal_rpm'),
+		motorPoles: c.get('motor_poles'),
+		slipPct: c.get('slip_pct'),
+		driveRatio: c.get('drive_ratio') || '1',
+		skipBands: c.get('skip_bands') || '3',
+		ruleSetId: ruleSetId ?? '',
+		// a file without the column leaves each asset's group as it is
+		machineGroup: c.has('machine_group') ? c.get('machine_group') : undefined,
+		notes: ''
+	});
+	if (!form.success)
+		for (const issue of form.error.issues)
+			c.fail(COLUMN_OF[String(issue.path[0])] ?? String(issue.path[0] ?? ''), issue.message);
+	return form;
+}
+
+/** The row's excitation sources, each through its stored schema; a bad one fails its column. */
+function rowSources(c: RowCells, asset: ReturnType<typeof rowAsset>): ValidRow['sources'] {
+	const sources: ValidRow['sources'] = [];
+	const add = (
+		kind: keyof typeof sourceParams,
+		column: string,
+		params: Record<string, unknown>
+	) => {
+		const p = sourceParams[kind].safeParse(params);
+		if (!p.success) for (const issue of p.error.issues) c.fail(column, issue.message);
+		else sources.push({ kind, label: '', params: p.data as Record<string, unknown> });
+	};
+	const { get, n } = c;
+	if (get('shaft_orders'))
+		add('shaft', 'shaft_orders', {
+			orders: get('shaft_orders')
+				.split(/[;\s]+/)
+				.filter(Boolean)
+				.map(Number)
+		});
+	if (get('vane_count')) add('vane', 'vane_count', { count: n('vane_count') });
+	if (get('blade_count')) add('blade', 'blade_count', { count: n('blade_count') });
+	if (get('gear_teeth') || get('gear_mating_teeth'))
+		add('gear', 'gear_teeth', { teeth: n('gear_teeth'), matingTeeth: n('gear_mating_teeth') });
+	if (get('bearing_elements') || get('bearing_element_mm') || get('bearing_pitch_mm'))
+		add('bearing', 'bearing_elements', {
+			rollingElements: n('bearing_elements'),
+			elementDiameter: (n('bearing_element_mm') ?? NaN) / 1000,
+			pitchDiameter: (n('bearing_pitch_mm') ?? NaN) / 1000,
+			contactAngleDeg: n('bearing_angle_deg') ?? 0
+		});
+	if (get('line_hz'))
+		add('line', 'line_hz', {
+			lineFrequencyHz: n('line_hz'),
+			drive:
+				asset.success && asset.data.driveType === 'vfd' && asset.data.motorPoles
+					? { poles: asset.data.motorPoles, motorRpmPerShaftRpm: asset.data.driveRatio }
+					: null
+		});
+	if (get('fixed_hz') && get('fixed_cpm'))
+		c.fail('fixed_cpm', 'Give the fixed frequency once: in fixed_hz or in fixed_cpm, not both.');
+	else if (get('fixed_hz')) add('fixed', 'fixed_hz', { frequencyHz: n('fixed_hz') });
+	else if (get('fixed_cpm')) {
+		// a value that is no number goes on to the schema, which names it
+		const cpm = n('fixed_cpm') ?? NaN;
+		add('fixed', 'fixed_cpm', { frequencyHz: Number.isFinite(cpm) ? toHz(cpm, 'CPM') : cpm });
+	}
+	return sources;
+}
+
+export function validate(text: string): { rows: ValidRow[]; errors: RowError[]; total: number } {
+	text = text.replace(/^\uFEFF/, '');
+	const refused = refuseText(text);
+	if (refused) return { rows: [], errors: [{ row: 1, column: '', message: refused }], total: 0 };
+	const parsed = Papa.parse<Record<string, string>>(text, {
+		header: true,
+		skipEmptyLines: 'greedy',
+		transformHeader: (h) => h.trim().toLowerCase()
+	});
+	const errors = headerErrors(parsed);
 	if (errors.length) return { rows: [], errors, total: parsed.data.length };
 	const siteByCode = new Map(
 		db
@@ -168,94 +267,26 @@ export function validate(text: string): { rows: ValidRow[]; errors: RowError[]; 
 	// per row
 	parsed.data.forEach((raw, i) => {
 		const row = i + 2; // the header is row 1
-		const get = (k: string) => (raw[k] ?? '').trim();
-		let ok = true;
-		const fail = (column: string, message: string) => {
-			ok = false;
-			const value = column && column in raw ? get(column) : undefined;
-			errors.push({ row, column, message, ...(value !== undefined ? { value } : {}) });
-		};
-		const tag = get('tag');
+		const c = rowCells(raw, row, errors);
+		const tag = c.get('tag');
 		if (!/^[A-Za-z0-9][A-Za-z0-9._/-]{1,39}$/.test(tag))
-			fail('tag', 'Tag: 2–40 letters, digits, dots, dashes or slashes.');
-		else if (seen.has(tag)) fail('tag', `Tag ${tag} is also on row ${seen.get(tag)}.`);
+			c.fail('tag', 'Tag: 2–40 letters, digits, dots, dashes or slashes.');
+		else if (seen.has(tag)) c.fail('tag', `Tag ${tag} is also on row ${seen.get(tag)}.`);
 		else seen.set(tag, row);
-		const site = siteByCode.get(get('site_code').toUpperCase());
-		if (!site) fail('site_code', `No site with code “${get('site_code')}”.`);
-		const ruleName = get('rule_set');
-		const ruleSetId = ruleName ? ruleByName.get(ruleName.toLowerCase()) : null;
-		if (ruleName && !ruleSetId) fail('rule_set', `No rule set named “${ruleName}”.`);
-		const form = assetForm.safeParse({
-			name: get('name'),
-			machineKind: get('machine_kind') || 'other',
-			driveType: get('drive_type') || (get('min_rpm') === get('max_rpm') ? 'fixed' : 'vfd'),
-			minRpm: get('min_rpm'),
-			maxRpm: get('max_rpm'),
-			nominalRpm: get('nominal_rpm'),
-			motorPoles: get('motor_poles'),
-			slipPct: get('slip_pct'),
-			driveRatio: get('drive_ratio') || '1',
-			skipBands: get('skip_bands') || '3',
-			ruleSetId: ruleSetId ?? '',
-			// a file without the column leaves each asset's group as it is
-			machineGroup: 'machine_group' in raw ? get('machine_group') : undefined,
-			notes: ''
-		});
-		if (!form.success)
-			for (const issue of form.error.issues)
-				fail(COLUMN_OF[String(issue.path[0])] ?? String(issue.path[0] ?? ''), issue.message);
-		const sources: ValidRow['sources'] = [];
-		const add = (
-			kind: keyof typeof sourceParams,
-			column: string,
-			params: Record<string, unknown>
-		) => {
-			const p = sourceParams[kind].safeParse(params);
-			if (!p.success) for (const issue of p.error.issues) fail(column, issue.message);
-			else sources.push({ kind, label: '', params: p.data as Record<string, unknown> });
-		};
-		const n = (k: string) => (get(k) === '' ? undefined : Number(get(k).replace(',', '.')));
-		if (get('shaft_orders'))
-			add('shaft', 'shaft_orders', {
-				orders: get('shaft_orders')
-					.split(/[;\s]+/)
-					.filter(Boolean)
-					.map(Number)
-			});
-		if (get('vane_count')) add('vane', 'vane_count', { count: n('vane_count') });
-		if (get('blade_count')) add('blade', 'blade_count', { count: n('blade_count') });
-		if (get('gear_teeth') || get('gear_mating_teeth'))
-			add('gear', 'gear_teeth', { teeth: n('gear_teeth'), matingTeeth: n('gear_mating_teeth') });
-		if (get('bearing_elements') || get('bearing_element_mm') || get('bearing_pitch_mm'))
-			add('bearing', 'bearing_elements', {
-				rollingElements: n('bearing_elements'),
-				elementDiameter: (n('bearing_element_mm') ?? NaN) / 1000,
-				pitchDiameter: (n('bearing_pitch_mm') ?? NaN) / 1000,
-				contactAngleDeg: n('bearing_angle_deg') ?? 0
-			});
-		if (get('line_hz'))
-			add('line', 'line_hz', {
-				lineFrequencyHz: n('line_hz'),
-				drive:
-					form.success && form.data.driveType === 'vfd' && form.data.motorPoles
-						? { poles: form.data.motorPoles, motorRpmPerShaftRpm: form.data.driveRatio }
-						: null
-			});
-		if (get('fixed_hz') && get('fixed_cpm'))
-			fail('fixed_cpm', 'Give the fixed frequency once: in fixed_hz or in fixed_cpm, not both.');
-		else if (get('fixed_hz')) add('fixed', 'fixed_hz', { frequencyHz: n('fixed_hz') });
-		else if (get('fixed_cpm')) {
-			// a value that is no number goes on to the schema, which names it
-			const cpm = n('fixed_cpm') ?? NaN;
-			add('fixed', 'fixed_cpm', { frequencyHz: Number.isFinite(cpm) ? toHz(cpm, 'CPM') : cpm });
-		}
-		if (!ok || !site || !form.success) return;
+		const site = siteByCode.get(c.get('site_code').toUpperCase());
+		if (!site) c.fail('site_code', `No site with code “${c.get('site_code')}”.`);
+		const ruleName = c.get('rule_set');
+		const ruleSetId = ruleName ? (ruleByName.get(ruleName.toLowerCase()) ?? null) : null;
+		if (ruleName && !ruleSetId) c.fail('rule_set', `No rule set named “${ruleName}”.`);
+		const asset = rowAsset(c, ruleSetId);
+		const sources = rowSources(c, asset);
+		if (!c.ok || !site || !asset.success) return;
 		rows.push({
 			row,
 			tag,
 			siteId: site.id,
-			areaName: get('area') || null,
-			asset: form.data,
+			areaName: c.get('area') || null,
+			asset: asset.data,
 			sources
 		});
 	});
