@@ -843,34 +843,35 @@ function prony(re: Float64Array, fs: number, f: number) {
 	return { sigma, fd, quality };
 }
 
-/** Characterises one spectral peak: a mode (with its flags), or null when it does not ring down. */
-function characterise(
-	seg: Segment,
-	p: { bin: number; prominence: number },
-	neighbours: number[],
-	tones: Tone[],
-	tallest: number,
-	recordFlags: ModeFlag[],
-	disagreement: number
-): RingdownMode | 'steady' | 'residue' {
-	const { x, mag, fs, df, n, T, resolution, tauW, responseKind } = seg;
-	const ip = interpolatePeak(mag, p.bin);
+/** The peak's interpolated height and frequency, and its half-power band and damping. */
+function halfPowerOf(seg: Segment, bin: number) {
+	const { mag, df, tauW, responseKind } = seg;
+	const ip = interpolatePeak(mag, bin);
 	const fPeak = ip.bin * df;
-	const hp = halfPowerBins(mag, p.bin, ip.height);
+	const hp = halfPowerBins(mag, bin, ip.height);
 	const hpHz: [number, number] | null =
 		hp && hp[0] > 0 && hp[1] > hp[0] && Number.isFinite(hp[1]) ? [hp[0] * df, hp[1] * df] : null;
-	const windowDampingAt = (f: number) => (tauW === null ? 0 : 1 / (2 * Math.PI * f * tauW));
+	const windowDamping = tauW === null ? 0 : 1 / (2 * Math.PI * fPeak * tauW);
 	// exact for the quantity measured (ζ ≈ Δf/2f reads 5 % high at ζ = 0.15 and 26 % at 0.3)
 	const hpRaw = hpHz
-		? Math.max(
-				0,
-				halfPowerExact(hpHz[0], hpHz[1], responseKind).dampingRatio - windowDampingAt(fPeak)
-			)
+		? Math.max(0, halfPowerExact(hpHz[0], hpHz[1], responseKind).dampingRatio - windowDamping)
 		: null;
-	// envelope and phase by demodulation, rejecting the nearest neighbour and the 2f image
-	const nearest = neighbours.length
-		? Math.min(...neighbours.map((f) => Math.abs(f - fPeak)))
-		: Infinity;
+	return { height: ip.height, fPeak, hpHz, hpRaw };
+}
+
+/**
+ * The mode's decay: its envelope by demodulation at the peak, fitted on a log scale over the part
+ * that rings down, or (heavily damped, a poor envelope) Prony's one-mode fit of its band.
+ */
+function decayOf(
+	seg: Segment,
+	fPeak: number,
+	hpHz: [number, number] | null,
+	hpRaw: number | null,
+	nearest: number
+) {
+	const { x, fs, n } = seg;
+	// envelope and phase by demodulation, rejecting the nearest neighbour and the 2f image;
 	// the low-pass must also follow the decay: a heavily damped mode is gone in a few periods
 	const sigmaHp = hpHz ? Math.PI * (hpHz[1] - hpHz[0]) : 0;
 	const L = Math.min(
@@ -911,6 +912,30 @@ function characterise(
 	const sigma = useProny ? prony.sigma : fit ? -fit.slope : null;
 	const cleanFit =
 		useProny || (fit !== null && fit.r2 >= 0.95 && fit.points >= 8 && sigma !== null && sigma > 0);
+	// demodulated at the peak, the phase turns at f_d − f_peak
+	const phaseFd = () => {
+		const slope = cleanFit && !useProny ? phaseSlope(re, im, fs, from, to, step) : null;
+		return useProny ? prony.fd : slope !== null ? fPeak + slope / (2 * Math.PI) : fPeak;
+	};
+	return { sigma, cleanFit, dampedHz: phaseFd };
+}
+
+/** Characterises one spectral peak: a mode (with its flags), or null when it does not ring down. */
+function characterise(
+	seg: Segment,
+	p: { bin: number; prominence: number },
+	neighbours: number[],
+	tones: Tone[],
+	tallest: number,
+	recordFlags: ModeFlag[],
+	disagreement: number
+): RingdownMode | 'steady' | 'residue' {
+	const { fs, n, T, resolution, tauW } = seg;
+	const { height, fPeak, hpHz, hpRaw } = halfPowerOf(seg, p.bin);
+	const nearest = neighbours.length
+		? Math.min(...neighbours.map((f) => Math.abs(f - fPeak)))
+		: Infinity;
+	const { sigma, cleanFit, dampedHz } = decayOf(seg, fPeak, hpHz, hpRaw, nearest);
 	// a line that does not ring down (a tone the segment test could not see: a short record)
 	const steady =
 		(sigma === null || sigma * T < 0.2) && (hpHz === null || hpHz[1] - hpHz[0] < 3 * resolution);
@@ -918,13 +943,10 @@ function characterise(
 	// what is left of a subtracted tone (its speed wanders a little): poorly fitted, at the tone,
 	// and a small fraction of it
 	const residue = tones.some(
-		(t) =>
-			Math.abs(t.frequencyHz - fPeak) < 4 * resolution && (2 * ip.height) / n < 0.05 * t.amplitude
+		(t) => Math.abs(t.frequencyHz - fPeak) < 4 * resolution && (2 * height) / n < 0.05 * t.amplitude
 	);
 	if (residue && !cleanFit) return 'residue';
-	// demodulated at the peak, the phase turns at f_d − f_peak
-	const slope = cleanFit && !useProny ? phaseSlope(re, im, fs, from, to, step) : null;
-	const fd = useProny ? prony.fd : slope !== null ? fPeak + slope / (2 * Math.PI) : fPeak;
+	const fd = dampedHz();
 	const decayDamping = cleanFit
 		? (sigma as number) / Math.hypot(sigma as number, 2 * Math.PI * fd)
 		: null;
@@ -955,8 +977,8 @@ function characterise(
 	const sigmaW = (zeta !== null ? zeta * w : 0) + (tauW === null ? 0 : 1 / tauW);
 	const amplitude =
 		sigmaW > 0
-			? (2 * ip.height * -Math.expm1(-sigmaW / fs)) / -Math.expm1(-sigmaW * T)
-			: (2 * ip.height) / n;
+			? (2 * height * -Math.expm1(-sigmaW / fs)) / -Math.expm1(-sigmaW * T)
+			: (2 * height) / n;
 	return {
 		frequencyHz: fn,
 		dampedFrequencyHz: zeta !== null ? fn * Math.sqrt(Math.max(0, 1 - zeta * zeta)) : fd,
