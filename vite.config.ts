@@ -71,6 +71,10 @@ export default defineConfig({
 		// each test file gets its own in-memory database through $lib/server/db
 		env: { DATABASE_URL: ':memory:', SEED_DEMO: 'false', SMTP_PORT: '2727' },
 		expect: { requireAssertions: true },
+		// a guard against a hang, not a speed check (speed is benchmarked): the reference signals
+		// integrated by ODEX take seconds each under coverage on a loaded CI machine, past the
+		// default 5 s (the two-mode rotor of sweep.spec.ts took 2.3 s here and over 5 s in CI)
+		testTimeout: 30_000,
 		projects: [
 			{
 				extends: true,
