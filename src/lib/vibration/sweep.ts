@@ -195,6 +195,13 @@ function crossing(a: Float64Array, rpm: ArrayLike<number>, i: number, j: number,
 	return { rpm: rpm[i] + f * (rpm[j] - rpm[i]), at: i + f * (j - i) };
 }
 
+/** The largest value, 0 for none (a loop: a long record's tracks are too long to spread). */
+function largest(x: ArrayLike<number>): number {
+	let top = 0;
+	for (let i = 0; i < x.length; i++) top = Math.max(top, x[i]);
+	return top;
+}
+
 function at(x: ArrayLike<number>, pos: number): number {
 	const i = Math.floor(pos);
 	const f = pos - i;
@@ -239,8 +246,7 @@ export function resonancesOf(
 	// peak's own speed and height from the revolutions as measured
 	const a = median3(raw);
 	const phase = unwrapDeg(track.phaseDeg.subarray(fromRev, toRev + 1));
-	let top = 0;
-	for (const v of a) top = Math.max(top, v);
+	const top = largest(a);
 	const floor = SIGNIFICANCE * scatter(raw);
 	const found: Resonance[] = [];
 	const seen = new Set<string>();
@@ -458,7 +464,7 @@ export function analyzeSweep(
 			tracks: sub,
 			resonances: withoutLeaks(
 				tracks.flatMap((t) => resonancesOf(t, piece, revs)),
-				Math.max(...sub.map((t) => Math.max(...t.amplitude)))
+				Math.max(0, ...sub.map((t) => largest(t.amplitude)))
 			).sort((p, q) => p.criticalRpm - q.criticalRpm)
 		};
 	});
