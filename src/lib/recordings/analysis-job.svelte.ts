@@ -83,8 +83,3 @@ export class AnalysisJob<Done extends { type: string }> {
 		this.#worker = null;
 	}
 }
-
-/** The typed sample rate ("" for none; a decimal comma is taken as a point). */
-export function typedRate(text: string): number | null {
-	return text.trim() === '' ? null : Number(text.replace(',', '.'));
-}

@@ -2,17 +2,16 @@
 import { z } from 'zod';
 import { MACHINE_GROUPS } from '../rules/severity-limits.ts';
 import { MACHINE_KINDS_LIST } from './shared-enums.ts';
+import { decimalOrNull } from './form.ts';
 
 const numberText = (what: string) =>
 	z.preprocess(
-		(v) =>
-			typeof v === 'string' ? (v.trim() === '' ? undefined : Number(v.replace(',', '.'))) : v,
+		(v) => (typeof v === 'string' ? (decimalOrNull(v) ?? undefined) : v),
 		z.number({ error: `${what}: enter a number.` }).finite(`${what}: enter a number.`)
 	);
 const optionalNumber = (what: string) =>
 	z.preprocess(
-		(v) =>
-			typeof v === 'string' ? (v.trim() === '' ? null : Number(v.replace(',', '.'))) : (v ?? null),
+		(v) => (typeof v === 'string' ? decimalOrNull(v) : (v ?? null)),
 		z
 			.number({ error: `${what}: enter a number or leave it empty.` })
 			.finite()

@@ -1,5 +1,6 @@
 /** The audit log's filters, as its address carries them (and its CSV export's). */
 import { z } from 'zod';
+import { queryToObject } from './form.ts';
 
 const day = z
 	.string()
@@ -20,7 +21,7 @@ export type AuditQuery = z.infer<typeof auditQuery>;
 
 /** The address parsed, empty parameters as absent; `to` includes its whole day (UTC). */
 export function parseAuditQuery(params: URLSearchParams) {
-	const r = auditQuery.safeParse(Object.fromEntries([...params].filter(([, v]) => v !== '')));
+	const r = auditQuery.safeParse(queryToObject(params));
 	if (!r.success) return r;
 	const q = r.data;
 	return {

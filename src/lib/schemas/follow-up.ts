@@ -1,5 +1,6 @@
 /** Follow-up forms: created from a flagged check or an asset, then assigned, scheduled and closed. */
 import { z } from 'zod';
+import { queryToObject } from './form.ts';
 
 export const FOLLOW_UP_STATUS_LIST = ['open', 'scheduled', 'done', 'retested'] as const;
 export const PRIORITY_LIST = ['low', 'normal', 'high', 'urgent'] as const;
@@ -109,7 +110,7 @@ export type FollowUpListQuery = z.infer<typeof followUpListQuery>;
 
 /** The list's address parsed; empty parameters count as absent. */
 export const parseListQuery = (params: URLSearchParams) =>
-	followUpListQuery.safeParse(Object.fromEntries([...params].filter(([, v]) => v !== '')));
+	followUpListQuery.safeParse(queryToObject(params));
 
 export type FollowUpCreate = z.infer<typeof followUpCreate>;
 export type FollowUpUpdate = z.infer<typeof followUpUpdate>;

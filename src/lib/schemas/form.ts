@@ -21,3 +21,11 @@ export function formToObject(form: FormData, arrays: string[] = []): Record<stri
 	for (const key of arrays) out[key] ??= [];
 	return out;
 }
+
+/** A page address as an object for its schema; an empty parameter counts as absent. */
+export const queryToObject = (params: URLSearchParams): Record<string, string> =>
+	Object.fromEntries([...params].filter(([, v]) => v !== ''));
+
+/** A typed decimal ("17,2" or "17.2"): null when empty, NaN (which schemas refuse) when no number. */
+export const decimalOrNull = (text: string): number | null =>
+	text.trim() === '' ? null : Number(text.replace(',', '.'));

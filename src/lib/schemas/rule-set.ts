@@ -1,12 +1,12 @@
 /** The rule-set form: a fixed margin (with optional per-kind margins) or the amplification rule. */
 import { z } from 'zod';
 import { SOURCE_KINDS } from './excitation.ts';
+import { decimalOrNull } from './form.ts';
 import { RULE_TEMPLATES } from '../rules/templates.ts';
 
 const pct = (what: string) =>
 	z.preprocess(
-		(v) =>
-			typeof v === 'string' ? (v.trim() === '' ? undefined : Number(v.replace(',', '.'))) : v,
+		(v) => (typeof v === 'string' ? (decimalOrNull(v) ?? undefined) : v),
 		z
 			.number({ error: `${what}: enter a percentage.` })
 			.min(0, `${what}: 0 % or more.`)

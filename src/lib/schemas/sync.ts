@@ -4,6 +4,7 @@
  */
 import { overallVelocity } from './severity.ts';
 import { z } from 'zod';
+import { queryToObject } from './form.ts';
 import { DIRECTIONS_LIST, MODE_ORIGINS_LIST } from './shared-enums.ts';
 import { FREQUENCY_UNITS, toHz } from '../frequency.ts';
 
@@ -223,7 +224,7 @@ export const pullQuery = z
 
 /** The pull's query parsed; an empty parameter counts as absent. */
 export const parsePullQuery = (params: URLSearchParams) =>
-	pullQuery.safeParse(Object.fromEntries([...params].filter(([, v]) => v !== '')));
+	pullQuery.safeParse(queryToObject(params));
 
 export type ItemStatus = 'applied' | 'duplicate' | 'rejected';
 

@@ -13,6 +13,7 @@ import * as audit from './audit.ts';
 import { assetForm, type AssetForm } from '../../schemas/asset.ts';
 import { sourceParams } from '../../schemas/excitation.ts';
 import { toHz } from '../../frequency.ts';
+import { decimalOrNull } from '../../schemas/form.ts';
 
 export const IMPORT_COLUMNS = [
 	['tag', 'unique asset tag (required)'],
@@ -151,7 +152,7 @@ function rowCells(raw: Record<string, string>, row: number, errors: RowError[]) 
 		has: (k: string) => k in raw,
 		get,
 		/** a number cell (decimal comma allowed), undefined when empty */
-		n: (k: string) => (get(k) === '' ? undefined : Number(get(k).replace(',', '.'))),
+		n: (k: string) => decimalOrNull(get(k)) ?? undefined,
 		fail(column: string, message: string) {
 			cells.ok = false;
 			const value = column && column in raw ? get(column) : undefined;

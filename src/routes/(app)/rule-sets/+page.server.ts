@@ -3,7 +3,7 @@ import { requireRole, requireUser } from '$lib/server/guard';
 import * as rules from '$lib/server/db/rule-sets';
 import { inTurn } from '$lib/server/turns';
 import { parseRuleSetSave, ruleSetsQuery } from '$lib/schemas/rule-set';
-import { fieldErrors, formToObject } from '$lib/schemas/form';
+import { fieldErrors, formToObject, queryToObject } from '$lib/schemas/form';
 import { doneAction, failAction } from '$lib/server/forms';
 import { EDITORS } from '$lib/roles';
 import { RULE_TEMPLATES, ruleTemplate } from '$lib/rules/templates';
@@ -14,7 +14,7 @@ export const load: PageServerLoad = (event) => {
 	return {
 		ruleSets: rules.list(),
 		templates: RULE_TEMPLATES.map((t) => ({ key: t.key, label: t.label })),
-		template: ruleTemplate(ruleSetsQuery.parse(Object.fromEntries(event.url.searchParams)).from)
+		template: ruleTemplate(ruleSetsQuery.parse(queryToObject(event.url.searchParams)).from)
 	};
 };
 
